@@ -1,0 +1,83 @@
+import { index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
+import { users } from "./auth";
+import { createdAt, id, STAGES, ts } from "./common";
+import { organisations } from "./organisations";
+import { quotes } from "./quotes";
+import { requests } from "./requests";
+
+/** Commercial and production record made when a quote is accepted (1:1 with its request). */
+export const orders = sqliteTable(
+  "orders",
+  {
+    id: id(),
+    requestId: text("request_id")
+      .notNull()
+      .references(() => requests.id, { onDelete: "cascade" }),
+    orgId: text("org_id")
+      .notNull()
+      .references(() => organisations.id),
+    quoteId: text("quote_id")
+      .notNull()
+      .references(() => quotes.id),
+    poNumber: text("po_number").notNull(),
+    totalCents: integer("total_cents").notNull(),
+    depositCents: integer("deposit_cents").notNull(),
+    balanceCents: integer("balance_cents").notNull(),
+    currency: text("currency").notNull().default("usd"),
+    cellKey: text("cell_key"),
+    plannedStart: ts("planned_start"),
+    plannedShip: ts("planned_ship"),
+    carrier: text("carrier"),
+    trackingNumber: text("tracking_number"),
+    actualPrintHours: real("actual_print_hours"),
+    actualMaterialKg: real("actual_material_kg"),
+    actualMachiningHours: real("actual_machining_hours"),
+    inspectionResult: text("inspection_result", { enum: ["pass", "fail", "conditional"] }),
+    inspectionNotes: text("inspection_notes"),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("orders_request_uq").on(t.requestId), index("orders_org_idx").on(t.orgId)],
+);
+export type Order = typeof orders.$inferSelect;
+export type NewOrder = typeof orders.$inferInsert;
+
+export const SCHEDULE_BLOCK_KINDS = ["print", "cooling", "machining", "finishing"] as const;
+
+/** A block of time on a printing cell's calendar. */
+export const scheduleBlocks = sqliteTable(
+  "schedule_blocks",
+  {
+    id: id(),
+    orderId: text("order_id")
+      .notNull()
+      .references(() => orders.id, { onDelete: "cascade" }),
+    cellKey: text("cell_key").notNull(),
+    kind: text("kind", { enum: SCHEDULE_BLOCK_KINDS }).notNull(),
+    startsAt: ts("starts_at").notNull(),
+    endsAt: ts("ends_at").notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("schedule_blocks_cell_idx").on(t.cellKey, t.startsAt)],
+);
+export type ScheduleBlock = typeof scheduleBlocks.$inferSelect;
+
+/** Every stage transition, with who and when. */
+export const stageEvents = sqliteTable(
+  "stage_events",
+  {
+    id: id(),
+    requestId: text("request_id")
+      .notNull()
+      .references(() => requests.id, { onDelete: "cascade" }),
+    fromStage: text("from_stage", { enum: STAGES }),
+    toStage: text("to_stage", { enum: STAGES }).notNull(),
+    actorId: text("actor_id").references(() => users.id),
+    note: text("note"),
+    plannedAt: ts("planned_at"),
+    at: ts("at")
+      .notNull()
+      .$defaultFn(() => new Date()),
+  },
+  (t) => [index("stage_events_request_idx").on(t.requestId, t.at)],
+);
+export type StageEvent = typeof stageEvents.$inferSelect;

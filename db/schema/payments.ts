@@ -1,0 +1,71 @@
+import { index, integer, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
+import { users } from "./auth";
+import { createdAt, id, ts } from "./common";
+import { orders } from "./orders";
+import { organisations } from "./organisations";
+
+export const PAYMENT_STATUSES = ["pending", "paid", "failed", "expired", "refunded", "partially_refunded"] as const;
+export type PaymentStatus = (typeof PAYMENT_STATUSES)[number];
+
+export const payments = sqliteTable(
+  "payments",
+  {
+    id: id(),
+    orderId: text("order_id")
+      .notNull()
+      .references(() => orders.id),
+    orgId: text("org_id")
+      .notNull()
+      .references(() => organisations.id),
+    kind: text("kind", { enum: ["deposit", "balance"] }).notNull(),
+    status: text("status", { enum: PAYMENT_STATUSES }).notNull().default("pending"),
+    amountCents: integer("amount_cents").notNull(),
+    feeCents: integer("fee_cents"),
+    refundedCents: integer("refunded_cents").notNull().default(0),
+    currency: text("currency").notNull().default("usd"),
+    checkoutSessionId: text("checkout_session_id"),
+    checkoutUrl: text("checkout_url"),
+    paymentIntentId: text("payment_intent_id"),
+    chargeId: text("charge_id"),
+    receiptUrl: text("receipt_url"),
+    createdById: text("created_by_id").references(() => users.id),
+    createdAt: createdAt(),
+    paidAt: ts("paid_at"),
+  },
+  (t) => [
+    uniqueIndex("payments_checkout_session_uq").on(t.checkoutSessionId),
+    index("payments_order_idx").on(t.orderId),
+    index("payments_org_idx").on(t.orgId),
+  ],
+);
+export type Payment = typeof payments.$inferSelect;
+export type NewPayment = typeof payments.$inferInsert;
+
+export const refunds = sqliteTable(
+  "refunds",
+  {
+    id: id(),
+    paymentId: text("payment_id")
+      .notNull()
+      .references(() => payments.id),
+    amountCents: integer("amount_cents").notNull(),
+    reason: text("reason").notNull(),
+    status: text("status", { enum: ["pending", "succeeded", "failed"] }).notNull().default("pending"),
+    stripeRefundId: text("stripe_refund_id"),
+    idempotencyKey: text("idempotency_key").notNull(),
+    createdById: text("created_by_id").references(() => users.id),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("refunds_idempotency_uq").on(t.idempotencyKey), uniqueIndex("refunds_stripe_uq").on(t.stripeRefundId)],
+);
+export type Refund = typeof refunds.$inferSelect;
+
+/** Processed webhook events, for de-duplication by event id. */
+export const webhookEvents = sqliteTable("webhook_events", {
+  id: text("id").primaryKey(),
+  type: text("type").notNull(),
+  outcome: text("outcome").notNull(),
+  receivedAt: ts("received_at")
+    .notNull()
+    .$defaultFn(() => new Date()),
+});

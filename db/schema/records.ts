@@ -1,0 +1,95 @@
+import { index, integer, sqliteTable, text } from "drizzle-orm/sqlite-core";
+import { users } from "./auth";
+import { createdAt, id } from "./common";
+import { organisations } from "./organisations";
+import { requests } from "./requests";
+
+/** Messages between the client and the bureau on a request; threaded by parentId. */
+export const messages = sqliteTable(
+  "messages",
+  {
+    id: id(),
+    requestId: text("request_id")
+      .notNull()
+      .references(() => requests.id, { onDelete: "cascade" }),
+    orgId: text("org_id")
+      .notNull()
+      .references(() => organisations.id),
+    authorId: text("author_id")
+      .notNull()
+      .references(() => users.id),
+    parentId: text("parent_id"),
+    isFromStaff: integer("is_from_staff", { mode: "boolean" }).notNull().default(false),
+    body: text("body").notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("messages_request_idx").on(t.requestId, t.createdAt)],
+);
+export type Message = typeof messages.$inferSelect;
+
+export const DOCUMENT_KINDS = ["quote", "inspection_report", "invoice", "receipt", "attachment", "drawing"] as const;
+
+/** Files attached to a request: reports, invoices, message attachments. */
+export const documents = sqliteTable(
+  "documents",
+  {
+    id: id(),
+    requestId: text("request_id")
+      .notNull()
+      .references(() => requests.id, { onDelete: "cascade" }),
+    orgId: text("org_id")
+      .notNull()
+      .references(() => organisations.id),
+    messageId: text("message_id").references(() => messages.id),
+    kind: text("kind", { enum: DOCUMENT_KINDS }).notNull(),
+    title: text("title").notNull(),
+    fileKey: text("file_key"),
+    fileName: text("file_name"),
+    sizeBytes: integer("size_bytes"),
+    contentType: text("content_type"),
+    /** Generated documents (invoices, quote pages) keep their data here instead of a file. */
+    data: text("data", { mode: "json" }).$type<Record<string, unknown>>(),
+    uploadedById: text("uploaded_by_id").references(() => users.id),
+    createdAt: createdAt(),
+  },
+  (t) => [index("documents_request_idx").on(t.requestId)],
+);
+export type Document = typeof documents.$inferSelect;
+
+/** Who did what, when: every staff action, every file download. */
+export const auditLog = sqliteTable(
+  "audit_log",
+  {
+    id: id(),
+    actorId: text("actor_id").references(() => users.id),
+    action: text("action").notNull(),
+    entityType: text("entity_type").notNull(),
+    entityId: text("entity_id"),
+    orgId: text("org_id"),
+    before: text("before", { mode: "json" }).$type<unknown>(),
+    after: text("after", { mode: "json" }).$type<unknown>(),
+    ip: text("ip"),
+    at: createdAt(),
+  },
+  (t) => [index("audit_log_at_idx").on(t.at), index("audit_log_entity_idx").on(t.entityType, t.entityId)],
+);
+export type AuditEntry = typeof auditLog.$inferSelect;
+
+/** Messages accepted by the e-mail API (the local fake stores every message here). */
+export const emailOutbox = sqliteTable(
+  "email_outbox",
+  {
+    id: id(),
+    providerId: text("provider_id"),
+    fromAddress: text("from_address").notNull(),
+    toAddresses: text("to_addresses", { mode: "json" }).$type<string[]>().notNull(),
+    subject: text("subject").notNull(),
+    html: text("html"),
+    text: text("text"),
+    tags: text("tags", { mode: "json" }).$type<{ name: string; value: string }[]>(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("email_outbox_created_idx").on(t.createdAt)],
+);
+export type OutboxMessage = typeof emailOutbox.$inferSelect;
+export type NewOutboxMessage = typeof emailOutbox.$inferInsert;

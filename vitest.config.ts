@@ -1,0 +1,31 @@
+import react from "@vitejs/plugin-react";
+import path from "node:path";
+import { defineConfig } from "vitest/config";
+
+export default defineConfig({
+  plugins: [react()],
+  resolve: { alias: { "@": path.resolve(import.meta.dirname) } },
+  test: {
+    projects: [
+      {
+        extends: true,
+        test: {
+          name: "unit",
+          include: ["lib/**/*.test.ts", "components/**/*.test.{ts,tsx}", "mocks/**/*.test.ts", "emails/**/*.test.{ts,tsx}", "db/**/*.test.ts"],
+          environment: "node",
+          testTimeout: 60_000,
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: "integration",
+          include: ["tests/integration/**/*.test.ts"],
+          environment: "node",
+          testTimeout: 60_000,
+          fileParallelism: false,
+        },
+      },
+    ],
+  },
+});
