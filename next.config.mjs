@@ -5,6 +5,7 @@ const nextConfig = {
   poweredByHeader: false,
   serverExternalPackages: ["@libsql/client", "libsql", "occt-import-js", "manifold-3d"],
   experimental: {
+    authInterrupts: true,
     serverActions: { bodySizeLimit: "2mb" },
   },
 };

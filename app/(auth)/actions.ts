@@ -1,0 +1,96 @@
+"use server";
+
+import { AuthError } from "next-auth";
+import { redirect } from "next/navigation";
+import { createElement } from "react";
+import { getDb } from "@/db/client";
+import { getUserForSignIn } from "@/db/queries/auth";
+import { createClientFirmWithAdmin, isEmailTaken } from "@/db/queries/organisations";
+import WelcomeEmail from "@/emails/welcome";
+import { signIn, signOut } from "@/lib/auth/config";
+import { hashPassword } from "@/lib/auth/password";
+import { homePathFor } from "@/lib/auth/policy";
+import { sendEmail } from "@/lib/email/send";
+import { env } from "@/lib/env";
+import type { ActionResult } from "@/lib/errors";
+import { magicLinkSchema, safeCallbackPath, signInSchema, signUpSchema } from "@/lib/validation/auth";
+
+type FormResult = ActionResult<undefined> | null;
+
+function fieldErrorsOf(error: { issues: { path: PropertyKey[]; message: string }[] }) {
+  const out: Record<string, string[]> = {};
+  for (const issue of error.issues) {
+    const key = String(issue.path[0] ?? "form");
+    (out[key] ??= []).push(issue.message);
+  }
+  return out;
+}
+
+export async function signInWithPassword(_prev: FormResult, formData: FormData): Promise<FormResult> {
+  const parsed = signInSchema.safeParse(Object.fromEntries(formData));
+  if (!parsed.success) {
+    return { ok: false, code: "invalid_input", message: "Check the highlighted fields.", fieldErrors: fieldErrorsOf(parsed.error) };
+  }
+  const { email, password, callbackUrl } = parsed.data;
+  try {
+    await signIn("credentials", { email, password, redirect: false });
+  } catch (e) {
+    if (e instanceof AuthError) {
+      const locked = (e as AuthError & { code?: string }).code === "locked";
+      return {
+        ok: false,
+        code: locked ? "rate_limited" : "unauthenticated",
+        message: locked
+          ? "Too many failed attempts. Sign-in is paused for 15 minutes; you can use an e-mail link meanwhile."
+          : "That e-mail and password do not match an account.",
+      };
+    }
+    throw e;
+  }
+  const user = await getUserForSignIn(getDb(), email);
+  redirect(safeCallbackPath(callbackUrl) ?? homePathFor(user?.role ?? "client"));
+}
+
+export async function requestMagicLink(_prev: FormResult, formData: FormData): Promise<FormResult> {
+  const parsed = magicLinkSchema.safeParse(Object.fromEntries(formData));
+  if (!parsed.success) {
+    return { ok: false, code: "invalid_input", message: "Check the highlighted fields.", fieldErrors: fieldErrorsOf(parsed.error) };
+  }
+  await signIn("email", { email: parsed.data.email.toLowerCase(), redirect: false, redirectTo: "/after-sign-in" });
+  redirect("/sign-in/check-email");
+}
+
+export async function signUp(_prev: FormResult, formData: FormData): Promise<FormResult> {
+  const parsed = signUpSchema.safeParse(Object.fromEntries(formData));
+  if (!parsed.success) {
+    return { ok: false, code: "invalid_input", message: "Check the highlighted fields.", fieldErrors: fieldErrorsOf(parsed.error) };
+  }
+  const input = { ...parsed.data, email: parsed.data.email.toLowerCase() };
+  const db = getDb();
+  if (await isEmailTaken(db, input.email)) {
+    return {
+      ok: false,
+      code: "conflict",
+      message: "An account with this e-mail already exists. Sign in, or ask your firm's lead to invite you.",
+      fieldErrors: { email: ["Already registered."] },
+    };
+  }
+  await createClientFirmWithAdmin(db, { ...input, passwordHash: await hashPassword(input.password) });
+  try {
+    await sendEmail({
+      to: input.email,
+      subject: "Welcome to Layerwright",
+      react: createElement(WelcomeEmail, { name: input.name, firmName: input.firmName, portalUrl: `${env().APP_URL}/portal` }),
+      tags: [{ name: "template", value: "welcome" }],
+    });
+  } catch (e) {
+    // The account exists; a failed welcome e-mail must not undo it.
+    console.error("welcome e-mail failed", e);
+  }
+  await signIn("credentials", { email: input.email, password: input.password, redirect: false });
+  redirect("/portal");
+}
+
+export async function signOutAction() {
+  await signOut({ redirectTo: "/" });
+}

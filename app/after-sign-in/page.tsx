@@ -1,0 +1,11 @@
+import { redirect } from "next/navigation";
+import { getCurrentUser } from "@/lib/auth/guard";
+import { homePathFor } from "@/lib/auth/policy";
+
+export const dynamic = "force-dynamic";
+
+/** Where a magic link lands: send each role to its own home. */
+export default async function AfterSignInPage() {
+  const user = await getCurrentUser();
+  redirect(user ? homePathFor(user.role) : "/sign-in");
+}

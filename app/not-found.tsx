@@ -1,0 +1,14 @@
+import Link from "next/link";
+
+export default function NotFound() {
+  return (
+    <main className="mx-auto max-w-lg px-6 py-24 text-center">
+      <p className="text-sm font-semibold text-kiln-700">404</p>
+      <h1 className="mt-2 text-2xl font-semibold text-ink-900">Nothing here</h1>
+      <p className="mt-3 text-ink-600">This page does not exist, or it is not yours to see.</p>
+      <Link href="/after-sign-in" className="mt-6 inline-block font-medium text-kiln-700 underline">
+        Go to your home page
+      </Link>
+    </main>
+  );
+}

@@ -1,0 +1,44 @@
+"use client";
+
+import { useActionState } from "react";
+import { requestMagicLink, signInWithPassword } from "@/app/(auth)/actions";
+import { Button } from "@/components/ui/button";
+import { Field, FormMessage, Input } from "@/components/ui/input";
+
+export function SignInForm({ callbackUrl }: { callbackUrl?: string }) {
+  const [state, action, pending] = useActionState(signInWithPassword, null);
+  const [linkState, linkAction, linkPending] = useActionState(requestMagicLink, null);
+  const errors = state && !state.ok ? state.fieldErrors : undefined;
+  const linkErrors = linkState && !linkState.ok ? linkState.fieldErrors : undefined;
+
+  return (
+    <div className="space-y-8">
+      <form action={action} className="space-y-4" noValidate>
+        <input type="hidden" name="callbackUrl" value={callbackUrl ?? ""} />
+        <Field label="E-mail" htmlFor="email" error={errors?.email?.[0]}>
+          <Input id="email" name="email" type="email" autoComplete="email" required aria-invalid={Boolean(errors?.email)} />
+        </Field>
+        <Field label="Password" htmlFor="password" error={errors?.password?.[0]}>
+          <Input id="password" name="password" type="password" autoComplete="current-password" required aria-invalid={Boolean(errors?.password)} />
+        </Field>
+        <FormMessage>{state && !state.ok && !errors ? state.message : undefined}</FormMessage>
+        <Button type="submit" className="w-full" disabled={pending}>
+          {pending ? "Signing in…" : "Sign in"}
+        </Button>
+      </form>
+
+      <div className="flex items-center gap-3 text-xs uppercase tracking-wide text-ink-400">
+        <span className="h-px flex-1 bg-paper-300" /> or get a link by e-mail <span className="h-px flex-1 bg-paper-300" />
+      </div>
+
+      <form action={linkAction} className="space-y-3" noValidate>
+        <Field label="E-mail for a sign-in link" htmlFor="link-email" error={linkErrors?.email?.[0]}>
+          <Input id="link-email" name="email" type="email" autoComplete="email" aria-invalid={Boolean(linkErrors?.email)} />
+        </Field>
+        <Button type="submit" variant="secondary" className="w-full" disabled={linkPending}>
+          {linkPending ? "Sending…" : "E-mail me a sign-in link"}
+        </Button>
+      </form>
+    </div>
+  );
+}

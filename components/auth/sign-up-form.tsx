@@ -1,0 +1,37 @@
+"use client";
+
+import { useActionState } from "react";
+import { signUp } from "@/app/(auth)/actions";
+import { Button } from "@/components/ui/button";
+import { Field, FormMessage, Input, Select } from "@/components/ui/input";
+
+export function SignUpForm() {
+  const [state, action, pending] = useActionState(signUp, null);
+  const errors = state && !state.ok ? state.fieldErrors : undefined;
+  return (
+    <form action={action} className="space-y-4" noValidate>
+      <Field label="Your name" htmlFor="name" error={errors?.name?.[0]}>
+        <Input id="name" name="name" autoComplete="name" aria-invalid={Boolean(errors?.name)} />
+      </Field>
+      <Field label="Firm" htmlFor="firmName" error={errors?.firmName?.[0]} hint="You become your firm's lead and can invite colleagues.">
+        <Input id="firmName" name="firmName" autoComplete="organization" aria-invalid={Boolean(errors?.firmName)} />
+      </Field>
+      <Field label="Work e-mail" htmlFor="email" error={errors?.email?.[0]}>
+        <Input id="email" name="email" type="email" autoComplete="email" aria-invalid={Boolean(errors?.email)} />
+      </Field>
+      <Field label="Password" htmlFor="password" error={errors?.password?.[0]} hint="At least 10 characters, with a digit.">
+        <Input id="password" name="password" type="password" autoComplete="new-password" aria-invalid={Boolean(errors?.password)} />
+      </Field>
+      <Field label="Units you work in" htmlFor="unitsPref">
+        <Select id="unitsPref" name="unitsPref" defaultValue="mm">
+          <option value="mm">Millimetres and kilograms</option>
+          <option value="in">Inches and pounds</option>
+        </Select>
+      </Field>
+      <FormMessage>{state && !state.ok ? state.message : undefined}</FormMessage>
+      <Button type="submit" className="w-full" disabled={pending}>
+        {pending ? "Creating account…" : "Create account"}
+      </Button>
+    </form>
+  );
+}

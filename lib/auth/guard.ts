@@ -1,0 +1,61 @@
+import { cache } from "react";
+import { getDb } from "@/db/client";
+import { getSessionUser } from "@/db/queries/auth";
+import type { Role } from "@/db/schema/common";
+import { AppError } from "@/lib/errors";
+import { auth } from "./config";
+import { canOpenFiles, canSee, hasPermission, type Permission, type PolicyResource, type PolicyUser } from "./policy";
+
+export interface CurrentUser extends PolicyUser {
+  name: string | null;
+  email: string;
+  unitsPref: "mm" | "in";
+}
+
+/**
+ * The one server-side choke point: who is signed in, loaded fresh from the database (cached for
+ * the request). Returns null when signed out or disabled.
+ */
+export const getCurrentUser = cache(async (): Promise<CurrentUser | null> => {
+  const session = await auth();
+  const id = session?.user?.id;
+  if (!id) return null;
+  const row = await getSessionUser(getDb(), id);
+  if (!row || row.disabledAt) return null;
+  return {
+    id: row.id,
+    name: row.name,
+    email: row.email,
+    role: row.role,
+    orgId: row.orgId ?? null,
+    isControlledCleared: row.isControlledCleared,
+    unitsPref: row.unitsPref,
+  };
+});
+
+export async function requireUser(): Promise<CurrentUser> {
+  const user = await getCurrentUser();
+  if (!user) throw new AppError("unauthenticated", "Please sign in.");
+  return user;
+}
+
+export async function requireRole(...roles: Role[]): Promise<CurrentUser> {
+  const user = await requireUser();
+  if (!roles.includes(user.role)) throw new AppError("forbidden", "Your role does not give access to this.");
+  return user;
+}
+
+export async function requirePermission(permission: Permission): Promise<CurrentUser> {
+  const user = await requireUser();
+  if (!hasPermission(user, permission)) throw new AppError("forbidden", "Your role does not give access to this.");
+  return user;
+}
+
+/** Organisation scope: another firm's record answers 404, never 403, so its existence stays hidden. */
+export function assertCanSee(user: PolicyUser, resource: PolicyResource | null | undefined, what = "record"): asserts resource is PolicyResource {
+  if (!resource || !canSee(user, resource)) throw new AppError(`not_found:${what}`, `That ${what} was not found.`);
+}
+
+export function assertCanOpenFiles(user: PolicyUser, resource: PolicyResource | null | undefined, what = "file"): asserts resource is PolicyResource {
+  if (!resource || !canOpenFiles(user, resource)) throw new AppError(`not_found:${what}`, `That ${what} was not found.`);
+}

@@ -1,0 +1,106 @@
+import type { Role } from "../../db/schema/common";
+
+/**
+ * The pure role × permission table. The UI may call `can()` to hide a button; the server always
+ * checks again through lib/auth/guard.ts.
+ */
+export const PERMISSIONS = [
+  // client side
+  "request:create",
+  "request:read_own",
+  "request:read_org",
+  "request:edit_draft",
+  "quote:accept",
+  "payment:pay",
+  "message:post",
+  "members:manage",
+  "billing:manage",
+  // staff side
+  "admin:access",
+  "sales:inbox",
+  "quote:manage",
+  "production:board",
+  "production:schedule",
+  "production:record",
+  "accounts:ledger",
+  "accounts:refund",
+  "admin:staff",
+  "admin:catalogue",
+  "admin:audit",
+  "admin:outbox",
+  "request:read_any",
+] as const;
+export type Permission = (typeof PERMISSIONS)[number];
+
+const CLIENT: Permission[] = ["request:create", "request:read_own", "request:edit_draft", "quote:accept", "payment:pay", "message:post"];
+const STAFF_BASE: Permission[] = ["admin:access", "request:read_any"];
+
+export const ROLE_PERMISSIONS: Record<Role, ReadonlySet<Permission>> = {
+  client: new Set(CLIENT),
+  client_admin: new Set<Permission>([...CLIENT, "request:read_org", "members:manage", "billing:manage"]),
+  sales: new Set<Permission>([...STAFF_BASE, "sales:inbox", "quote:manage", "message:post"]),
+  production: new Set<Permission>([...STAFF_BASE, "production:board", "production:schedule", "production:record"]),
+  accounts: new Set<Permission>([...STAFF_BASE, "accounts:ledger", "accounts:refund"]),
+  admin: new Set<Permission>(PERMISSIONS),
+};
+
+export interface PolicyUser {
+  id: string;
+  role: Role;
+  orgId: string | null;
+  isControlledCleared: boolean;
+}
+
+/** A record's owner, for organisation scope and controlled data. */
+export interface PolicyResource {
+  orgId: string;
+  createdById?: string;
+  isControlled?: boolean;
+}
+
+export function isStaff(role: Role): boolean {
+  return role === "sales" || role === "production" || role === "accounts" || role === "admin";
+}
+
+export function hasPermission(user: Pick<PolicyUser, "role">, permission: Permission): boolean {
+  return ROLE_PERMISSIONS[user.role].has(permission);
+}
+
+/** May this user see this record at all? Staff: any; client_admin: own firm; client: own requests. */
+export function canSee(user: PolicyUser, resource: PolicyResource): boolean {
+  if (isStaff(user.role)) return true;
+  if (!user.orgId || user.orgId !== resource.orgId) return false;
+  if (user.role === "client_admin") return true;
+  return resource.createdById === undefined || resource.createdById === user.id;
+}
+
+/** May this user open the files of this record? Controlled records: own firm, or cleared staff. */
+export function canOpenFiles(user: PolicyUser, resource: PolicyResource): boolean {
+  if (!canSee(user, resource)) return false;
+  if (!resource.isControlled) return true;
+  if (isStaff(user.role)) return user.isControlledCleared;
+  return true;
+}
+
+/** The permission check, with the resource's scope when one is given. */
+export function can(user: PolicyUser, permission: Permission, resource?: PolicyResource): boolean {
+  if (!hasPermission(user, permission)) return false;
+  return resource ? canSee(user, resource) : true;
+}
+
+/** Where each role lands after signing in. */
+export function homePathFor(role: Role): string {
+  switch (role) {
+    case "client":
+    case "client_admin":
+      return "/portal";
+    case "sales":
+      return "/admin/sales";
+    case "production":
+      return "/admin/production";
+    case "accounts":
+      return "/admin/accounts";
+    case "admin":
+      return "/admin";
+  }
+}

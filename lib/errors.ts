@@ -1,0 +1,59 @@
+/** One error type for expected failures; the code maps to an HTTP status and plain user text. */
+export type AppErrorCode =
+  | "unauthenticated"
+  | "forbidden"
+  | "not_found"
+  | "invalid_input"
+  | "conflict"
+  | "rate_limited"
+  | "unavailable"
+  | "payment_failed";
+
+const STATUS: Record<AppErrorCode, number> = {
+  unauthenticated: 401,
+  forbidden: 403,
+  not_found: 404,
+  invalid_input: 400,
+  conflict: 409,
+  rate_limited: 429,
+  unavailable: 503,
+  payment_failed: 402,
+};
+
+export class AppError extends Error {
+  /** e.g. "forbidden:order" — the part before ":" picks the status. */
+  constructor(
+    public readonly code: `${AppErrorCode}` | `${AppErrorCode}:${string}`,
+    message: string,
+    public readonly fieldErrors?: Record<string, string[]>,
+  ) {
+    super(message);
+    this.name = "AppError";
+  }
+
+  get kind(): AppErrorCode {
+    return this.code.split(":")[0] as AppErrorCode;
+  }
+
+  get status(): number {
+    return STATUS[this.kind];
+  }
+}
+
+export function isAppError(e: unknown): e is AppError {
+  return e instanceof AppError;
+}
+
+export const notFound = (what = "record") => new AppError(`not_found:${what}`, `That ${what} was not found.`);
+
+/** Result shape returned by server actions. */
+export type ActionResult<T = undefined> =
+  | { ok: true; data: T }
+  | { ok: false; code: string; message: string; fieldErrors?: Record<string, string[]> };
+
+/** Turn an unknown throw into an action result; unexpected errors are logged, shown plainly. */
+export function toActionError(e: unknown): Extract<ActionResult<never>, { ok: false }> {
+  if (isAppError(e)) return { ok: false, code: e.code, message: e.message, fieldErrors: e.fieldErrors };
+  console.error(e);
+  return { ok: false, code: "internal", message: "Something went wrong on our side. Nothing was saved; please try again." };
+}

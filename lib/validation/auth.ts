@@ -1,0 +1,31 @@
+import { z } from "zod";
+
+export const signInSchema = z.object({
+  email: z.email("Enter a valid e-mail address.").max(320),
+  password: z.string().min(1, "Enter your password.").max(200),
+  callbackUrl: z.string().max(500).optional(),
+});
+export type SignInInput = z.infer<typeof signInSchema>;
+
+export const magicLinkSchema = z.object({
+  email: z.email("Enter a valid e-mail address.").max(320),
+});
+
+export const signUpSchema = z.object({
+  name: z.string().trim().min(2, "Enter your name.").max(120),
+  firmName: z.string().trim().min(2, "Enter your firm's name.").max(160),
+  email: z.email("Enter a valid e-mail address.").max(320),
+  password: z
+    .string()
+    .min(10, "Use at least 10 characters.")
+    .max(200, "Use at most 200 characters.")
+    .refine((p) => /[A-Za-z]/.test(p) && /[0-9]/.test(p), "Use letters and at least one digit."),
+  unitsPref: z.enum(["mm", "in"]).default("mm"),
+});
+export type SignUpInput = z.infer<typeof signUpSchema>;
+
+/** Only same-site relative paths may be used as a post-sign-in destination. */
+export function safeCallbackPath(value: string | undefined | null): string | null {
+  if (!value || !value.startsWith("/") || value.startsWith("//") || value.includes("\\")) return null;
+  return value;
+}
