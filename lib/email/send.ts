@@ -1,0 +1,87 @@
+import { render } from "@react-email/render";
+import type { ReactElement } from "react";
+import { Resend } from "resend";
+import { env } from "../env";
+
+export interface SendEmailInput {
+  to: string | string[];
+  subject: string;
+  /** A react-email template element, e.g. `createElement(WelcomeEmail, props)`. */
+  react: ReactElement;
+  /** Plain-text part; rendered from the template when omitted. */
+  text?: string;
+  /** Resend tags: ASCII letters, digits, `_` and `-` only. */
+  tags?: { name: string; value: string }[];
+  from?: string;
+  replyTo?: string | string[];
+  /** Resend de-duplicates sends with the same key for 24 h. */
+  idempotencyKey?: string;
+}
+
+/** A send the e-mail API refused or could not take; `name` is Resend's error name. */
+export class EmailSendError extends Error {
+  constructor(
+    message: string,
+    readonly errorName: string,
+    readonly statusCode: number | null,
+  ) {
+    super(message);
+    this.name = "EmailSendError";
+  }
+}
+
+let client: Resend | undefined;
+
+/**
+ * The one Resend client. `RESEND_BASE_URL` points it at the local fake (mocks/resend); unset,
+ * the SDK talks to the hosted API.
+ */
+export function getResend(): Resend {
+  if (!client) {
+    const e = env();
+    client = new Resend(e.RESEND_API_KEY, e.RESEND_BASE_URL ? { baseUrl: e.RESEND_BASE_URL.replace(/\/$/, "") } : undefined);
+  }
+  return client;
+}
+
+/** For tests that change the environment between cases. */
+export function resetResendClient(): void {
+  client = undefined;
+}
+
+/**
+ * Render a react-email template to HTML (and plain text) and send it through Resend. The SDK
+ * answers `{ data, error }` and does not throw on API errors; this throws `EmailSendError` so a
+ * failed send is never mistaken for a sent one. Returns the provider's message id.
+ */
+export async function sendEmail(input: SendEmailInput, resend: Resend = getResend()): Promise<{ id: string }> {
+  const html = await render(input.react);
+  const text = input.text ?? (await render(input.react, { plainText: true }));
+  let result: Awaited<ReturnType<Resend["emails"]["send"]>>;
+  try {
+    result = await resend.emails.send(
+      {
+        from: input.from ?? env().EMAIL_FROM,
+        to: input.to,
+        subject: input.subject,
+        html,
+        text,
+        tags: input.tags,
+        replyTo: input.replyTo,
+      },
+      input.idempotencyKey ? { idempotencyKey: input.idempotencyKey } : undefined,
+    );
+  } catch (e) {
+    throw new EmailSendError(`E-mail "${input.subject}" could not be sent: ${(e as Error).message}`, "network_error", null);
+  }
+  const { data, error } = result;
+  if (error || !data) {
+    const statusCode = error && "statusCode" in error ? (error.statusCode as number | null) : null;
+    throw new EmailSendError(
+      `E-mail "${input.subject}" was refused by the e-mail API: ${error?.message ?? "no message id returned"}`,
+      error?.name ?? "unknown",
+      statusCode,
+    );
+  }
+  return { id: data.id };
+}
