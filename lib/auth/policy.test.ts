@@ -1,0 +1,79 @@
+import { describe, expect, it } from "vitest";
+import { ROLES, type Role } from "../../db/schema/common";
+import { can, canOpenFiles, canSee, hasPermission, homePathFor, isStaff, PERMISSIONS, type Permission, type PolicyUser } from "./policy";
+
+const user = (role: Role, over: Partial<PolicyUser> = {}): PolicyUser => ({
+  id: `${role}-1`,
+  role,
+  orgId: role === "client" || role === "client_admin" ? "org-a" : null,
+  isControlledCleared: false,
+  ...over,
+});
+
+/** The expected table, written out by hand so that a changed grant fails here. */
+const EXPECTED: Record<Role, Permission[]> = {
+  client: ["request:create", "request:read_own", "request:edit_draft", "quote:accept", "payment:pay", "message:post"],
+  client_admin: ["request:create", "request:read_own", "request:read_org", "request:edit_draft", "quote:accept", "payment:pay", "message:post", "members:manage", "billing:manage"],
+  sales: ["admin:access", "request:read_any", "sales:inbox", "quote:manage", "message:post"],
+  production: ["admin:access", "request:read_any", "production:board", "production:schedule", "production:record"],
+  accounts: ["admin:access", "request:read_any", "accounts:ledger", "accounts:refund"],
+  admin: [...PERMISSIONS],
+};
+
+describe("role × permission matrix", () => {
+  for (const role of ROLES) {
+    for (const permission of PERMISSIONS) {
+      const expected = EXPECTED[role].includes(permission);
+      it(`${role} ${expected ? "has" : "lacks"} ${permission}`, () => {
+        expect(hasPermission(user(role), permission)).toBe(expected);
+      });
+    }
+  }
+});
+
+describe("organisation scope", () => {
+  const own = { orgId: "org-a", createdById: "client-1" };
+  const colleague = { orgId: "org-a", createdById: "someone-else" };
+  const other = { orgId: "org-b", createdById: "x" };
+
+  it("a client sees their own requests, not a colleague's, never another firm's", () => {
+    expect(canSee(user("client"), own)).toBe(true);
+    expect(canSee(user("client"), colleague)).toBe(false);
+    expect(canSee(user("client"), other)).toBe(false);
+  });
+  it("a client_admin sees every request of the firm, none of another firm", () => {
+    expect(canSee(user("client_admin"), colleague)).toBe(true);
+    expect(canSee(user("client_admin"), other)).toBe(false);
+  });
+  it("a client without a firm sees nothing", () => {
+    expect(canSee(user("client", { orgId: null }), own)).toBe(false);
+  });
+  it("staff see every firm's requests", () => {
+    for (const role of ["sales", "production", "accounts", "admin"] as const) expect(canSee(user(role), other)).toBe(true);
+  });
+  it("can() combines the permission with the scope", () => {
+    expect(can(user("client"), "quote:accept", own)).toBe(true);
+    expect(can(user("client"), "quote:accept", other)).toBe(false);
+    expect(can(user("sales"), "quote:accept", own)).toBe(false);
+  });
+});
+
+describe("controlled files", () => {
+  const controlled = { orgId: "org-a", createdById: "client-1", isControlled: true };
+  it("only cleared staff open a controlled request's files", () => {
+    expect(canOpenFiles(user("sales"), controlled)).toBe(false);
+    expect(canOpenFiles(user("sales", { isControlledCleared: true }), controlled)).toBe(true);
+    expect(canOpenFiles(user("admin"), controlled)).toBe(false);
+  });
+  it("the client firm opens its own controlled files; another firm never", () => {
+    expect(canOpenFiles(user("client"), controlled)).toBe(true);
+    expect(canOpenFiles(user("client_admin", { orgId: "org-b" }), controlled)).toBe(false);
+  });
+});
+
+describe("homes", () => {
+  it("each role lands on its own home", () => {
+    expect(ROLES.map(homePathFor)).toEqual(["/portal", "/portal", "/admin/sales", "/admin/production", "/admin/accounts", "/admin"]);
+    expect(ROLES.filter(isStaff)).toEqual(["sales", "production", "accounts", "admin"]);
+  });
+});
