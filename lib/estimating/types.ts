@@ -65,3 +65,208 @@ export interface CellParams {
   canPrintVertical: boolean;
   calendar: WorkingCalendar;
 }
+
+/**
+ * The bureau's rate card (database: JSON in `rate_cards.params`). Every constant the estimator
+ * uses lives here, so nothing is hidden in the code. Money in integer cents.
+ */
+export interface RateCardParams {
+  key: string;
+  name: string;
+  currency: string;
+  /** Cell time while depositing, per hour. */
+  printRateCentsPerH: number;
+  /** Cell time while waiting for a layer to cool (dwell), per hour. */
+  dwellRateCentsPerH: number;
+  machiningRateCentsPerH: number;
+  engineeringRateCentsPerH: number;
+  /** Engineering hours per part (toolpaths, build plan, review). */
+  engineeringHoursPerPart: number;
+  /** Fixed setup fee per order line. */
+  setupFeeCents: number;
+  /** Purge material per build, kg. */
+  purgeKg: number;
+  /** Start-up scrap as a fraction of deposited mass (0.03 = 3 %). */
+  startupScrapFraction: number;
+  /** Roughing removal rate of the near-net stock, mm³ per minute. */
+  roughingRemovalMm3PerMin: number;
+  /** Finishing feed of the ball / bull-nose cutter, mm per minute. */
+  finishingFeedMmPerMin: number;
+  /** Radius of the finishing cutter's ball (or bull-nose corner), mm. */
+  cutterRadiusMm: number;
+  /** Target scallop (cusp) height left by the finishing stepover, mm. */
+  targetScallopMm: number;
+  toolChangeMinutes: number;
+  toolChangeCount: number;
+  machiningSetupHours: number;
+  /** Sealing coat on the net surface, per m². */
+  sealingCoatCentsPerM2: number;
+  /** Vacuum-integrity test of a mold, per part. */
+  vacuumTestCents: number;
+  crateBaseCents: number;
+  crateCentsPerKg: number;
+  crateCentsPerM3: number;
+  /** Padding around the part inside the crate, mm per side. */
+  cratePaddingMm: number;
+  freightBaseCents: number;
+  freightCentsPerKg: number;
+  /** Margin on the subtotal, basis points. */
+  marginBp: number;
+  /** Tax on subtotal + margin, basis points. */
+  taxBp: number;
+  /** Share of the total paid up front, basis points (common practice: 5000 = half). */
+  depositBp: number;
+  quoteValidityDays: number;
+  /** Default finish allowance, mm (common practice: 0.25 in = 6.35 mm). */
+  defaultAllowanceMm: number;
+  /** Cooling in the cell before the print can be lifted: base + per kg, capped (calendar hours). */
+  coolingHoursBase: number;
+  coolingHoursPerKg: number;
+  coolingHoursMax: number;
+  /** Working days after machining for finishing (options, sealing) and for inspection and packing. */
+  finishingDays: number;
+  inspectionDays: number;
+  packingDays: number;
+  /** Mass above which the lifting caution is shown, kg. */
+  liftingCautionKg: number;
+  /** Where the figures come from. */
+  source: string;
+}
+
+export type Axis = "x" | "y" | "z";
+
+/** A build orientation: which axis of the file points up, and whether the two others swap in plan. */
+export interface Orientation {
+  up: Axis;
+  /** When true the file's remaining axes are swapped to align with the cell's x and y. */
+  swapped: boolean;
+}
+
+export interface CellFit {
+  cell: string;
+  cellName: string;
+  /** Fits in the best allowed axis-aligned orientation. */
+  fits: boolean;
+  /** Smallest clearance over the three axes in that orientation, mm (negative = too big). */
+  marginMm: number;
+  bestOrientation: Orientation;
+  buildHeightMm: number;
+  /** Fits in the orientation chosen for the estimate. */
+  fitsChosen: boolean;
+  marginChosenMm: number;
+}
+
+export interface SplitSuggestion {
+  axis: Axis;
+  pieces: number;
+  pieceLengthMm: number;
+  cell: string;
+  marginMm: number;
+}
+
+export interface CostLine {
+  key: string;
+  label: string;
+  quantity: number;
+  unit: string;
+  unitCents: number;
+  amountCents: number;
+}
+
+export interface EstimateWarning {
+  code: string;
+  message: string;
+}
+
+/** The JSON the CLI prints and the API returns. Plain data only. */
+export interface EstimateResult {
+  kind: "estimate";
+  fileName: string;
+  format: MeshFormat;
+  triangles: number;
+  units: LengthUnit;
+  unitsGuessed: boolean;
+  unitsReason: string;
+  bboxMm: [number, number, number];
+  bboxMinMm: [number, number, number];
+  volumeMm3: number;
+  areaMm2: number;
+  watertight: boolean;
+  openEdges: number;
+  nonManifoldEdges: number;
+  inconsistentEdges: number;
+  degenerateTriangles: number;
+  shells: number;
+  weldToleranceMm: number;
+  /** ½ Σ edge length × signed exterior dihedral angle, mm (Steiner's M). */
+  meanCurvatureIntegralMm: number;
+  allowanceMm: number;
+  nearNetVolumeMm3: number;
+  allowanceVolumeMm3: number;
+  /** Σ grown layer section areas × layer height: the slicer's own volume, for comparison. */
+  slicedVolumeMm3: number;
+  orientation: Orientation;
+  orientationChosenBy: "user" | "min-height";
+  fits: CellFit[];
+  fitsAny: boolean;
+  split: SplitSuggestion | null;
+  cell: string;
+  beadWidthMm: number;
+  layerHeightMm: number;
+  shellWalls: number | null;
+  speedMmS: number;
+  layers: number;
+  flaggedLayers: number;
+  printHours: number;
+  dwellHours: number;
+  coolingHours: number;
+  /** Per-layer series for a chart, downsampled to at most 2000 points (means per bucket, flagged if any). */
+  layerChart: { zMm: number[]; timeS: number[]; dwellS: number[]; flagged: boolean[]; stride: number };
+  material: {
+    key: string;
+    name: string;
+    densityGPerCm3: number;
+    glassTransitionC: number;
+    maxServiceTempC: number;
+    cteAlongPpmPerK: number;
+    cteAcrossPpmPerK: number;
+    minLayerTimeS: number;
+    maxLayerTimeS: number;
+  };
+  depositedKg: number;
+  purgeKg: number;
+  scrapKg: number;
+  massKg: number;
+  /** Net (machined) part mass, kg: what is lifted at delivery. */
+  partMassKg: number;
+  liftingCaution: boolean;
+  machining: {
+    roughingHours: number;
+    finishingHours: number;
+    toolChangeHours: number;
+    setupHours: number;
+    stepoverMm: number;
+    scallopMm: number;
+  };
+  machiningHours: number;
+  quantity: number;
+  lines: CostLine[];
+  subtotalCents: number;
+  marginCents: number;
+  taxCents: number;
+  totalCents: number;
+  depositCents: number;
+  balanceCents: number;
+  validUntil: string;
+  schedule: {
+    queueHours: number;
+    printStart: string;
+    printEnd: string;
+    coolingEnd: string;
+    machiningEnd: string;
+    shipDate: string;
+  };
+  shipDate: string;
+  warnings: EstimateWarning[];
+  cautions: string[];
+}

@@ -1,0 +1,270 @@
+import { unzipSync } from "fflate";
+import { EstimateInputError, LIMITS } from "../errors";
+import type { Mesh } from "../types";
+
+/**
+ * 3MF reader (3MF Consortium, 3MF Core Specification): an OPC zip whose root relationship
+ * (`_rels/.rels`, type …/3dmodel) names the model XML; `model@unit` is one of micron,
+ * millimeter (default), centimeter, inch, foot, meter; `resources` > `object` > `mesh` >
+ * `vertices`/`triangles`, or `object` > `components` > `component@objectid@transform`
+ * (and the production extension's `p:path` into another model part); `build` > `item`.
+ * Transforms are 3×4 row-vector matrices "m00 m01 m02 m10 m11 m12 m20 m21 m22 m30 m31 m32".
+ */
+
+export const UNIT_MM: Record<string, number> = {
+  micron: 0.001, millimeter: 1, centimeter: 10, inch: 25.4, foot: 304.8, meter: 1000,
+};
+
+export interface ThreeMfResult {
+  mesh: Mesh;
+  /** The model's declared unit word. */
+  unit: string;
+}
+
+interface ObjectDef {
+  name: string;
+  verts: Float64Array | null;
+  tris: Uint32Array | null;
+  components: { objectId: string; path: string | null; transform: Float64Array }[];
+}
+
+interface ModelFile { unit: string; objects: Map<string, ObjectDef>; items: { objectId: string; path: string | null; transform: Float64Array }[] }
+
+const IDENTITY = new Float64Array([1, 0, 0, 0, 1, 0, 0, 0, 1, 0, 0, 0]);
+
+function fail(code: string, message: string): never {
+  throw new EstimateInputError(code, message);
+}
+
+function unzip(bytes: Uint8Array): Record<string, Uint8Array> {
+  let total = 0;
+  try {
+    return unzipSync(bytes, {
+      filter(file) {
+        const wanted = file.name.endsWith(".rels") || file.name.toLowerCase().endsWith(".model");
+        if (!wanted) return false;
+        // fflate sizes its output by the declared size, so a lying header only truncates;
+        // refusing large declared sizes and absurd ratios bounds memory and time.
+        total += file.originalSize;
+        if (file.originalSize > LIMITS.maxUnzippedBytes || total > LIMITS.maxUnzippedBytes) {
+          fail("3mf:zip-bomb", "The 3MF package unpacks to more data than the estimator accepts (possible zip bomb).");
+        }
+        if (file.originalSize > 16 * 1024 * 1024 && file.originalSize > file.size * LIMITS.maxZipRatio) {
+          fail("3mf:zip-bomb", "The 3MF package is compressed beyond any plausible ratio (possible zip bomb).");
+        }
+        return true;
+      },
+    });
+  } catch (e) {
+    if (e instanceof EstimateInputError) throw e;
+    fail("3mf:bad-zip", "The 3MF file is not a readable zip package.");
+  }
+}
+
+const TAG = /<([A-Za-z_][\w:.-]*)((?:\s+[\w:.-]+\s*=\s*(?:"[^"]{0,4096}"|'[^']{0,4096}'))*)\s*(\/?)>|<\/([A-Za-z_][\w:.-]*)\s*>/g;
+const ATTR = /([\w:.-]+)\s*=\s*(?:"([^"]*)"|'([^']*)')/g;
+
+function local(name: string): string {
+  const c = name.indexOf(":");
+  return c >= 0 ? name.slice(c + 1) : name;
+}
+
+function attrs(text: string): Record<string, string> {
+  const out: Record<string, string> = {};
+  ATTR.lastIndex = 0;
+  let m: RegExpExecArray | null;
+  while ((m = ATTR.exec(text))) {
+    const full = m[1]!;
+    const v = m[2] ?? m[3] ?? "";
+    out[full] = v;
+    out[local(full)] ??= v;
+  }
+  return out;
+}
+
+function num(a: Record<string, string>, k: string, what: string): number {
+  const v = Number(a[k]);
+  if (a[k] === undefined || !Number.isFinite(v) || Math.abs(v) > LIMITS.maxCoordinate) fail("3mf:bad-number", `The 3MF model has a ${what} that is not a finite number.`);
+  return v;
+}
+
+function parseTransform(s: string | undefined): Float64Array {
+  if (!s) return IDENTITY;
+  const parts = s.trim().split(/\s+/).map(Number);
+  if (parts.length !== 12 || parts.some((v) => !Number.isFinite(v))) fail("3mf:bad-transform", "The 3MF model has a transform that is not twelve numbers.");
+  return new Float64Array(parts);
+}
+
+function compose(a: Float64Array, b: Float64Array): Float64Array {
+  // apply a then b (row vectors): p·A·B
+  const r = new Float64Array(12);
+  for (let i = 0; i < 4; i++) {
+    for (let j = 0; j < 3; j++) {
+      let s = i === 3 ? b[9 + j]! : 0;
+      for (let k = 0; k < 3; k++) s += a[i * 3 + k]! * b[k * 3 + j]!;
+      r[i * 3 + j] = s;
+    }
+  }
+  return r;
+}
+
+function parseModel(xml: string): ModelFile {
+  const objects = new Map<string, ObjectDef>();
+  const items: ModelFile["items"] = [];
+  let unit = "millimeter";
+  let sawModel = false;
+  let current: ObjectDef | null = null;
+  let vCap = 0, nv = 0, tCap = 0, nt = 0;
+  let verts = new Float64Array(0);
+  let tris = new Uint32Array(0);
+  TAG.lastIndex = 0;
+  let m: RegExpExecArray | null;
+  while ((m = TAG.exec(xml))) {
+    if (m[4] !== undefined) {
+      const close = local(m[4]);
+      if (close === "object" && current) {
+        if (nv > 0 || nt > 0) {
+          for (let i = 0; i < nt; i++) if (tris[i]! >= nv / 3) fail("3mf:bad-index", `The 3MF object "${current.name}" has a triangle that names a vertex it does not have.`);
+          current.verts = verts.slice(0, nv);
+          current.tris = tris.slice(0, nt);
+        }
+        current = null;
+      }
+      continue;
+    }
+    const name = local(m[1]!);
+    if (name === "vertex" && current) {
+      if (nv + 3 > vCap) { vCap = Math.max(1024, vCap * 2); const n = new Float64Array(vCap); n.set(verts); verts = n; }
+      const a = attrs(m[2]!);
+      verts[nv++] = num(a, "x", "vertex coordinate"); verts[nv++] = num(a, "y", "vertex coordinate"); verts[nv++] = num(a, "z", "vertex coordinate");
+    } else if (name === "triangle" && current) {
+      if (nt + 3 > tCap) {
+        tCap = Math.max(1024, tCap * 2);
+        if (tCap / 3 > LIMITS.maxTriangles * 2) fail("3mf:too-many", "The 3MF model has more triangles than the estimator accepts.");
+        const n = new Uint32Array(tCap); n.set(tris); tris = n;
+      }
+      const a = attrs(m[2]!);
+      for (const k of ["v1", "v2", "v3"]) {
+        const v = Number(a[k]);
+        if (!Number.isInteger(v) || v < 0) fail("3mf:bad-index", "The 3MF model has a triangle whose vertex index is not a whole number.");
+        tris[nt++] = v;
+      }
+    } else if (name === "model") {
+      sawModel = true;
+      const a = attrs(m[2]!);
+      if (a.unit !== undefined) {
+        if (!(a.unit in UNIT_MM)) fail("3mf:bad-unit", `The 3MF model's unit "${a.unit.slice(0, 20)}" is not one the 3MF specification allows.`);
+        unit = a.unit;
+      }
+    } else if (name === "object") {
+      const a = attrs(m[2]!);
+      if (!a.id) fail("3mf:bad-object", "The 3MF model has an object without an id.");
+      current = { name: a.name ?? `object ${a.id}`, verts: null, tris: null, components: [] };
+      objects.set(a.id, current);
+      nv = 0; nt = 0;
+      if (m[3] === "/") current = null;
+    } else if (name === "component" && current) {
+      const a = attrs(m[2]!);
+      if (!a.objectid) fail("3mf:bad-component", "The 3MF model has a component without an object id.");
+      current.components.push({ objectId: a.objectid, path: a["p:path"] ?? a.path ?? null, transform: parseTransform(a.transform) });
+    } else if (name === "item") {
+      const a = attrs(m[2]!);
+      if (!a.objectid) fail("3mf:bad-item", "The 3MF build has an item without an object id.");
+      items.push({ objectId: a.objectid, path: a["p:path"] ?? a.path ?? null, transform: parseTransform(a.transform) });
+    }
+  }
+  if (!sawModel) fail("3mf:no-model", "The 3MF model part has no <model> element.");
+  return { unit, objects, items };
+}
+
+function rootModelPath(files: Record<string, Uint8Array>): string {
+  const rels = files["_rels/.rels"];
+  if (rels) {
+    const xml = new TextDecoder().decode(rels);
+    const re = /<(?:\w+:)?Relationship\b([^>]*)>/g;
+    let m: RegExpExecArray | null;
+    while ((m = re.exec(xml))) {
+      const a = attrs(m[1]!);
+      if (a.Type && /3dmodel$/i.test(a.Type) && a.Target) return a.Target.replace(/^\//, "");
+    }
+  }
+  const fallback = Object.keys(files).find((k) => k.toLowerCase().endsWith(".model"));
+  if (!fallback) fail("3mf:missing-model", "The 3MF package has no 3D model part.");
+  return fallback;
+}
+
+/** Reads a 3MF package into one triangle soup in millimetres, one body per build item. */
+export function read3mf(bytes: Uint8Array): ThreeMfResult {
+  const files = unzip(bytes);
+  const rootPath = rootModelPath(files);
+  const models = new Map<string, ModelFile>();
+  const getModel = (path: string): ModelFile => {
+    const key = path.replace(/^\//, "");
+    let mf = models.get(key);
+    if (!mf) {
+      const data = files[key];
+      if (!data) fail("3mf:missing-part", `The 3MF package refers to "${key.slice(0, 80)}", which it does not contain.`);
+      mf = parseModel(new TextDecoder().decode(data));
+      models.set(key, mf);
+    }
+    return mf;
+  };
+  const root = getModel(rootPath);
+  if (root.items.length === 0) fail("3mf:empty-build", "The 3MF model has no build items, so there is nothing to print.");
+  const rootScale = UNIT_MM[root.unit]!;
+
+  // First pass counts triangles, so the soup is allocated once and instancing cannot explode memory.
+  const count = (mf: ModelFile, id: string, depth: number): number => {
+    if (depth > 32) fail("3mf:deep-components", "The 3MF components nest too deeply (or refer to themselves).");
+    const o = mf.objects.get(id);
+    if (!o) fail("3mf:missing-object", `The 3MF model refers to object ${id.slice(0, 20)}, which it does not define.`);
+    let n = o.tris ? o.tris.length / 3 : 0;
+    for (const c of o.components) {
+      n += count(c.path ? getModel(c.path) : mf, c.objectId, depth + 1);
+      if (n > LIMITS.maxTriangles) fail("3mf:too-many", "The 3MF model has more triangles (after instancing) than the estimator accepts.");
+    }
+    return n;
+  };
+  let total = 0;
+  for (const it of root.items) {
+    total += count(it.path ? getModel(it.path) : root, it.objectId, 0);
+    if (total > LIMITS.maxTriangles) fail("3mf:too-many", "The 3MF model has more triangles (after instancing) than the estimator accepts.");
+  }
+  if (total === 0) fail("3mf:empty", "The 3MF model has no triangles.");
+
+  const positions = new Float32Array(total * 9);
+  const bodyOfTriangle = new Uint32Array(total);
+  const bodyNames: string[] = [];
+  let k = 0;
+  const emit = (mf: ModelFile, id: string, tr: Float64Array, body: number) => {
+    const o = mf.objects.get(id)!;
+    // Components in another part are in that part's unit; scale them to the root's.
+    if (o.verts && o.tris) {
+      const s = UNIT_MM[mf.unit]! / rootScale;
+      const det = tr[0]! * (tr[4]! * tr[8]! - tr[5]! * tr[7]!) - tr[1]! * (tr[3]! * tr[8]! - tr[5]! * tr[6]!) + tr[2]! * (tr[3]! * tr[7]! - tr[4]! * tr[6]!);
+      const flip = det < 0; // a mirroring transform turns the winding inside out
+      const v = o.verts, t = o.tris;
+      for (let i = 0; i < t.length; i += 3) {
+        for (let j = 0; j < 3; j++) {
+          const vi = t[i + (flip && j > 0 ? 3 - j : j)]! * 3;
+          const x = v[vi]! * s, y = v[vi + 1]! * s, z = v[vi + 2]! * s;
+          positions[k++] = (x * tr[0]! + y * tr[3]! + z * tr[6]! + tr[9]!) * rootScale;
+          positions[k++] = (x * tr[1]! + y * tr[4]! + z * tr[7]! + tr[10]!) * rootScale;
+          positions[k++] = (x * tr[2]! + y * tr[5]! + z * tr[8]! + tr[11]!) * rootScale;
+        }
+        bodyOfTriangle[(k / 9) - 1] = body;
+      }
+    }
+    for (const c of o.components) emit(c.path ? getModel(c.path) : mf, c.objectId, compose(c.transform, tr), body);
+  };
+  for (const it of root.items) {
+    const mf = it.path ? getModel(it.path) : root;
+    bodyNames.push(mf.objects.get(it.objectId)!.name);
+    emit(mf, it.objectId, it.transform, bodyNames.length - 1);
+  }
+  for (let i = 0; i < positions.length; i++) {
+    const v = positions[i]!;
+    if (!(v <= LIMITS.maxCoordinate && v >= -LIMITS.maxCoordinate)) fail("mesh:bad-coordinate", "The 3MF model has a vertex that is not a finite number after its transforms.");
+  }
+  return { mesh: { positions, triangleCount: total, bodyOfTriangle, bodyNames }, unit: root.unit };
+}

@@ -1,0 +1,84 @@
+/**
+ * Cross-sections of a triangle soup at the planes z_k = z0 + (k + ½)·h, by a sweep: triangles
+ * are bucketed by the first plane they reach (a counting sort on the layer index, O(n)), enter
+ * an active list there and leave it after their last plane, so each triangle is cut only at the
+ * planes it spans — never every triangle against every layer.
+ *
+ * Each cut gives one segment, directed by ẑ × n (solid on its left), so the section area is the
+ * sum of the segments' shoelace terms and the contour length the sum of their lengths, with no
+ * need to chain segments into loops. Exact for a closed, consistently wound mesh.
+ */
+export interface Sections {
+  z0: number;
+  layerHeight: number;
+  count: number;
+  /** Section area at each plane, mm². */
+  area: Float64Array;
+  /** Contour length at each plane, mm. */
+  perimeter: Float64Array;
+}
+
+export function slice(p: Float32Array, n: number, z0: number, h: number, count: number): Sections {
+  const area = new Float64Array(count);
+  const perimeter = new Float64Array(count);
+  const first = new Int32Array(n);
+  const last = new Int32Array(n);
+  const bucket = new Uint32Array(count + 1);
+  // x–y origin for the shoelace sums (precision)
+  let ox = 0, oy = 0;
+  if (n > 0) { ox = p[0]!; oy = p[1]!; }
+  for (let t = 0, b = 0; t < n; t++, b += 9) {
+    const za = p[b + 2]!, zb = p[b + 5]!, zc = p[b + 8]!;
+    const lo = za < zb ? (za < zc ? za : zc) : (zb < zc ? zb : zc);
+    const hi = za > zb ? (za > zc ? za : zc) : (zb > zc ? zb : zc);
+    // planes with lo <= z_k < hi
+    let k0 = Math.ceil((lo - z0) / h - 0.5);
+    let k1 = Math.ceil((hi - z0) / h - 0.5) - 1;
+    if (k0 < 0) k0 = 0;
+    if (k1 > count - 1) k1 = count - 1;
+    if (k1 < k0) { first[t] = -1; continue; }
+    first[t] = k0; last[t] = k1;
+    bucket[k0 + 1]!++;
+  }
+  for (let k = 0; k < count; k++) bucket[k + 1] = bucket[k + 1]! + bucket[k]!;
+  const order = new Uint32Array(bucket[count]!);
+  const fill = bucket.slice(0, count);
+  for (let t = 0; t < n; t++) { const k = first[t]!; if (k >= 0) order[fill[k]!++] = t; }
+
+  const active = new Uint32Array(order.length);
+  let na = 0;
+  for (let k = 0; k < count; k++) {
+    for (let i = bucket[k]!, e = bucket[k + 1]!; i < e; i++) active[na++] = order[i]!;
+    const zp = z0 + (k + 0.5) * h;
+    let a2 = 0, per = 0;
+    for (let i = 0; i < na; ) {
+      const t = active[i]!;
+      if (last[t]! < k) { active[i] = active[--na]!; continue; }
+      i++;
+      const b = t * 9;
+      const x1 = p[b]! - ox, y1 = p[b + 1]! - oy, d1 = p[b + 2]! - zp;
+      const x2 = p[b + 3]! - ox, y2 = p[b + 4]! - oy, d2 = p[b + 5]! - zp;
+      const x3 = p[b + 6]! - ox, y3 = p[b + 7]! - oy, d3 = p[b + 8]! - zp;
+      const u1 = d1 >= 0, u2 = d2 >= 0, u3 = d3 >= 0;
+      // the two edges whose ends lie on opposite sides
+      let px = 0, py = 0, qx = 0, qy = 0, got = 0;
+      if (u1 !== u2) { const s = d1 / (d1 - d2); px = x1 + s * (x2 - x1); py = y1 + s * (y2 - y1); got = 1; }
+      if (u2 !== u3) {
+        const s = d2 / (d2 - d3); const x = x2 + s * (x3 - x2), y = y2 + s * (y3 - y2);
+        if (got) { qx = x; qy = y; } else { px = x; py = y; } got++;
+      }
+      if (u3 !== u1 && got < 2) { const s = d3 / (d3 - d1); qx = x3 + s * (x1 - x3); qy = y3 + s * (y1 - y3); got++; }
+      if (got < 2) continue;
+      // direction ẑ × n = (−n_y, n_x); n from the winding
+      const ex = x2 - x1, ey = y2 - y1, ez = d2 - d1, fx = x3 - x1, fy = y3 - y1, fz = d3 - d1;
+      const nx = ey * fz - ez * fy, ny = ez * fx - ex * fz;
+      let dx = qx - px, dy = qy - py;
+      if (dx * -ny + dy * nx < 0) { const tx = px, ty = py; px = qx; py = qy; qx = tx; qy = ty; dx = -dx; dy = -dy; }
+      a2 += px * qy - qx * py;
+      per += Math.sqrt(dx * dx + dy * dy);
+    }
+    area[k] = a2 / 2;
+    perimeter[k] = per;
+  }
+  return { z0, layerHeight: h, count, area, perimeter };
+}
