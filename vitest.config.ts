@@ -26,6 +26,18 @@ export default defineConfig({
           fileParallelism: false,
         },
       },
+      {
+        extends: true,
+        test: {
+          name: "e2e",
+          include: ["tests/e2e/**/*.e2e.ts"],
+          environment: "node",
+          globalSetup: ["tests/e2e/global-setup.ts"],
+          testTimeout: 180_000,
+          hookTimeout: 240_000,
+          fileParallelism: false,
+        },
+      },
     ],
   },
 });

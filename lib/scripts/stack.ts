@@ -1,0 +1,110 @@
+/**
+ * Start the whole product on this machine: the local fakes (mocks/start.ts) and `next start`,
+ * with every SDK pointed at the fakes. Used by `npm run demo` and by the browser tests.
+ */
+import { spawn, type ChildProcess } from "node:child_process";
+import path from "node:path";
+import { waitForHttp } from "./free-port";
+
+export const root = path.resolve(import.meta.dirname, "../..");
+
+export interface StackPorts {
+  app: number;
+  stripe: number;
+  resend: number;
+  uploads: number;
+}
+
+export const DEMO_PORTS: StackPorts = { app: 3000, stripe: 4010, resend: 4020, uploads: 4030 };
+
+/** base64 of the JSON UploadThing token, for the local fake (the fake accepts any key). */
+export function localUploadToken(): string {
+  return Buffer.from(JSON.stringify({ apiKey: "sk_live_layerwright_local_fake", appId: "layerwright-local", regions: ["local"] })).toString("base64");
+}
+
+/** Environment that points every service at the local fakes. */
+export function stackEnv(ports: StackPorts, dataDir: string, extra: Record<string, string> = {}, host = "127.0.0.1"): Record<string, string> {
+  const appUrl = `http://${host}:${ports.app}`;
+  return {
+    NODE_ENV: "production",
+    APP_URL: appUrl,
+    AUTH_TRUST_HOST: "true",
+    AUTH_SECRET: process.env.AUTH_SECRET ?? "layerwright-local-demo-secret-change-me",
+    DATA_DIR: dataDir,
+    DATABASE_URL: `file:${path.join(dataDir, "layerwright.db")}`,
+    STRIPE_SECRET_KEY: "sk_test_layerwright_local",
+    STRIPE_WEBHOOK_SECRET: "whsec_layerwright_local",
+    STRIPE_API_HOST: "127.0.0.1",
+    STRIPE_API_PORT: String(ports.stripe),
+    STRIPE_API_PROTOCOL: "http",
+    STRIPE_FAKE_PORT: String(ports.stripe),
+    STRIPE_FAKE_WEBHOOK_URL: `${appUrl}/api/webhooks/stripe`,
+    RESEND_API_KEY: "re_layerwright_local",
+    RESEND_BASE_URL: `http://127.0.0.1:${ports.resend}`,
+    RESEND_FAKE_PORT: String(ports.resend),
+    UPLOADTHING_TOKEN: localUploadToken(),
+    UPLOADTHING_API_URL: `http://127.0.0.1:${ports.uploads}`,
+    UPLOADTHING_INGEST_URL: `http://127.0.0.1:${ports.uploads}`,
+    UPLOADTHING_CALLBACK_URL: `${appUrl}/api/uploadthing`,
+    UPLOADTHING_FAKE_PORT: String(ports.uploads),
+    UPLOADTHING_FILE_BASE_URL: `http://127.0.0.1:${ports.uploads}/f`,
+    ...extra,
+  };
+}
+
+export interface RunningStack {
+  baseUrl: string;
+  env: Record<string, string>;
+  processes: ChildProcess[];
+  stop: () => Promise<void>;
+}
+
+function run(cmd: string, args: string[], env: Record<string, string>, label: string, quiet: boolean): ChildProcess {
+  const child = spawn(cmd, args, { cwd: root, env: { ...process.env, ...env }, stdio: quiet ? ["ignore", "pipe", "pipe"] : "inherit" });
+  if (quiet) {
+    // Keep the last lines for error reports without flooding the test output.
+    const tail: string[] = [];
+    const keep = (chunk: Buffer) => {
+      tail.push(...chunk.toString().split("\n"));
+      if (tail.length > 80) tail.splice(0, tail.length - 80);
+    };
+    child.stdout?.on("data", keep);
+    child.stderr?.on("data", keep);
+    (child as ChildProcess & { tail?: string[] }).tail = tail;
+  }
+  child.on("exit", (code, signal) => {
+    if (code && code !== 0) console.error(`${label} exited with ${code ?? signal}`);
+  });
+  return child;
+}
+
+/** Start the fakes and the built app (`next build` must have run into `distDir`). */
+export async function startStack(opts: {
+  ports: StackPorts;
+  dataDir: string;
+  distDir?: string;
+  quiet?: boolean;
+  extraEnv?: Record<string, string>;
+  /** Host name in the app's own links (the demo uses localhost, tests 127.0.0.1). */
+  host?: string;
+}): Promise<RunningStack> {
+  const host = opts.host ?? "127.0.0.1";
+  const env = stackEnv(opts.ports, opts.dataDir, { NEXT_DIST_DIR: opts.distDir ?? ".next", ...(opts.extraEnv ?? {}) }, host);
+  const quiet = opts.quiet ?? false;
+  const fakes = run(path.join(root, "node_modules/.bin/tsx"), ["mocks/start.ts"], env, "local fakes", quiet);
+  const app = run(path.join(root, "node_modules/.bin/next"), ["start", "-p", String(opts.ports.app), ...(host === "127.0.0.1" ? ["-H", host] : [])], env, "next start", quiet);
+  const processes = [fakes, app];
+  const stop = async () => {
+    for (const p of processes) if (p.exitCode === null) p.kill("SIGTERM");
+    await Promise.all(processes.map((p) => (p.exitCode === null ? new Promise((r) => p.once("exit", r)) : null)));
+  };
+  try {
+    await waitForHttp(`http://127.0.0.1:${opts.ports.stripe}/_fake/events`, 60_000);
+    await waitForHttp(`http://127.0.0.1:${opts.ports.app}/sign-in`, 90_000);
+  } catch (e) {
+    const tails = processes.map((p) => ((p as ChildProcess & { tail?: string[] }).tail ?? []).join("\n")).join("\n---\n");
+    await stop();
+    throw new Error(`${e instanceof Error ? e.message : String(e)}\n${tails}`);
+  }
+  return { baseUrl: env.APP_URL!, env, processes, stop };
+}
