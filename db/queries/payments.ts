@@ -1,0 +1,147 @@
+import { and, desc, eq, inArray, isNull, ne, or } from "drizzle-orm";
+import type { Db } from "../client";
+import { orders, payments, requests, webhookEvents, type PaymentStatus } from "../schema";
+import type { Tx } from "./audit";
+
+export type PaymentKind = "deposit" | "balance";
+
+export async function getOrder(db: Db | Tx, orderId: string) {
+  const [row] = await db.select().from(orders).where(eq(orders.id, orderId));
+  return row ?? null;
+}
+
+export async function getOrderByRequest(db: Db | Tx, requestId: string) {
+  const [row] = await db.select().from(orders).where(eq(orders.requestId, requestId));
+  return row ?? null;
+}
+
+/** An order with its request's scope fields, for the policy and the e-mails. */
+export async function getOrderWithRequest(db: Db | Tx, orderId: string) {
+  const [row] = await db
+    .select({ order: orders, request: requests })
+    .from(orders)
+    .innerJoin(requests, eq(requests.id, orders.requestId))
+    .where(eq(orders.id, orderId));
+  return row ?? null;
+}
+
+const paymentColumns = {
+  id: payments.id,
+  orderId: payments.orderId,
+  orgId: payments.orgId,
+  kind: payments.kind,
+  status: payments.status,
+  amountCents: payments.amountCents,
+  refundedCents: payments.refundedCents,
+  currency: payments.currency,
+  checkoutSessionId: payments.checkoutSessionId,
+  checkoutUrl: payments.checkoutUrl,
+  receiptUrl: payments.receiptUrl,
+  createdAt: payments.createdAt,
+  paidAt: payments.paidAt,
+};
+
+export async function getPayment(db: Db | Tx, paymentId: string) {
+  const [row] = await db.select().from(payments).where(eq(payments.id, paymentId));
+  return row ?? null;
+}
+
+export async function getPaymentBySession(db: Db | Tx, sessionId: string) {
+  const [row] = await db.select().from(payments).where(eq(payments.checkoutSessionId, sessionId));
+  return row ?? null;
+}
+
+/** Payments of one order, newest first (the client sees these with their receipts). */
+export async function listPaymentsForOrder(db: Db | Tx, orderId: string) {
+  return db.select(paymentColumns).from(payments).where(eq(payments.orderId, orderId)).orderBy(desc(payments.createdAt));
+}
+
+/** Every payment of a firm (client_admin's payments page). */
+export async function listPaymentsForOrg(db: Db, orgId: string) {
+  return db
+    .select({ ...paymentColumns, reference: requests.reference, projectName: requests.projectName, requestId: requests.id })
+    .from(payments)
+    .innerJoin(orders, eq(orders.id, payments.orderId))
+    .innerJoin(requests, eq(requests.id, orders.requestId))
+    .where(eq(payments.orgId, orgId))
+    .orderBy(desc(payments.createdAt));
+}
+
+/**
+ * The payment the client pays next for (order, kind): the open (pending) one if any, else a new
+ * pending row. Run inside a write transaction so two clicks at once find the same row.
+ */
+export async function getOrCreatePendingPayment(
+  tx: Db | Tx,
+  input: { orderId: string; orgId: string; kind: PaymentKind; amountCents: number; currency: string; createdById: string },
+) {
+  const [open] = await tx
+    .select()
+    .from(payments)
+    .where(and(eq(payments.orderId, input.orderId), eq(payments.kind, input.kind), eq(payments.status, "pending")))
+    .orderBy(desc(payments.createdAt))
+    .limit(1);
+  if (open) return { payment: open, created: false };
+  const [row] = await tx
+    .insert(payments)
+    .values({ ...input, status: "pending" })
+    .returning();
+  return { payment: row!, created: true };
+}
+
+/** Is this (order, kind) already paid? */
+export async function hasPaid(db: Db | Tx, orderId: string, kind: PaymentKind) {
+  const rows = await db
+    .select({ id: payments.id })
+    .from(payments)
+    .where(and(eq(payments.orderId, orderId), eq(payments.kind, kind), inArray(payments.status, ["paid", "partially_refunded", "refunded"])))
+    .limit(1);
+  return rows.length > 0;
+}
+
+/** Remember the Checkout Session of a pending payment; only if none was set yet. */
+export async function setPaymentSession(db: Db | Tx, paymentId: string, sessionId: string, url: string | null) {
+  await db
+    .update(payments)
+    .set({ checkoutSessionId: sessionId, checkoutUrl: url })
+    .where(and(eq(payments.id, paymentId), or(isNull(payments.checkoutSessionId), eq(payments.checkoutSessionId, sessionId))));
+}
+
+/**
+ * Mark a payment paid. Guarded in the WHERE: a payment already paid (or refunded) is left alone,
+ * so a replayed event changes nothing. Returns whether this call made the change.
+ */
+export async function markPaymentPaid(
+  tx: Db | Tx,
+  paymentId: string,
+  fields: { checkoutSessionId: string; paymentIntentId: string | null; chargeId?: string | null; receiptUrl?: string | null; paidAt: Date },
+) {
+  const done: PaymentStatus[] = ["paid", "refunded", "partially_refunded"];
+  const rows = await tx
+    .update(payments)
+    .set({ status: "paid", checkoutUrl: null, ...fields })
+    .where(and(eq(payments.id, paymentId), ...done.map((s) => ne(payments.status, s))))
+    .returning({ id: payments.id });
+  return rows.length === 1;
+}
+
+/** A session that expired (or was abandoned): the payment is closed; the next "pay" opens a new one. */
+export async function markPaymentExpired(tx: Db | Tx, paymentId: string) {
+  const rows = await tx
+    .update(payments)
+    .set({ status: "expired", checkoutUrl: null })
+    .where(and(eq(payments.id, paymentId), eq(payments.status, "pending")))
+    .returning({ id: payments.id });
+  return rows.length === 1;
+}
+
+/** Record a processed webhook event id; false when it was already recorded (a replay). */
+export async function recordWebhookEvent(tx: Db | Tx, event: { id: string; type: string; outcome: string }) {
+  const rows = await tx.insert(webhookEvents).values(event).onConflictDoNothing().returning({ id: webhookEvents.id });
+  return rows.length === 1;
+}
+
+export async function isWebhookEventRecorded(db: Db | Tx, eventId: string) {
+  const [row] = await db.select({ id: webhookEvents.id }).from(webhookEvents).where(eq(webhookEvents.id, eventId));
+  return Boolean(row);
+}

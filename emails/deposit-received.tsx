@@ -1,0 +1,38 @@
+import { Button, Text } from "@react-email/components";
+import { buttonStyle, EmailShell, paragraph } from "./_components/shell";
+
+export interface DepositReceivedEmailProps {
+  reference: string;
+  projectName: string;
+  kind: "deposit" | "balance";
+  amount: string;
+  poNumber: string;
+  receiptUrl: string | null;
+  url: string;
+}
+
+export default function DepositReceivedEmail(p: DepositReceivedEmailProps) {
+  const what = p.kind === "deposit" ? "deposit" : "balance payment";
+  return (
+    <EmailShell preview={`${p.reference}: ${what} of ${p.amount} received`} heading={`Your ${what} is in`}>
+      <Text style={paragraph}>
+        We received {p.amount} for {p.reference} “{p.projectName}” (PO {p.poNumber}).
+        {p.kind === "deposit" ? " Our planners will now put the job on a printing cell's calendar and send you the dates." : " Thank you: the order is paid in full."}
+      </Text>
+      {p.receiptUrl ? <Text style={paragraph}>Receipt: {p.receiptUrl}</Text> : null}
+      <Button href={p.url} style={buttonStyle}>
+        Open the order
+      </Button>
+    </EmailShell>
+  );
+}
+
+DepositReceivedEmail.PreviewProps = {
+  reference: "LW-2026-0042",
+  projectName: "Wing rib layup tool",
+  kind: "deposit",
+  amount: "$9,552.50",
+  poNumber: "KA-PO-7781",
+  receiptUrl: null,
+  url: "http://localhost:3000/portal/requests/demo",
+} satisfies DepositReceivedEmailProps;

@@ -1,0 +1,174 @@
+import { createElement } from "react";
+import { getDb, type Db } from "@/db/client";
+import { listCurrentCells } from "@/db/queries/catalogue";
+import { getQuoteWithRequest } from "@/db/queries/client-quotes";
+import { getOrderWithRequest, getPayment } from "@/db/queries/payments";
+import { getRequestContacts } from "@/db/queries/requests";
+import BalanceDueEmail from "@/emails/balance-due";
+import DepositReceivedEmail from "@/emails/deposit-received";
+import QuoteReadyEmail from "@/emails/quote-ready";
+import RequestReceivedEmail from "@/emails/request-received";
+import ScheduledEmail from "@/emails/scheduled";
+import ShippedEmail from "@/emails/shipped";
+import { env } from "@/lib/env";
+import { formatCents } from "@/lib/money";
+import { formatMass } from "@/lib/units";
+import { sendEmail } from "./send";
+
+/**
+ * The client e-mails of the order's life. Each loads what it needs by id and sends through
+ * lib/email/send.ts; the idempotency key makes a retried notice go out once. Callers decide
+ * whether a failed send should fail their own work (usually not: log and carry on).
+ */
+
+const dateText = (d: Date | null | undefined) =>
+  d ? new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" }).format(d) : null;
+
+const requestUrl = (requestId: string) => `${env().APP_URL}/portal/requests/${requestId}`;
+
+function recipients(...addresses: (string | null | undefined)[]): string[] {
+  return [...new Set(addresses.filter((a): a is string => Boolean(a)).map((a) => a.toLowerCase()))];
+}
+
+async function contactsOrThrow(db: Db, requestId: string) {
+  const c = await getRequestContacts(db, requestId);
+  if (!c) throw new Error(`notify: request ${requestId} not found`);
+  return c;
+}
+
+/** To the client who submitted, and a copy to the bureau's sales inbox. */
+export async function notifyRequestReceived(requestId: string, db: Db = getDb()) {
+  const c = await contactsOrThrow(db, requestId);
+  const base = {
+    reference: c.reference,
+    projectName: c.projectName,
+    firmName: c.firmName,
+    partCount: c.partCount,
+    estimateTotal: null,
+    isControlled: c.isControlled,
+  };
+  await sendEmail({
+    to: recipients(c.creatorEmail),
+    subject: `Request ${c.reference} received`,
+    react: createElement(RequestReceivedEmail, { ...base, url: requestUrl(requestId), forSales: false }),
+    tags: [{ name: "template", value: "request-received" }],
+    idempotencyKey: `request-received/${requestId}`,
+  });
+  await sendEmail({
+    to: env().SALES_INBOX,
+    subject: `New request ${c.reference} from ${c.firmName}`,
+    react: createElement(RequestReceivedEmail, { ...base, url: `${env().APP_URL}/admin/sales/requests/${requestId}`, forSales: true }),
+    tags: [{ name: "template", value: "request-received-sales" }],
+    idempotencyKey: `request-received-sales/${requestId}`,
+  });
+}
+
+export async function notifyQuoteReady(quoteId: string, db: Db = getDb()) {
+  const row = await getQuoteWithRequest(db, quoteId);
+  if (!row) throw new Error(`notify: quote ${quoteId} not found`);
+  const { quote } = row;
+  const c = await contactsOrThrow(db, row.request.id);
+  await sendEmail({
+    to: recipients(c.creatorEmail),
+    subject: `Quote ${quote.version} for ${c.reference} is ready`,
+    react: createElement(QuoteReadyEmail, {
+      reference: c.reference,
+      projectName: c.projectName,
+      version: quote.version,
+      total: formatCents(quote.totalCents, quote.currency),
+      deposit: formatCents(quote.depositCents, quote.currency),
+      validUntil: dateText(quote.validUntil) ?? "see the quote",
+      shipDate: dateText(quote.shipDate),
+      url: requestUrl(c.id),
+    }),
+    tags: [{ name: "template", value: "quote-ready" }],
+    idempotencyKey: `quote-ready/${quoteId}`,
+  });
+}
+
+/** A deposit (or balance) payment recorded as paid. */
+export async function notifyDepositReceived(paymentId: string, db: Db = getDb()) {
+  const payment = await getPayment(db, paymentId);
+  if (!payment) throw new Error(`notify: payment ${paymentId} not found`);
+  const row = await getOrderWithRequest(db, payment.orderId);
+  if (!row) throw new Error(`notify: order ${payment.orderId} not found`);
+  const c = await contactsOrThrow(db, row.request.id);
+  const what = payment.kind === "deposit" ? "Deposit" : "Balance";
+  await sendEmail({
+    to: recipients(c.creatorEmail, c.billingEmail),
+    subject: `${what} received for ${c.reference}`,
+    react: createElement(DepositReceivedEmail, {
+      reference: c.reference,
+      projectName: c.projectName,
+      kind: payment.kind,
+      amount: formatCents(payment.amountCents, payment.currency),
+      poNumber: row.order.poNumber,
+      receiptUrl: payment.receiptUrl,
+      url: requestUrl(c.id),
+    }),
+    tags: [{ name: "template", value: "deposit-received" }],
+    idempotencyKey: `payment-received/${paymentId}`,
+  });
+}
+
+export async function notifyScheduled(orderId: string, db: Db = getDb()) {
+  const row = await getOrderWithRequest(db, orderId);
+  if (!row) throw new Error(`notify: order ${orderId} not found`);
+  const c = await contactsOrThrow(db, row.request.id);
+  const start = row.order.plannedStart;
+  await sendEmail({
+    to: recipients(c.creatorEmail),
+    subject: `${c.reference} is scheduled`,
+    react: createElement(ScheduledEmail, {
+      reference: c.reference,
+      projectName: c.projectName,
+      cellName: row.order.cellKey ? ((await listCurrentCells(db, { activeOnly: false })).find((x) => x.key === row.order.cellKey)?.params.name ?? null) : null,
+      printStart: dateText(start),
+      shipDate: dateText(row.order.plannedShip),
+      url: requestUrl(c.id),
+    }),
+    tags: [{ name: "template", value: "scheduled" }],
+    // A re-planned order gets a fresh notice with the new dates.
+    idempotencyKey: `scheduled/${orderId}/${start?.getTime() ?? "none"}/${row.order.plannedShip?.getTime() ?? "none"}`,
+  });
+}
+
+export async function notifyShipped(orderId: string, db: Db = getDb()) {
+  const row = await getOrderWithRequest(db, orderId);
+  if (!row) throw new Error(`notify: order ${orderId} not found`);
+  const c = await contactsOrThrow(db, row.request.id);
+  const kg = row.order.actualMaterialKg;
+  await sendEmail({
+    to: recipients(c.creatorEmail, c.billingEmail),
+    subject: `${c.reference} has shipped`,
+    react: createElement(ShippedEmail, {
+      reference: c.reference,
+      projectName: c.projectName,
+      carrier: row.order.carrier,
+      trackingNumber: row.order.trackingNumber,
+      massText: kg ? formatMass(kg, c.unitsPref) : null,
+      url: requestUrl(c.id),
+    }),
+    tags: [{ name: "template", value: "shipped" }],
+    idempotencyKey: `shipped/${orderId}`,
+  });
+}
+
+export async function notifyBalanceDue(orderId: string, db: Db = getDb()) {
+  const row = await getOrderWithRequest(db, orderId);
+  if (!row) throw new Error(`notify: order ${orderId} not found`);
+  const c = await contactsOrThrow(db, row.request.id);
+  await sendEmail({
+    to: recipients(c.creatorEmail, c.billingEmail),
+    subject: `Balance due for ${c.reference}`,
+    react: createElement(BalanceDueEmail, {
+      reference: c.reference,
+      projectName: c.projectName,
+      balance: formatCents(row.order.balanceCents, row.order.currency),
+      poNumber: row.order.poNumber,
+      url: requestUrl(c.id),
+    }),
+    tags: [{ name: "template", value: "balance-due" }],
+    idempotencyKey: `balance-due/${orderId}`,
+  });
+}
