@@ -19,7 +19,7 @@ export default function ShippedEmail(p: ShippedEmailProps) {
       </Text>
       <Text style={paragraph}>
         Caution: {p.massText ? `the crate holds a part of about ${p.massText}. ` : ""}Large tools are heavy: unload and lift
-        with suitable equipment and trained people, following your site's lifting procedures and local codes.
+        with suitable equipment and trained people, following your site&rsquo;s lifting procedures and local codes.
       </Text>
       <Button href={p.url} style={buttonStyle}>
         Open the order
