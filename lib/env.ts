@@ -29,6 +29,11 @@ const schema = z.object({
   UPLOADTHING_TOKEN: z.string().optional(),
   UPLOADTHING_API_URL: z.string().optional(),
   UPLOADTHING_INGEST_URL: z.string().optional(),
+  // Where the ingest posts upload callbacks (the app's /api/uploadthing); detected when unset.
+  UPLOADTHING_CALLBACK_URL: z.string().url().optional(),
+  // File host for signed reads: "localhost:4030" with "path" for the local fake.
+  UPLOADTHING_UFS_HOST: z.string().optional(),
+  UPLOADTHING_UFS_APP_ID_LOCATION: z.enum(["subdomain", "path"]).optional(),
 });
 
 export type Env = z.infer<typeof schema>;

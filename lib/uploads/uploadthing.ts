@@ -1,0 +1,130 @@
+import { UTApi } from "uploadthing/server";
+import { env, type Env } from "../env";
+import { LOCAL_UPLOADTHING_TOKEN, parseUploadthingToken } from "./token";
+
+/**
+ * The one place UploadThing is configured. With `UPLOADTHING_INGEST_URL` / `UPLOADTHING_API_URL`
+ * set, the SDK talks to the local fake (mocks/uploadthing); unset, to the hosted service.
+ */
+export interface UploadthingSettings {
+  token: string;
+  apiUrl?: string;
+  ingestUrl?: string;
+  callbackUrl?: string;
+  ufsHost?: string;
+  ufsAppIdLocation?: "subdomain" | "path";
+  isLocal: boolean;
+}
+
+/**
+ * Derive the settings: an explicit `UPLOADTHING_TOKEN` wins; in local mode (an ingest URL set and
+ * no token) the fake's built-in token is used, so the demo needs no secret.
+ */
+export function uploadthingSettings(e: Env = env()): UploadthingSettings {
+  const isLocal = Boolean(e.UPLOADTHING_INGEST_URL);
+  const token = e.UPLOADTHING_TOKEN ?? (isLocal ? LOCAL_UPLOADTHING_TOKEN : undefined);
+  if (!token) {
+    throw new Error("Uploads are not configured: set UPLOADTHING_TOKEN (hosted) or UPLOADTHING_INGEST_URL (the local fake)");
+  }
+  parseUploadthingToken(token);
+  return {
+    token,
+    apiUrl: e.UPLOADTHING_API_URL ?? (isLocal ? e.UPLOADTHING_INGEST_URL : undefined),
+    ingestUrl: e.UPLOADTHING_INGEST_URL,
+    callbackUrl: e.UPLOADTHING_CALLBACK_URL,
+    ufsHost: e.UPLOADTHING_UFS_HOST,
+    ufsAppIdLocation: e.UPLOADTHING_UFS_APP_ID_LOCATION ?? (e.UPLOADTHING_UFS_HOST ? "path" : undefined),
+    isLocal,
+  };
+}
+
+const defined = <T extends object>(o: T): T => Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as T;
+
+/** `config` for `createRouteHandler({ router, config: uploadthingRouteConfig() })`. */
+export function uploadthingRouteConfig(s: UploadthingSettings = uploadthingSettings()) {
+  return defined({ token: s.token, ingestUrl: s.ingestUrl, callbackUrl: s.callbackUrl });
+}
+
+let utapi: UTApi | undefined;
+
+/** The process-wide server SDK client (deleteFiles, uploadFiles, generateSignedURL). */
+export function getUtApi(): UTApi {
+  if (!utapi) {
+    const s = uploadthingSettings();
+    utapi = new UTApi(defined({ token: s.token, apiUrl: s.apiUrl, ingestUrl: s.ingestUrl, ufsHost: s.ufsHost, ufsAppIdLocation: s.ufsAppIdLocation }));
+  }
+  return utapi;
+}
+
+/** For tests that change the environment between cases. */
+export function resetUtApi(): void {
+  utapi = undefined;
+}
+
+export class UploadFetchError extends Error {
+  constructor(
+    message: string,
+    readonly status: number | null,
+  ) {
+    super(message);
+    this.name = "UploadFetchError";
+  }
+}
+
+const KEY = /^[A-Za-z0-9_-]{1,128}$/;
+
+/** Hosts a stored file may be read from: the hosted CDN, or the configured local fake. */
+function isAllowedFileHost(url: URL, s: UploadthingSettings): boolean {
+  const local = [s.ingestUrl, s.apiUrl, s.ufsHost ? `http://${s.ufsHost}` : undefined]
+    .filter((u): u is string => Boolean(u))
+    .map((u) => new URL(u).host);
+  if (local.includes(url.host)) return true;
+  return url.protocol === "https:" && (url.hostname === "utfs.io" || url.hostname.endsWith(".ufs.sh"));
+}
+
+/** The file key of a stored file's URL (`…/f/<key>` or `…/a/<appId>/<key>`), or a bare key. */
+export function fileKeyOf(urlOrKey: string, s: UploadthingSettings = uploadthingSettings()): string {
+  if (KEY.test(urlOrKey)) return urlOrKey;
+  let url: URL;
+  try {
+    url = new URL(urlOrKey);
+  } catch {
+    throw new UploadFetchError("Not a file URL or key", null);
+  }
+  if (!isAllowedFileHost(url, s)) throw new UploadFetchError(`Refusing to read files from ${url.host}`, null);
+  const m = url.pathname.match(/^\/(?:f|a\/[^/]+)\/([A-Za-z0-9_-]{1,128})$/);
+  if (!m) throw new UploadFetchError("Not a stored-file URL", null);
+  return m[1]!;
+}
+
+/**
+ * Read a stored file's bytes on the server (for the analysis and the authorized download route;
+ * browsers never get the storage URL). Reads through a short-lived signed URL, so private files
+ * work too; refuses other hosts and anything over `maxBytes`.
+ */
+export async function fetchUploadedFile(urlOrKey: string, opts: { maxBytes?: number; utApi?: UTApi } = {}): Promise<Uint8Array> {
+  const maxBytes = opts.maxBytes ?? 256 * 1024 * 1024;
+  const key = fileKeyOf(urlOrKey);
+  const { ufsUrl } = await (opts.utApi ?? getUtApi()).generateSignedURL(key, { expiresIn: 60 });
+  const res = await fetch(ufsUrl, { signal: AbortSignal.timeout(60_000) }).catch((e: unknown) => {
+    throw new UploadFetchError(`File storage unreachable: ${(e as Error).message}`, null);
+  });
+  if (res.status === 404) throw new UploadFetchError("The stored file was not found", 404);
+  if (!res.ok || !res.body) throw new UploadFetchError(`File storage answered ${res.status}`, res.status);
+  const declared = Number(res.headers.get("content-length") ?? "0");
+  if (declared > maxBytes) throw new UploadFetchError(`The stored file is larger than ${maxBytes} bytes`, 413);
+  const chunks: Uint8Array[] = [];
+  let size = 0;
+  for await (const chunk of res.body as unknown as AsyncIterable<Uint8Array>) {
+    size += chunk.length;
+    if (size > maxBytes) throw new UploadFetchError(`The stored file is larger than ${maxBytes} bytes`, 413);
+    chunks.push(chunk);
+  }
+  const out = new Uint8Array(size);
+  let at = 0;
+  for (const c of chunks) {
+    out.set(c, at);
+    at += c.length;
+  }
+  return out;
+}
