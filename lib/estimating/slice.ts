@@ -31,9 +31,11 @@ export function slice(p: Float32Array, n: number, z0: number, h: number, count: 
     const za = p[b + 2]!, zb = p[b + 5]!, zc = p[b + 8]!;
     const lo = za < zb ? (za < zc ? za : zc) : (zb < zc ? zb : zc);
     const hi = za > zb ? (za > zc ? za : zc) : (zb > zc ? zb : zc);
-    // planes with lo <= z_k < hi
-    let k0 = Math.ceil((lo - z0) / h - 0.5);
-    let k1 = Math.ceil((hi - z0) / h - 0.5) - 1;
+    // A corner on a plane counts as above it (d >= 0 below), so the triangle is cut by the
+    // planes with lo < z_k <= hi; one plane of slack each side absorbs rounding of the index,
+    // the exact side test below decides.
+    let k0 = Math.floor((lo - z0) / h - 0.5);
+    let k1 = Math.floor((hi - z0) / h - 0.5) + 1;
     if (k0 < 0) k0 = 0;
     if (k1 > count - 1) k1 = count - 1;
     if (k1 < k0) { first[t] = -1; continue; }
