@@ -1,0 +1,155 @@
+import { and, asc, desc, eq, gt, inArray, lt, sql } from "drizzle-orm";
+import type { Db } from "../client";
+import { analyses, fileRevisions, orders, organisations, parts, payments, requests, scheduleBlocks, stageEvents, users } from "../schema";
+import type { Tx } from "./audit";
+
+/** Orders on the production board: accepted and later, held orders included. */
+export async function listBoard(db: Db) {
+  return db
+    .select({
+      orderId: orders.id,
+      requestId: requests.id,
+      reference: requests.reference,
+      projectName: requests.projectName,
+      firmName: organisations.name,
+      stage: requests.stage,
+      heldFromStage: requests.heldFromStage,
+      isControlled: requests.isControlled,
+      cellKey: orders.cellKey,
+      plannedStart: orders.plannedStart,
+      plannedShip: orders.plannedShip,
+      neededBy: requests.neededBy,
+      updatedAt: requests.updatedAt,
+    })
+    .from(orders)
+    .innerJoin(requests, eq(requests.id, orders.requestId))
+    .innerJoin(organisations, eq(organisations.id, orders.orgId))
+    .orderBy(asc(orders.plannedStart), asc(requests.updatedAt));
+}
+
+/** One order with what production needs: parts and their estimates, blocks, stage history, payments. */
+export async function getOrderForProduction(db: Db | Tx, orderId: string) {
+  const [row] = await db
+    .select({ order: orders, request: requests, firmName: organisations.name })
+    .from(orders)
+    .innerJoin(requests, eq(requests.id, orders.requestId))
+    .innerJoin(organisations, eq(organisations.id, orders.orgId))
+    .where(eq(orders.id, orderId));
+  if (!row) return null;
+  const [partRows, blocks, events, pays] = await Promise.all([
+    partsWithEstimates(db, row.request.id),
+    db.select().from(scheduleBlocks).where(eq(scheduleBlocks.orderId, orderId)).orderBy(asc(scheduleBlocks.startsAt)),
+    db
+      .select({ id: stageEvents.id, fromStage: stageEvents.fromStage, toStage: stageEvents.toStage, note: stageEvents.note, at: stageEvents.at, actor: users.name })
+      .from(stageEvents)
+      .leftJoin(users, eq(users.id, stageEvents.actorId))
+      .where(eq(stageEvents.requestId, row.request.id))
+      .orderBy(desc(stageEvents.at)),
+    db.select({ id: payments.id, kind: payments.kind, status: payments.status, amountCents: payments.amountCents }).from(payments).where(eq(payments.orderId, orderId)),
+  ]);
+  return { ...row, parts: partRows, blocks, events, payments: pays };
+}
+export type ProductionOrder = NonNullable<Awaited<ReturnType<typeof getOrderForProduction>>>;
+
+/** Parts of a request with the latest finished analysis of their current revision. */
+export async function partsWithEstimates(db: Db | Tx, requestId: string) {
+  const rows = await db
+    .select({ id: parts.id, name: parts.name, materialKey: parts.materialKey, quantity: parts.quantity, revisionId: parts.currentRevisionId })
+    .from(parts)
+    .where(eq(parts.requestId, requestId))
+    .orderBy(asc(parts.sort));
+  const revIds = rows.map((r) => r.revisionId).filter((x): x is string => Boolean(x));
+  const done = revIds.length
+    ? await db
+        .select({ revisionId: analyses.revisionId, result: analyses.result, createdAt: analyses.createdAt })
+        .from(analyses)
+        .innerJoin(fileRevisions, eq(fileRevisions.id, analyses.revisionId))
+        .where(and(inArray(analyses.revisionId, revIds), eq(analyses.status, "done")))
+        .orderBy(desc(analyses.createdAt))
+    : [];
+  const latest = new Map<string, Record<string, unknown>>();
+  for (const a of done) if (!latest.has(a.revisionId) && a.result) latest.set(a.revisionId, a.result);
+  return rows.map((r) => ({ ...r, estimate: r.revisionId ? (latest.get(r.revisionId) ?? null) : null }));
+}
+
+/** Blocks on a cell overlapping [from, to), with their order's reference for labels. */
+export async function listCellBlocks(db: Db | Tx, cellKey: string, from: Date, to: Date) {
+  return db
+    .select({
+      id: scheduleBlocks.id,
+      orderId: scheduleBlocks.orderId,
+      kind: scheduleBlocks.kind,
+      startsAt: scheduleBlocks.startsAt,
+      endsAt: scheduleBlocks.endsAt,
+      reference: requests.reference,
+      projectName: requests.projectName,
+      stage: requests.stage,
+    })
+    .from(scheduleBlocks)
+    .innerJoin(orders, eq(orders.id, scheduleBlocks.orderId))
+    .innerJoin(requests, eq(requests.id, orders.requestId))
+    .where(and(eq(scheduleBlocks.cellKey, cellKey), lt(scheduleBlocks.startsAt, to), gt(scheduleBlocks.endsAt, from)))
+    .orderBy(asc(scheduleBlocks.startsAt));
+}
+
+/** Replace an order's blocks and planned dates (inside the scheduling transaction). */
+export async function saveSchedule(
+  tx: Tx,
+  orderId: string,
+  cellKey: string,
+  blocks: { kind: "print" | "cooling" | "machining" | "finishing"; startsAt: Date; endsAt: Date }[],
+  plannedShip: Date,
+) {
+  await tx.delete(scheduleBlocks).where(eq(scheduleBlocks.orderId, orderId));
+  await tx.insert(scheduleBlocks).values(blocks.map((b) => ({ ...b, orderId, cellKey })));
+  await tx.update(orders).set({ cellKey, plannedStart: blocks[0]!.startsAt, plannedShip }).where(eq(orders.id, orderId));
+}
+
+export interface ActualsWrite {
+  actualPrintHours?: number | null;
+  actualMaterialKg?: number | null;
+  actualMachiningHours?: number | null;
+  inspectionResult?: "pass" | "fail" | "conditional" | null;
+  inspectionNotes?: string | null;
+  carrier?: string | null;
+  trackingNumber?: string | null;
+}
+
+export async function updateActuals(tx: Tx, orderId: string, w: ActualsWrite) {
+  const set = Object.fromEntries(Object.entries(w).filter(([, v]) => v !== undefined));
+  if (Object.keys(set).length) await tx.update(orders).set(set).where(eq(orders.id, orderId));
+}
+
+export async function getOrderById(db: Db | Tx, orderId: string) {
+  const [o] = await db.select().from(orders).where(eq(orders.id, orderId));
+  return o ?? null;
+}
+
+/** The balance invoice made when an order ships: one pending balance payment, made once. */
+export async function ensureBalancePayment(tx: Tx, order: { id: string; orgId: string; balanceCents: number; currency: string }, actorId: string) {
+  if (order.balanceCents <= 0) return null;
+  const [existing] = await tx.select({ id: payments.id }).from(payments).where(and(eq(payments.orderId, order.id), eq(payments.kind, "balance")));
+  if (existing) return existing.id;
+  const [p] = await tx
+    .insert(payments)
+    .values({ orderId: order.id, orgId: order.orgId, kind: "balance", status: "pending", amountCents: order.balanceCents, currency: order.currency, createdById: actorId })
+    .returning({ id: payments.id });
+  return p!.id;
+}
+
+/** Orders with actuals recorded, for the actual-against-estimate report. */
+export async function listOrdersWithActuals(db: Db) {
+  return db
+    .select({
+      orderId: orders.id,
+      requestId: requests.id,
+      reference: requests.reference,
+      projectName: requests.projectName,
+      actualPrintHours: orders.actualPrintHours,
+      actualMaterialKg: orders.actualMaterialKg,
+      actualMachiningHours: orders.actualMachiningHours,
+    })
+    .from(orders)
+    .innerJoin(requests, eq(requests.id, orders.requestId))
+    .where(sql`${orders.actualPrintHours} is not null or ${orders.actualMaterialKg} is not null or ${orders.actualMachiningHours} is not null`);
+}

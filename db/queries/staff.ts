@@ -1,0 +1,54 @@
+import { and, asc, eq, inArray, isNull, ne, sql } from "drizzle-orm";
+import type { Db } from "../client";
+import { STAFF_ROLES, invitations, users } from "../schema";
+import type { Tx } from "./audit";
+
+const staffColumns = {
+  id: users.id,
+  name: users.name,
+  email: users.email,
+  role: users.role,
+  isControlledCleared: users.isControlledCleared,
+  disabledAt: users.disabledAt,
+  createdAt: users.createdAt,
+};
+
+export async function listStaff(db: Db) {
+  return db.select(staffColumns).from(users).where(inArray(users.role, [...STAFF_ROLES])).orderBy(asc(users.role), asc(users.email));
+}
+
+export async function getStaffUser(db: Db | Tx, userId: string) {
+  const [u] = await db.select(staffColumns).from(users).where(and(eq(users.id, userId), inArray(users.role, [...STAFF_ROLES])));
+  return u ?? null;
+}
+
+/** Active admins other than `exceptUserId`. */
+export async function countOtherActiveAdmins(db: Db | Tx, exceptUserId: string) {
+  const [row] = await db
+    .select({ n: sql<number>`count(*)` })
+    .from(users)
+    .where(and(eq(users.role, "admin"), isNull(users.disabledAt), ne(users.id, exceptUserId)));
+  return Number(row?.n ?? 0);
+}
+
+export async function updateStaffUser(tx: Tx, userId: string, set: { role?: (typeof STAFF_ROLES)[number]; isControlledCleared?: boolean; disabledAt?: Date | null }) {
+  await tx.update(users).set(set).where(eq(users.id, userId));
+}
+
+export async function listPendingStaffInvitations(db: Db) {
+  return db
+    .select({ id: invitations.id, email: invitations.email, role: invitations.role, expiresAt: invitations.expiresAt, createdAt: invitations.createdAt })
+    .from(invitations)
+    .where(and(isNull(invitations.orgId), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
+    .orderBy(asc(invitations.createdAt));
+}
+
+export async function createStaffInvitation(tx: Tx, input: { email: string; role: string; tokenHash: string; invitedById: string; expiresAt: Date }) {
+  const [row] = await tx.insert(invitations).values({ ...input, orgId: null }).returning({ id: invitations.id });
+  return row!.id;
+}
+
+export async function findUserByEmail(db: Db | Tx, email: string) {
+  const [u] = await db.select({ id: users.id, role: users.role }).from(users).where(eq(users.email, email.toLowerCase()));
+  return u ?? null;
+}
