@@ -165,13 +165,19 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
   for (let k = 0; k < layerCount; k++) slicedVolume += grownArea[k]! * h;
 
   onProgress(0.75, "planning");
-  const plan = planLayers({ areaMm2: grownArea, perimeterMm: grownPer, layerHeightMm: h, beadWidthMm: w, shellWalls: walls, cell, material });
+  // The 2D offset of a section misses the extra reach of sloped walls (the 3D offset is wider
+  // there), so the sliced sum falls a little short of the Steiner volume. The sections are
+  // rescaled to the Steiner total: the slices give the distribution over height, Steiner the
+  // amount, and mass and print time then agree.
+  const nearNet = steinerVolume(volume, m.areaMm2, M, t);
+  const fill = slicedVolume > 0 ? nearNet / slicedVolume : 1;
+  const planArea = fill === 1 ? grownArea : grownArea.map((a) => a * fill);
+  const plan = planLayers({ areaMm2: planArea, perimeterMm: grownPer, layerHeightMm: h, beadWidthMm: w, shellWalls: walls, cell, material });
   if (plan.extruderLimited) warnings.push({ code: "extruder-limited", message: `The ${cell.name} extruder cannot feed this bead at the cell's minimum speed; deposition is capped at its output.` });
   if (plan.flaggedCount > 0) {
     warnings.push({ code: "layers-too-long", message: `${plan.flaggedCount} layers take longer than the ${material.maxLayerTimeS} s cooling window of ${material.name}: the layer below cools too far and may bond poorly. Consider shell walls, a larger bead, a split, or interlayer heating.` });
   }
 
-  const nearNet = steinerVolume(volume, m.areaMm2, M, t);
   const allowanceVolume = nearNet - volume;
   const rho = material.densityGPerCm3 * 1e-6; // kg per mm³
   const depositedKg = (walls === null ? nearNet : plan.depositedMm3) * rho;

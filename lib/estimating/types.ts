@@ -203,7 +203,7 @@ export interface EstimateResult {
   allowanceMm: number;
   nearNetVolumeMm3: number;
   allowanceVolumeMm3: number;
-  /** Σ grown layer section areas × layer height: the slicer's own volume, for comparison. */
+  /** Σ grown layer section areas × layer height before the sections are rescaled to the Steiner volume (see analyse.ts), for comparison. */
   slicedVolumeMm3: number;
   orientation: Orientation;
   orientationChosenBy: "user" | "min-height";
