@@ -9,7 +9,11 @@ export default function AuthLayout({ children }: { children: React.ReactNode }) 
           <Logo tone="light" />
         </Link>
         <div className="absolute inset-x-10 bottom-10 space-y-3">
-          <div className="bead-rule h-24 w-40 opacity-70" />
+          <svg viewBox="0 0 160 96" className="h-24 w-40" aria-hidden="true">
+            {Array.from({ length: 6 }, (_, i) => (
+              <rect key={i} x={(i % 2) * 4} y={84 - i * 16} width={150 - i * 10} height={12} rx={6} fill="#d9692a" opacity={0.4 + i * 0.1} />
+            ))}
+          </svg>
           <p className="max-w-md text-lg">Printed near-net, machined to net. Tooling up to 9 metres long, followed from upload to delivery.</p>
         </div>
       </aside>

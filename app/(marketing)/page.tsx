@@ -19,10 +19,13 @@ function metres(mm: number) {
 
 export default async function LandingPage() {
   const db = getDb();
-  const [cells, materials] = await Promise.all([
+  const [cellRows, materialRows] = await Promise.all([
     listCurrentCells(db).catch(() => []),
     listCurrentMaterials(db).catch(() => []),
   ]);
+  const volume = (e: { x: number; y: number; z: number }) => e.x * e.y * e.z;
+  const cells = [...cellRows].sort((a, b) => volume(b.params.envelopeMm) - volume(a.params.envelopeMm));
+  const materials = [...materialRows].sort((a, b) => a.params.maxServiceTempC - b.params.maxServiceTempC);
   return (
     <div>
       <header className="mx-auto flex max-w-6xl items-center justify-between px-5 py-5">
@@ -58,7 +61,7 @@ export default async function LandingPage() {
             </div>
           </div>
           <div aria-hidden="true" className="relative hidden md:block">
-            <svg viewBox="0 0 300 260" className="h-full w-full">
+            <svg viewBox="0 0 340 260" className="h-full w-full">
               {Array.from({ length: 12 }, (_, i) => (
                 <rect key={i} x={40 + (i % 2) * 4} y={220 - i * 16} width={200 - i * 6} height={13} rx={6.5} fill={i < 11 ? "#d9692a" : "#e98a4c"} opacity={0.45 + i * 0.045} />
               ))}
