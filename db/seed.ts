@@ -1,0 +1,382 @@
+/**
+ * Demo seed: the invented scenario of DESIGN.md. Wipes the tables and writes the bureau's
+ * catalogue, the three client firms, one user per role and one request in every stage, each with
+ * a generated mesh analysed by the real engine. Run: `npm run db:migrate && npm run db:seed`.
+ */
+import { createHash, randomUUID } from "node:crypto";
+import { mkdirSync, writeFileSync } from "node:fs";
+import path from "node:path";
+import { sql } from "drizzle-orm";
+import { analyse } from "../lib/estimating/analyse";
+import { defaultCells, defaultMaterials, defaultRateCard } from "../lib/estimating/defaults";
+import type { EstimateResult } from "../lib/estimating/types";
+import { hashPassword } from "../lib/auth/password";
+import { FLOW } from "../lib/orders/stages";
+import { shareOfCents } from "../lib/money";
+import { binaryStl, drillFixture, hullPlugInches, layupMold, tooLongBeam, extrude, type IndexedMesh } from "../mocks/fixtures/meshes";
+import { openDb, type Db } from "./client";
+import * as s from "./schema";
+import { DEMO_PASSWORDS, DEMO_REQUESTS, DEMO_USERS, FIRMS, type DemoMeshKey, type DemoRequest } from "./seed-data";
+import { processorRecordsFor, type SeedProcessorRecord } from "./seed-processor";
+
+const DAY = 86_400_000;
+
+const MESHES: Record<DemoMeshKey, { name: string; make: () => IndexedMesh; file: string }> = {
+  "layup-mold": { name: "Layup mold with flange", make: () => layupMold(), file: "layup-mold.stl" },
+  "hull-plug": { name: "Hull plug", make: () => hullPlugInches(), file: "hull-plug-inches.stl" },
+  "drill-fixture": { name: "Drill fixture", make: () => drillFixture(), file: "drill-fixture.stl" },
+  "too-long-beam": { name: "Spar tool, one piece", make: () => tooLongBeam(), file: "spar-tool-12m.stl" },
+  "trim-fixture": {
+    name: "Trim fixture",
+    make: () => extrude([[0, 0], [900, 0], [900, 80], [520, 80], [520, 260], [380, 260], [380, 80], [0, 80]], 700),
+    file: "trim-fixture.stl",
+  },
+};
+
+/** Tables in an order that respects foreign keys when deleting. */
+const WIPE_ORDER = [
+  "audit_log", "email_outbox", "webhook_events", "refunds", "payments", "schedule_blocks", "stage_events", "documents", "messages",
+  "orders", "quote_lines", "quotes", "analyses", "file_revisions", "uploads", "parts", "requests", "invitations", "memberships",
+  "organisations", "password_reset_tokens", "sign_in_attempts", "sessions", "accounts", "verification_tokens",
+  "rate_cards", "cells", "materials", "users",
+];
+
+export interface SeedOptions {
+  now?: Date;
+  dataDir?: string;
+  /** Base URL where the upload service serves stored files (the local fake by default). */
+  fileBaseUrl?: string;
+  quiet?: boolean;
+}
+
+export interface SeedResult {
+  users: number;
+  requests: number;
+  processorRecords: SeedProcessorRecord[];
+}
+
+export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> {
+  const now = opts.now ?? new Date();
+  const dataDir = opts.dataDir ?? process.env.DATA_DIR ?? "./data";
+  const fileBaseUrl = opts.fileBaseUrl ?? process.env.UPLOADTHING_FILE_BASE_URL ?? "http://127.0.0.1:4030/f";
+  const uploadDir = path.resolve(dataDir, "uploads");
+  mkdirSync(uploadDir, { recursive: true });
+
+  for (const table of WIPE_ORDER) await db.run(sql.raw(`DELETE FROM ${table}`));
+
+  // ---- catalogue ----
+  const matRows = defaultMaterials.map((p) => ({ key: p.key, params: p }));
+  await db.insert(s.materials).values(matRows);
+  await db.insert(s.cells).values(defaultCells.map((p) => ({ key: p.key, params: p })));
+  const [rateCard] = await db.insert(s.rateCards).values({ version: 1, params: defaultRateCard }).returning({ id: s.rateCards.id });
+  const catalogue = { materials: defaultMaterials, cells: defaultCells, rateCard: defaultRateCard };
+
+  // ---- firms and users ----
+  const orgIds = new Map<string, string>();
+  for (const f of FIRMS) {
+    const [row] = await db
+      .insert(s.organisations)
+      .values({ name: f.name, slug: f.slug, unitsPref: f.unitsPref, billingContact: f.billingContact, billingEmail: `accounts@${f.key}.example` })
+      .returning({ id: s.organisations.id });
+    orgIds.set(f.key, row!.id);
+  }
+  const userIds = new Map<string, string>();
+  const hashes = new Map<string, string>();
+  for (const u of DEMO_USERS) {
+    const password = DEMO_PASSWORDS[u.role];
+    if (!hashes.has(password)) hashes.set(password, await hashPassword(password));
+    const [row] = await db
+      .insert(s.users)
+      .values({
+        email: u.email,
+        name: u.name,
+        role: u.role,
+        passwordHash: hashes.get(password)!,
+        isControlledCleared: Boolean(u.cleared),
+        unitsPref: u.unitsPref ?? "mm",
+        emailVerified: now,
+      })
+      .returning({ id: s.users.id });
+    userIds.set(u.email, row!.id);
+    if (u.firm) await db.insert(s.memberships).values({ orgId: orgIds.get(u.firm)!, userId: row!.id });
+  }
+  const staffId = (email: string) => userIds.get(email)!;
+
+  // ---- meshes, analysed once per kind and options ----
+  const analysed = new Map<string, { bytes: Uint8Array; result: EstimateResult }>();
+  async function analysis(r: DemoRequest) {
+    const key = `${r.mesh}|${r.material}|${r.units ?? "mm"}|${r.allowanceMm ?? defaultRateCard.defaultAllowanceMm}`;
+    const hit = analysed.get(key);
+    if (hit) return hit;
+    const m = MESHES[r.mesh];
+    const bytes = binaryStl(m.make());
+    const result = await analyse({
+      bytes,
+      fileName: m.file,
+      options: { units: r.units ?? "mm", materialKey: r.material, allowanceMm: r.allowanceMm ?? defaultRateCard.defaultAllowanceMm },
+      catalogue,
+      now,
+    });
+    const entry = { bytes, result };
+    analysed.set(key, entry);
+    return entry;
+  }
+
+  const processorRecords: SeedProcessorRecord[] = [];
+  let n = 0;
+  for (const r of DEMO_REQUESTS) {
+    n += 1;
+    const created = new Date(now.getTime() - r.daysAgo * DAY);
+    const orgId = orgIds.get(r.firm)!;
+    const authorId = userIds.get(r.by)!;
+    const effective = r.stage === "on_hold" ? r.heldFrom! : r.stage === "cancelled" ? "submitted" : r.stage;
+    const reached = FLOW.indexOf(effective);
+    const { bytes, result } = await analysis(r);
+    const mesh = MESHES[r.mesh];
+    const reference = `LW-${created.getUTCFullYear()}-${String(100 + n).padStart(4, "0")}`;
+
+    await db.transaction(async (tx) => {
+      const [req] = await tx
+        .insert(s.requests)
+        .values({
+          reference,
+          orgId,
+          createdById: authorId,
+          projectName: r.project,
+          neededBy: new Date(created.getTime() + 60 * DAY),
+          cureProcess: r.cure,
+          cureTempC: r.cureTempC,
+          partCtePpmPerK: r.partCte ?? null,
+          isControlled: Boolean(r.controlled),
+          notes: r.notes ?? "",
+          stage: r.stage,
+          heldFromStage: r.stage === "on_hold" ? r.heldFrom! : null,
+          submittedAt: reached >= 1 ? new Date(created.getTime() + 0.1 * DAY) : null,
+          createdAt: created,
+          updatedAt: new Date(created.getTime() + reached * 0.5 * DAY),
+        })
+        .returning({ id: s.requests.id });
+      const requestId = req!.id;
+
+      const [part] = await tx
+        .insert(s.parts)
+        .values({
+          requestId,
+          name: mesh.name,
+          materialKey: r.material,
+          allowanceMm: r.allowanceMm ?? defaultRateCard.defaultAllowanceMm,
+          quantity: r.quantity ?? 1,
+          units: r.units ?? "mm",
+          unitsConfirmed: true,
+          cellKey: result.cell,
+          createdAt: created,
+        })
+        .returning({ id: s.parts.id });
+
+      const fileKey = `seed-${randomUUID()}`;
+      writeFileSync(path.join(uploadDir, fileKey), bytes);
+      const [upload] = await tx
+        .insert(s.uploads)
+        .values({ fileKey, fileName: mesh.file, sizeBytes: bytes.length, url: `${fileBaseUrl}/${fileKey}`, contentType: "model/stl", userId: authorId, orgId, createdAt: created })
+        .returning({ id: s.uploads.id });
+      const [rev] = await tx
+        .insert(s.fileRevisions)
+        .values({
+          partId: part!.id,
+          revision: 1,
+          uploadId: upload!.id,
+          fileKey,
+          fileName: mesh.file,
+          sizeBytes: bytes.length,
+          sha256: createHash("sha256").update(bytes).digest("hex"),
+          format: result.format,
+          uploadedById: authorId,
+          createdAt: created,
+        })
+        .returning({ id: s.fileRevisions.id });
+      await tx.update(s.parts).set({ currentRevisionId: rev!.id }).where(sql`${s.parts.id} = ${part!.id}`);
+      await tx.insert(s.analyses).values({
+        revisionId: rev!.id,
+        status: "done",
+        progress: 1,
+        options: { units: r.units ?? "mm", materialKey: r.material, allowanceMm: r.allowanceMm ?? defaultRateCard.defaultAllowanceMm },
+        result: result as unknown as Record<string, unknown>,
+        rateCardId: rateCard!.id,
+        createdAt: created,
+        finishedAt: created,
+      });
+
+      // Stage history along the flow, half a day apart.
+      const events = FLOW.slice(0, reached + 1);
+      for (let i = 0; i < events.length; i++) {
+        await tx.insert(s.stageEvents).values({
+          requestId,
+          fromStage: i === 0 ? null : events[i - 1]!,
+          toStage: events[i]!,
+          actorId: i === 0 ? authorId : i <= 2 ? staffId("sales@saltgrass.example") : staffId("production@saltgrass.example"),
+          at: new Date(created.getTime() + i * 0.5 * DAY),
+        });
+      }
+      if (r.stage === "on_hold" || r.stage === "cancelled") {
+        await tx.insert(s.stageEvents).values({
+          requestId,
+          fromStage: effective,
+          toStage: r.stage,
+          actorId: staffId("sales@saltgrass.example"),
+          note: r.notes ?? (r.stage === "cancelled" ? "Cancelled at the client's request." : null),
+          at: new Date(created.getTime() + (reached + 1) * 0.5 * DAY),
+        });
+      }
+
+      if (reached < FLOW.indexOf("quoted")) return;
+      // ---- quote ----
+      const issuedAt = new Date(created.getTime() + 1 * DAY);
+      const accepted = reached >= FLOW.indexOf("accepted");
+      const [quote] = await tx
+        .insert(s.quotes)
+        .values({
+          requestId,
+          version: 1,
+          status: accepted ? "accepted" : "issued",
+          subtotalCents: result.subtotalCents,
+          marginBp: defaultRateCard.marginBp,
+          marginCents: result.marginCents,
+          taxBp: defaultRateCard.taxBp,
+          taxCents: result.taxCents,
+          totalCents: result.totalCents,
+          depositBp: defaultRateCard.depositBp,
+          depositCents: result.depositCents,
+          validityDays: defaultRateCard.quoteValidityDays,
+          terms: "Deposit of half the total on acceptance; balance on shipping. Tool use stays with the client's engineering sign-off.",
+          shipDate: new Date(result.shipDate),
+          rateCardId: rateCard!.id,
+          createdById: staffId("sales@saltgrass.example"),
+          issuedById: staffId("sales@saltgrass.example"),
+          issuedAt,
+          validUntil: new Date(issuedAt.getTime() + defaultRateCard.quoteValidityDays * DAY),
+          acceptedAt: accepted ? new Date(created.getTime() + 1.5 * DAY) : null,
+          acceptedById: accepted ? authorId : null,
+          createdAt: issuedAt,
+        })
+        .returning({ id: s.quotes.id });
+      await tx.insert(s.quoteLines).values(
+        result.lines.map((l, i) => ({
+          quoteId: quote!.id,
+          partId: part!.id,
+          kind: lineKind(l.key),
+          description: l.label,
+          quantity: l.quantity,
+          unitCents: l.unitCents,
+          amountCents: l.amountCents,
+          estimatedCents: l.amountCents,
+          sort: i,
+        })),
+      );
+      if (!accepted) return;
+
+      // ---- order, payments, schedule ----
+      const shipped = reached >= FLOW.indexOf("shipped");
+      const [order] = await tx
+        .insert(s.orders)
+        .values({
+          requestId,
+          orgId,
+          quoteId: quote!.id,
+          poNumber: `PO-${r.firm.slice(0, 3).toUpperCase()}-${4400 + n}`,
+          totalCents: result.totalCents,
+          depositCents: result.depositCents,
+          balanceCents: result.totalCents - result.depositCents,
+          cellKey: reached >= FLOW.indexOf("scheduled") ? result.cell : null,
+          plannedStart: reached >= FLOW.indexOf("scheduled") ? new Date(created.getTime() + 3 * DAY) : null,
+          plannedShip: reached >= FLOW.indexOf("scheduled") ? new Date(result.shipDate) : null,
+          carrier: shipped ? "Tidewater Freight Lines" : null,
+          trackingNumber: shipped ? `TFL${String(880_000 + n * 137)}` : null,
+          actualPrintHours: reached >= FLOW.indexOf("cooling") ? round1(result.printHours * 1.08) : null,
+          actualMaterialKg: reached >= FLOW.indexOf("cooling") ? round1(result.massKg * 1.04) : null,
+          actualMachiningHours: reached >= FLOW.indexOf("inspection") ? round1(result.machiningHours * 0.93) : null,
+          inspectionResult: reached >= FLOW.indexOf("finishing") ? "pass" : null,
+          createdAt: new Date(created.getTime() + 1.5 * DAY),
+        })
+        .returning({ id: s.orders.id });
+
+      const paid = reached >= FLOW.indexOf("deposit_paid");
+      const deposit = seedPayment(n, "deposit", result.depositCents, paid, new Date(created.getTime() + 2 * DAY));
+      await tx.insert(s.payments).values({ orderId: order!.id, orgId, createdById: authorId, ...deposit.row });
+      if (paid) processorRecords.push(...processorRecordsFor(deposit.row));
+      if (shipped) {
+        const balancePaid = reached >= FLOW.indexOf("delivered");
+        const balance = seedPayment(n, "balance", result.totalCents - result.depositCents, balancePaid, new Date(created.getTime() + (reached - 2) * 0.5 * DAY));
+        await tx.insert(s.payments).values({ orderId: order!.id, orgId, createdById: authorId, ...balance.row });
+        if (balancePaid) processorRecords.push(...processorRecordsFor(balance.row));
+      }
+
+      if (reached >= FLOW.indexOf("scheduled")) {
+        const start = new Date(result.schedule.printStart).getTime() - r.daysAgo * DAY * 0.5;
+        const blocks = scheduleFrom(result, start);
+        await tx.insert(s.scheduleBlocks).values(blocks.map((b) => ({ orderId: order!.id, cellKey: result.cell, ...b })));
+      }
+    });
+  }
+
+  if (!opts.quiet) {
+    console.log(`Seeded ${DEMO_USERS.length} users, ${FIRMS.length} firms, ${DEMO_REQUESTS.length} requests.`);
+    console.log("Demo accounts (e-mail / password):");
+    for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(13)} ${u.email.padEnd(30)} ${DEMO_PASSWORDS[u.role]}`);
+  }
+  return { users: DEMO_USERS.length, requests: DEMO_REQUESTS.length, processorRecords };
+}
+
+function lineKind(key: string): (typeof s.QUOTE_LINE_KINDS)[number] {
+  const k = key.split(/[-_:]/)[0] ?? "";
+  if (k === "dwell") return "print";
+  return (s.QUOTE_LINE_KINDS as readonly string[]).includes(k) ? (k as (typeof s.QUOTE_LINE_KINDS)[number]) : "other";
+}
+
+function round1(v: number) {
+  return Math.round(v * 10) / 10;
+}
+
+/** A paid or pending payment row as the webhook would have written it. Test-mode fee: 2.9 % + 30¢. */
+function seedPayment(n: number, kind: "deposit" | "balance", amountCents: number, paid: boolean, at: Date) {
+  const tag = `${kind === "deposit" ? "d" : "b"}${String(n).padStart(3, "0")}`;
+  return {
+    row: {
+      kind,
+      status: paid ? ("paid" as const) : ("pending" as const),
+      amountCents,
+      feeCents: paid ? shareOfCents(amountCents, 290) + 30 : null,
+      checkoutSessionId: `cs_test_seed_${tag}`,
+      paymentIntentId: paid ? `pi_seed_${tag}` : null,
+      chargeId: paid ? `ch_seed_${tag}` : null,
+      createdAt: at,
+      paidAt: paid ? at : null,
+    },
+  };
+}
+
+function scheduleFrom(result: EstimateResult, startMs: number) {
+  const sch = result.schedule;
+  const base = new Date(sch.printStart).getTime();
+  const shift = (iso: string) => new Date(new Date(iso).getTime() - base + startMs);
+  return [
+    { kind: "print" as const, startsAt: new Date(startMs), endsAt: shift(sch.printEnd) },
+    { kind: "cooling" as const, startsAt: shift(sch.printEnd), endsAt: shift(sch.coolingEnd) },
+    { kind: "machining" as const, startsAt: shift(sch.coolingEnd), endsAt: shift(sch.machiningEnd) },
+    { kind: "finishing" as const, startsAt: shift(sch.machiningEnd), endsAt: shift(sch.shipDate) },
+  ];
+}
+
+if (import.meta.url === `file://${process.argv[1]}`) {
+  const url = process.env.DATABASE_URL ?? "file:./data/layerwright.db";
+  const { db, client } = openDb(url, process.env.DATABASE_AUTH_TOKEN);
+  seed(db)
+    .then((r) => {
+      const dataDir = process.env.DATA_DIR ?? "./data";
+      writeFileSync(path.resolve(dataDir, "seed-processor-records.json"), JSON.stringify(r.processorRecords, null, 1));
+      client.close();
+    })
+    .catch((e) => {
+      console.error(`seed failed: ${e instanceof Error ? e.stack : String(e)}`);
+      process.exit(1);
+    });
+}
