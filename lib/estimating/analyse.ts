@@ -115,7 +115,16 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
     const fitting = ranked.filter((r) => r.b.marginMm >= 0);
     const envVol = (c: CellParams) => c.envelopeMm.x * c.envelopeMm.y * c.envelopeMm.z;
     fitting.sort((a, b) => a.b.heightMm - b.b.heightMm || envVol(a.c) - envVol(b.c));
-    const pick = fitting[0] ?? ranked.sort((a, b) => b.b.marginMm - a.b.marginMm)[0]!;
+    // Among the lowest builds, the smallest cell whose extruder lays a mean layer inside the
+    // material's cooling window (a rough Steiner-volume check before slicing).
+    const grownGuess = steinerVolume(Math.abs(m.volumeMm3), m.areaMm2, Math.abs(m.meanCurvatureIntegral), t);
+    const meanLayerS = (c: CellParams, heightMm: number) => {
+      const mm3PerS = Math.min((c.extruderOutputKgPerH * 1e6) / 3600 / material.densityGPerCm3, c.speedMaxMmS * c.defaultBeadWidthMm * c.defaultLayerHeightMm);
+      return (grownGuess * (c.defaultLayerHeightMm / heightMm)) / mm3PerS;
+    };
+    const lowest = fitting.length ? fitting[0]!.b.heightMm : 0;
+    const pick = fitting.find((r) => r.b.heightMm <= lowest + 1e-6 && meanLayerS(r.c, r.b.heightMm) <= material.maxLayerTimeS)
+      ?? fitting[0] ?? ranked.sort((a, b) => b.b.marginMm - a.b.marginMm)[0]!;
     cell = pick.c; orientation = pick.b.orientation;
   }
   const fits = fitCells(grownSize, cat.cells, orientation);

@@ -1,0 +1,120 @@
+import { existsSync, readFileSync } from "node:fs";
+import { basename } from "node:path";
+import { parseArgs } from "node:util";
+import { analyse } from "./analyse";
+import { defaultCells, defaultMaterials, defaultRateCard } from "./defaults";
+import { EstimateInputError, isEstimateInputError } from "./errors";
+import type { CellParams, EstimateResult, MaterialParams, RateCardParams } from "./types";
+
+/**
+ * npm run estimate -- FILE [--units mm|in] [--material KEY] [--allowance MM] [--cell KEY]
+ *   [--shell-walls N] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--json]
+ * Exit 0 on success, 2 on a bad file or option (one plain line on stderr), 1 on anything else.
+ */
+const USAGE = "usage: npm run estimate -- FILE [--units mm|in] [--material KEY] [--allowance MM] [--cell KEY] [--shell-walls N] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--json]";
+
+interface Catalogue { materials: MaterialParams[]; cells: CellParams[]; rateCard: RateCardParams; source: string }
+
+/** Catalogue from the database when it exists and has rows, else the seed's defaults. */
+async function loadCatalogue(): Promise<Catalogue> {
+  const fallback: Catalogue = { materials: defaultMaterials, cells: defaultCells, rateCard: defaultRateCard, source: "defaults" };
+  const url = process.env.DATABASE_URL ?? "file:./data/layerwright.db";
+  if (url.startsWith("file:") && !existsSync(url.slice(5))) return fallback;
+  try {
+    const { createClient } = await import("@libsql/client");
+    const db = createClient({ url, authToken: process.env.DATABASE_AUTH_TOKEN });
+    try {
+      const rows = async (sql: string) => (await db.execute(sql)).rows.map((r) => JSON.parse(String(r.params)) as unknown);
+      const materials = (await rows("select params from materials where is_current = 1 and is_active = 1")) as MaterialParams[];
+      const cells = (await rows("select params from cells where is_current = 1 and is_active = 1")) as CellParams[];
+      const cards = (await rows("select params from rate_cards where is_current = 1 order by version desc limit 1")) as Partial<RateCardParams>[];
+      if (materials.length === 0 || cells.length === 0 || cards.length === 0) return fallback;
+      return { materials, cells, rateCard: { ...defaultRateCard, ...cards[0] }, source: "database" };
+    } finally {
+      db.close();
+    }
+  } catch {
+    return fallback;
+  }
+}
+
+function num(v: string | undefined, name: string): number | undefined {
+  if (v === undefined) return undefined;
+  const n = Number(v);
+  if (!Number.isFinite(n)) throw new EstimateInputError("option:number", `--${name} needs a number, not "${v.slice(0, 20)}".`);
+  return n;
+}
+
+const money = (c: number) => `$${(c / 100).toLocaleString("en-US", { minimumFractionDigits: 2, maximumFractionDigits: 2 })}`;
+const f = (v: number, d = 1) => v.toLocaleString("en-US", { maximumFractionDigits: d });
+
+function human(r: EstimateResult, source: string): string {
+  const L: string[] = [];
+  L.push(`ESTIMATE (automatic, not a sales-approved quote) — ${r.fileName}`);
+  L.push(`  format ${r.format}, ${f(r.triangles, 0)} triangles, units ${r.units}${r.unitsGuessed ? " (guessed: confirm)" : ""}; catalogue from ${source}`);
+  L.push(`  size ${r.bboxMm.map((v) => f(v)).join(" × ")} mm, volume ${f(r.volumeMm3 / 1e6, 3)} L, area ${f(r.areaMm2 / 1e6, 3)} m²`);
+  L.push(`  ${r.watertight ? "watertight" : "NOT watertight"}: ${r.openEdges} open, ${r.nonManifoldEdges} non-manifold, ${r.inconsistentEdges} inconsistent edges; ${r.shells} shell(s)`);
+  L.push(`  near-net at ${r.allowanceMm} mm allowance: ${f(r.nearNetVolumeMm3 / 1e6, 3)} L (${f(r.allowanceVolumeMm3 / 1e6, 3)} L to machine off)`);
+  L.push("  fit:");
+  for (const c of r.fits) L.push(`    ${c.cellName.padEnd(12)} ${c.fits ? "fits" : "does not fit"} (margin ${f(c.marginMm)} mm, build height ${f(c.buildHeightMm)} mm)`);
+  if (r.split) L.push(`  split: ${r.split.pieces} pieces along ${r.split.axis} of ${f(r.split.pieceLengthMm)} mm for ${r.split.cell}`);
+  L.push(`  print on ${r.cell}: ${r.layers} layers of ${r.layerHeightMm} mm, bead ${r.beadWidthMm} mm${r.shellWalls ? `, ${r.shellWalls} walls` : ", solid"}, ${f(r.speedMmS)} mm/s`);
+  L.push(`    ${f(r.printHours, 2)} h printing, ${f(r.dwellHours, 2)} h dwell, ${r.flaggedLayers} layers over the cooling window, ${f(r.coolingHours, 1)} h cooling`);
+  L.push(`  material ${r.material.name}: ${f(r.massKg, 1)} kg incl. purge and scrap; machined part ≈ ${f(r.partMassKg, 1)} kg (${f(r.partMassKg / 0.45359237, 1)} lb)`);
+  L.push(`  machining ${f(r.machiningHours, 2)} h (roughing ${f(r.machining.roughingHours, 2)}, finishing ${f(r.machining.finishingHours, 2)} at ${f(r.machining.stepoverMm, 3)} mm stepover)`);
+  L.push("  price:");
+  for (const l of r.lines) L.push(`    ${l.label.padEnd(48)} ${money(l.amountCents).padStart(14)}`);
+  L.push(`    ${"Margin".padEnd(48)} ${money(r.marginCents).padStart(14)}`);
+  L.push(`    ${"Tax".padEnd(48)} ${money(r.taxCents).padStart(14)}`);
+  L.push(`    ${"Total".padEnd(48)} ${money(r.totalCents).padStart(14)}`);
+  L.push(`    ${"Deposit".padEnd(48)} ${money(r.depositCents).padStart(14)}`);
+  L.push(`  earliest ship date ${r.shipDate}; estimate valid until ${r.validUntil}`);
+  for (const w of r.warnings) L.push(`  warning: ${w.message}`);
+  for (const c of r.cautions) L.push(`  caution: ${c}`);
+  return L.join("\n");
+}
+
+async function main(): Promise<number> {
+  let parsed;
+  try {
+    parsed = parseArgs({
+      allowPositionals: true,
+      options: {
+        units: { type: "string" }, material: { type: "string" }, allowance: { type: "string" }, cell: { type: "string" },
+        "shell-walls": { type: "string" }, orientation: { type: "string" }, quantity: { type: "string" }, "cure-temp": { type: "string" },
+        json: { type: "boolean" }, help: { type: "boolean" },
+      },
+    });
+  } catch (e) {
+    process.stderr.write(`${(e as Error).message}\n${USAGE}\n`);
+    return 2;
+  }
+  const { values: v, positionals } = parsed;
+  if (v.help) { process.stdout.write(`${USAGE}\n`); return 0; }
+  const file = positionals[0];
+  try {
+    if (!file || positionals.length > 1) throw new EstimateInputError("cli:usage", USAGE);
+    if (v.units !== undefined && v.units !== "mm" && v.units !== "in") throw new EstimateInputError("option:units", "--units must be mm or in.");
+    if (v.orientation !== undefined && !["x", "y", "z"].includes(v.orientation)) throw new EstimateInputError("option:orientation", "--orientation must be x, y or z (the file axis that points up).");
+    let bytes: Uint8Array;
+    try { bytes = new Uint8Array(readFileSync(file)); } catch { throw new EstimateInputError("file:unreadable", `Cannot read the file "${file}".`); }
+    const cat = await loadCatalogue();
+    const r = await analyse({
+      bytes, fileName: basename(file),
+      options: {
+        units: v.units as "mm" | "in" | undefined, materialKey: v.material, allowanceMm: num(v.allowance, "allowance"), cellKey: v.cell,
+        shellWalls: num(v["shell-walls"], "shell-walls") ?? null, orientation: v.orientation as "x" | "y" | "z" | undefined,
+        quantity: num(v.quantity, "quantity"), cureTempC: num(v["cure-temp"], "cure-temp"),
+      },
+      catalogue: cat, now: new Date(),
+    });
+    process.stdout.write(v.json ? `${JSON.stringify(r)}\n` : `${human(r, cat.source)}\n`);
+    return 0;
+  } catch (e) {
+    if (isEstimateInputError(e)) { process.stderr.write(`${e.message.split("\n")[0]}\n`); return 2; }
+    process.stderr.write(`The estimator failed: ${(e as Error)?.message ?? String(e)}\n`);
+    return 1;
+  }
+}
+
+main().then((code) => { process.exitCode = code; });
