@@ -46,29 +46,28 @@ export async function listRevisionsForPart(db: Db | Tx, partId: string) {
 }
 
 /**
- * Everything the download route needs to decide on one stored file, by file key: which request
- * (and so which firm, and whether controlled) it belongs to, or the uploader when unattached.
+ * Everything the download route needs to decide on one stored file, by our id (a file revision,
+ * a document or a bare upload): its storage key, and which request (so which firm, and whether
+ * controlled) it belongs to, or the uploader when it is not attached yet.
  */
-export async function findFileOwner(db: Db, fileKey: string) {
+export async function findStoredFile(db: Db, id: string) {
   const [rev] = await db
-    .select({ fileName: fileRevisions.fileName, sizeBytes: fileRevisions.sizeBytes, requestId: requests.id, orgId: requests.orgId, createdById: requests.createdById, isControlled: requests.isControlled })
+    .select({ fileKey: fileRevisions.fileKey, fileName: fileRevisions.fileName, sizeBytes: fileRevisions.sizeBytes, requestId: requests.id, orgId: requests.orgId, createdById: requests.createdById, isControlled: requests.isControlled })
     .from(fileRevisions)
     .innerJoin(parts, eq(parts.id, fileRevisions.partId))
     .innerJoin(requests, eq(requests.id, parts.requestId))
-    .where(eq(fileRevisions.fileKey, fileKey))
-    .limit(1);
+    .where(eq(fileRevisions.id, id));
   if (rev) return { kind: "revision" as const, ...rev, contentType: null as string | null, uploaderId: null as string | null };
   const [doc] = await db
-    .select({ fileName: documents.fileName, sizeBytes: documents.sizeBytes, contentType: documents.contentType, requestId: requests.id, orgId: requests.orgId, createdById: requests.createdById, isControlled: requests.isControlled })
+    .select({ fileKey: documents.fileKey, fileName: documents.fileName, sizeBytes: documents.sizeBytes, contentType: documents.contentType, requestId: requests.id, orgId: requests.orgId, createdById: requests.createdById, isControlled: requests.isControlled })
     .from(documents)
     .innerJoin(requests, eq(requests.id, documents.requestId))
-    .where(eq(documents.fileKey, fileKey))
-    .limit(1);
-  if (doc) return { kind: "document" as const, ...doc, fileName: doc.fileName ?? "document", uploaderId: null as string | null };
+    .where(eq(documents.id, id));
+  if (doc?.fileKey) return { kind: "document" as const, ...doc, fileKey: doc.fileKey, fileName: doc.fileName ?? "document", uploaderId: null as string | null };
   const [up] = await db
-    .select({ fileName: uploads.fileName, sizeBytes: uploads.sizeBytes, contentType: uploads.contentType, orgId: uploads.orgId, uploaderId: uploads.userId })
+    .select({ fileKey: uploads.fileKey, fileName: uploads.fileName, sizeBytes: uploads.sizeBytes, contentType: uploads.contentType, orgId: uploads.orgId, uploaderId: uploads.userId })
     .from(uploads)
-    .where(eq(uploads.fileKey, fileKey));
+    .where(eq(uploads.id, id));
   if (up) return { kind: "upload" as const, ...up, requestId: null as string | null, createdById: undefined as string | undefined, isControlled: false };
   return null;
 }

@@ -1,0 +1,60 @@
+import { getDb } from "@/db/client";
+import { writeAudit } from "@/db/queries/audit";
+import { findStoredFile } from "@/db/queries/files";
+import { requireUser, type CurrentUser } from "@/lib/auth/guard";
+import { canOpenFiles, isStaff } from "@/lib/auth/policy";
+import { withErrors } from "@/lib/auth/route";
+import { AppError } from "@/lib/errors";
+import { fetchUploadedFile } from "@/lib/uploads/uploadthing";
+
+export const runtime = "nodejs";
+
+type Stored = NonNullable<Awaited<ReturnType<typeof findStoredFile>>>;
+
+/** May this user open this file? Request files follow the policy (firm scope, controlled clearance). */
+function mayOpen(user: CurrentUser, f: Stored): boolean {
+  if (f.kind === "upload") {
+    if (f.uploaderId === user.id) return true;
+    return isStaff(user.role);
+  }
+  return canOpenFiles(user, { orgId: f.orgId, createdById: f.createdById, isControlled: f.isControlled });
+}
+
+const safeName = (name: string) => name.replace(/[^\w.\- ]+/g, "_").slice(0, 120) || "file";
+
+/**
+ * GET /api/files/:id — the only way a browser gets a stored file's bytes. Another firm's file,
+ * or a controlled file to someone not cleared, answers 404 (its existence stays hidden). Every
+ * download, and every refused one, is written to the audit log.
+ */
+export const GET = withErrors(async (req: Request, ctx: { params: Promise<{ id: string }> }) => {
+  const user = await requireUser();
+  const { id } = await ctx.params;
+  const db = getDb();
+  const file = id.length <= 64 ? await findStoredFile(db, id) : null;
+  const ip = req.headers.get("x-forwarded-for")?.split(",")[0]?.trim() ?? null;
+  if (!file || !mayOpen(user, file)) {
+    await writeAudit(db, { actorId: user.id, action: "file.download_refused", entityType: "file", entityId: id.slice(0, 64), orgId: file?.orgId ?? null, ip });
+    throw new AppError("not_found:file", "That file was not found.");
+  }
+  const bytes = await fetchUploadedFile(file.fileKey);
+  await writeAudit(db, {
+    actorId: user.id,
+    action: "file.download",
+    entityType: file.kind,
+    entityId: id,
+    orgId: file.orgId,
+    after: { fileName: file.fileName, sizeBytes: bytes.length, requestId: file.requestId, isControlled: file.isControlled },
+    ip,
+  });
+  const inline = new URL(req.url).searchParams.get("inline") === "1" && /^(application\/pdf|image\/(png|jpeg))$/.test(file.contentType ?? "");
+  return new Response(Buffer.from(bytes), {
+    headers: {
+      "content-type": inline ? file.contentType! : "application/octet-stream",
+      "content-length": String(bytes.length),
+      "content-disposition": `${inline ? "inline" : "attachment"}; filename="${safeName(file.fileName)}"`,
+      "cache-control": "private, no-store",
+      "x-content-type-options": "nosniff",
+    },
+  });
+});

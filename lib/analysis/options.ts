@@ -1,0 +1,25 @@
+import type { AnalyseOptions } from "../estimating/analyse";
+
+/** Engine options for one part of one request (units, material, allowance, print mode…). */
+export function analysisOptionsFor(
+  part: { units: "mm" | "in"; materialKey: string; allowanceMm: number; quantity: number; printMode: "solid" | "shell"; shellWalls: number; cellKey: string | null },
+  request: { cureTempC: number | null; partCtePpmPerK: number | null },
+): AnalyseOptions {
+  return {
+    units: part.units,
+    materialKey: part.materialKey,
+    allowanceMm: part.allowanceMm,
+    quantity: part.quantity,
+    shellWalls: part.printMode === "shell" ? part.shellWalls : null,
+    ...(part.cellKey ? { cellKey: part.cellKey } : {}),
+    ...(request.cureTempC !== null ? { cureTempC: request.cureTempC } : {}),
+    ...(request.partCtePpmPerK !== null ? { partCtePpmPerK: request.partCtePpmPerK } : {}),
+  };
+}
+
+/** Same options, compared as data (key order does not matter). */
+export function sameOptions(a: Record<string, unknown> | null | undefined, b: Record<string, unknown>): boolean {
+  if (!a) return false;
+  const norm = (o: Record<string, unknown>) => JSON.stringify(Object.keys(o).sort().map((k) => [k, o[k] ?? null]));
+  return norm(a) === norm(b);
+}
