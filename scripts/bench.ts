@@ -1,0 +1,87 @@
+import { spawnSync } from "node:child_process";
+import { mkdirSync, readFileSync, writeFileSync } from "node:fs";
+import path from "node:path";
+import { benchPattern, binaryStl } from "../mocks/fixtures/meshes";
+import { readBinaryStl } from "../lib/estimating/readers/stl";
+import { bounds, volumeAndArea } from "../lib/estimating/measure";
+import { analyse } from "../lib/estimating/analyse";
+import { defaultCells, defaultMaterials, defaultRateCard } from "../lib/estimating/defaults";
+
+/**
+ * npm run bench: a ~1,000,000-triangle binary STL of a part-like shape (a 2.0 × 1.2 m pattern,
+ * 1.5 m tall); times read + volume/area, and the whole analysis (read, measure, weld, grow,
+ * slice at 5 mm layers, plan, price), median of several runs, peak memory (RSS sampled), and
+ * Debian admesh on the same file in the same run. Targets (issue 3): analysis < 2 s,
+ * read + volume/area ≤ 2 × admesh, peak memory < 4 × file size.
+ */
+const RUNS = Number(process.env.BENCH_RUNS ?? 5);
+const out = path.resolve(import.meta.dirname, "..", "bench-out");
+const file = path.join(out, "pattern-1m.stl");
+const median = (xs: number[]) => { const s = [...xs].sort((a, b) => a - b); return s[Math.floor(s.length / 2)]!; };
+
+/** Runs in a child process so the generator's arrays do not count in the memory figures. */
+async function measureChild(): Promise<void> {
+  const catalogue = { cells: defaultCells, materials: defaultMaterials, rateCard: defaultRateCard };
+  // Tall Frame at 5 mm layers; the pattern is 1.5 m tall, built as it lies
+  const options = { cellKey: "tall-frame", units: "mm" as const, orientation: "z" as const };
+  let peak = process.memoryUsage().rss;
+  const baseline = peak;
+  const sampler = setInterval(() => { peak = Math.max(peak, process.memoryUsage().rss); }, 2);
+  const readTimes: number[] = [], allTimes: number[] = [];
+  let layers = 0, volume = 0, triangles = 0;
+  for (let i = 0; i < RUNS; i++) {
+    const onDisk = readFileSync(file);
+    const bytes = new Uint8Array(onDisk.buffer, onDisk.byteOffset, onDisk.byteLength);
+    let t = performance.now();
+    const m = readBinaryStl(bytes);
+    const bb = bounds(m.positions);
+    volume = volumeAndArea(m.positions, m.triangleCount, [(bb.min[0] + bb.max[0]) / 2, (bb.min[1] + bb.max[1]) / 2, (bb.min[2] + bb.max[2]) / 2]).volume;
+    readTimes.push(performance.now() - t);
+    triangles = m.triangleCount;
+    t = performance.now();
+    const r = await analyse({ bytes, fileName: "pattern-1m.stl", options, catalogue, now: new Date("2027-03-01T09:00:00Z") });
+    allTimes.push(performance.now() - t);
+    layers = r.layers;
+    peak = Math.max(peak, process.memoryUsage().rss);
+  }
+  clearInterval(sampler);
+  process.stdout.write(JSON.stringify({ readMs: median(readTimes), allMs: median(allTimes), layers, volume, triangles, peak, baseline }));
+}
+
+async function main(): Promise<void> {
+  mkdirSync(out, { recursive: true });
+  writeFileSync(file, binaryStl(benchPattern(1_000_000)));
+  const child = spawnSync(process.execPath, [...process.execArgv, import.meta.filename ?? process.argv[1]!, "--measure"], { encoding: "utf8", maxBuffer: 1 << 20 });
+  if (child.status !== 0) { process.stderr.write(child.stderr); process.exit(1); }
+  const r = JSON.parse(child.stdout) as { readMs: number; allMs: number; layers: number; volume: number; triangles: number; peak: number; baseline: number };
+
+  const admeshTimes: number[] = [];
+  let admeshVolume: number | null = null;
+  if (spawnSync("admesh", ["--version"]).status === 0) {
+    for (let i = 0; i < RUNS; i++) {
+      const t = performance.now();
+      const a = spawnSync("admesh", [file], { encoding: "utf8" });
+      admeshTimes.push(performance.now() - t);
+      const mv = a.stdout.match(/Volume\s+:\s+(-?[\d.]+)/);
+      if (mv) admeshVolume = Number(mv[1]);
+    }
+  }
+  const fileMb = readFileSync(file).length / 1e6;
+  const peakMb = r.peak / 1e6, baseMb = r.baseline / 1e6, extraMb = peakMb - baseMb;
+  console.log(`file: ${path.relative(process.cwd(), file)}, ${r.triangles.toLocaleString("en-US")} triangles, ${fileMb.toFixed(1)} MB; ${r.layers} layers of 5 mm`);
+  console.log(`runs: ${RUNS} (medians)`);
+  console.log(`read + volume/area: ${r.readMs.toFixed(0)} ms`);
+  console.log(`whole analysis (read, measure, weld, grow, slice, plan, price): ${r.allMs.toFixed(0)} ms   target < 2000 ms: ${r.allMs < 2000 ? "met" : "NOT met"}`);
+  if (admeshTimes.length) {
+    const am = median(admeshTimes);
+    console.log(`admesh (whole process, same file): ${am.toFixed(0)} ms; volume ${admeshVolume} vs ours ${r.volume.toFixed(1)} (rel ${(Math.abs(r.volume - admeshVolume!) / r.volume).toExponential(1)}; admesh sums in float32)`);
+    console.log(`ratio read + volume/area ÷ admesh: ${(r.readMs / am).toFixed(2)}   target ≤ 2: ${r.readMs / am <= 2 ? "met" : "NOT met"}`);
+  } else {
+    console.log("admesh: not installed (apt-get install -y admesh); ratio not measured");
+  }
+  console.log(`peak RSS: ${peakMb.toFixed(0)} MB for the whole process (Node + tsx + code: ${baseMb.toFixed(0)} MB before the first read); growth for the file and its analysis: ${extraMb.toFixed(0)} MB`);
+  console.log(`ratio growth ÷ file size: ${(extraMb / fileMb).toFixed(2)}   target < 4: ${extraMb / fileMb < 4 ? "met" : "NOT met"}   (whole-process RSS ÷ file: ${(peakMb / fileMb).toFixed(2)})`);
+}
+
+if (process.argv.includes("--measure")) await measureChild();
+else await main();
