@@ -4,7 +4,7 @@
  * a generated mesh analysed by the real engine. Run: `npm run db:migrate && npm run db:seed`.
  */
 import { createHash, randomUUID } from "node:crypto";
-import { mkdirSync, writeFileSync } from "node:fs";
+import { writeFileSync } from "node:fs";
 import path from "node:path";
 import { sql } from "drizzle-orm";
 import { analyse } from "../lib/estimating/analyse";
@@ -18,6 +18,7 @@ import { openDb, type Db } from "./client";
 import * as s from "./schema";
 import { DEMO_PASSWORDS, DEMO_REQUESTS, DEMO_USERS, FIRMS, type DemoMeshKey, type DemoRequest } from "./seed-data";
 import { processorRecordsFor, type SeedProcessorRecord } from "./seed-processor";
+import { FileStore } from "../mocks/uploadthing/store";
 
 const DAY = 86_400_000;
 
@@ -58,9 +59,9 @@ export interface SeedResult {
 export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> {
   const now = opts.now ?? new Date();
   const dataDir = opts.dataDir ?? process.env.DATA_DIR ?? "./data";
-  const fileBaseUrl = opts.fileBaseUrl ?? process.env.UPLOADTHING_FILE_BASE_URL ?? "http://127.0.0.1:4030/f";
-  const uploadDir = path.resolve(dataDir, "uploads");
-  mkdirSync(uploadDir, { recursive: true });
+  const fileBaseUrl = opts.fileBaseUrl ?? process.env.UPLOADTHING_FILE_BASE_URL ?? "http://localhost:4030/f";
+  // Demo files go straight into the local upload fake's store, as if uploaded through it.
+  const files = new FileStore(dataDir);
 
   for (const table of WIPE_ORDER) await db.run(sql.raw(`DELETE FROM ${table}`));
 
@@ -174,7 +175,14 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
         .returning({ id: s.parts.id });
 
       const fileKey = `seed-${randomUUID()}`;
-      writeFileSync(path.join(uploadDir, fileKey), bytes);
+      files.save(fileKey, Buffer.from(bytes), {
+        name: mesh.file,
+        type: "model/stl",
+        customId: null,
+        contentDisposition: "attachment",
+        acl: "private",
+        fileHash: createHash("md5").update(bytes).digest("hex"),
+      });
       const [upload] = await tx
         .insert(s.uploads)
         .values({ fileKey, fileName: mesh.file, sizeBytes: bytes.length, url: `${fileBaseUrl}/${fileKey}`, contentType: "model/stl", userId: authorId, orgId, createdAt: created })
@@ -318,6 +326,8 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
     });
   }
 
+  // The payment processor's side of the seeded payments, loaded into the local fake on start.
+  writeFileSync(path.resolve(dataDir, "seed-processor-records.json"), JSON.stringify(processorRecords, null, 1));
   if (!opts.quiet) {
     console.log(`Seeded ${DEMO_USERS.length} users, ${FIRMS.length} firms, ${DEMO_REQUESTS.length} requests.`);
     console.log("Demo accounts (e-mail / password):");
@@ -370,11 +380,7 @@ if (import.meta.url === `file://${process.argv[1]}`) {
   const url = process.env.DATABASE_URL ?? "file:./data/layerwright.db";
   const { db, client } = openDb(url, process.env.DATABASE_AUTH_TOKEN);
   seed(db)
-    .then((r) => {
-      const dataDir = process.env.DATA_DIR ?? "./data";
-      writeFileSync(path.resolve(dataDir, "seed-processor-records.json"), JSON.stringify(r.processorRecords, null, 1));
-      client.close();
-    })
+    .then(() => client.close())
     .catch((e) => {
       console.error(`seed failed: ${e instanceof Error ? e.stack : String(e)}`);
       process.exit(1);

@@ -3,7 +3,10 @@
  * with every SDK pointed at the fakes. Used by `npm run demo` and by the browser tests.
  */
 import { spawn, type ChildProcess } from "node:child_process";
+import { existsSync, readFileSync, renameSync } from "node:fs";
 import path from "node:path";
+import { processorObjectsFor, type SeedProcessorRecord } from "../../db/seed-processor";
+import { LOCAL_UPLOADTHING_TOKEN } from "../uploads/token";
 import { waitForHttp } from "./free-port";
 
 export const root = path.resolve(import.meta.dirname, "../..");
@@ -16,11 +19,6 @@ export interface StackPorts {
 }
 
 export const DEMO_PORTS: StackPorts = { app: 3000, stripe: 4010, resend: 4020, uploads: 4030 };
-
-/** base64 of the JSON UploadThing token, for the local fake (the fake accepts any key). */
-export function localUploadToken(): string {
-  return Buffer.from(JSON.stringify({ apiKey: "sk_live_layerwright_local_fake", appId: "layerwright-local", regions: ["local"] })).toString("base64");
-}
 
 /** Environment that points every service at the local fakes. */
 export function stackEnv(ports: StackPorts, dataDir: string, extra: Record<string, string> = {}, host = "127.0.0.1"): Record<string, string> {
@@ -42,12 +40,15 @@ export function stackEnv(ports: StackPorts, dataDir: string, extra: Record<strin
     RESEND_API_KEY: "re_layerwright_local",
     RESEND_BASE_URL: `http://127.0.0.1:${ports.resend}`,
     RESEND_FAKE_PORT: String(ports.resend),
-    UPLOADTHING_TOKEN: localUploadToken(),
+    UPLOADTHING_TOKEN: LOCAL_UPLOADTHING_TOKEN,
     UPLOADTHING_API_URL: `http://127.0.0.1:${ports.uploads}`,
     UPLOADTHING_INGEST_URL: `http://127.0.0.1:${ports.uploads}`,
     UPLOADTHING_CALLBACK_URL: `${appUrl}/api/uploadthing`,
+    // "localhost" in the file host makes the SDK build http URLs to the fake.
+    UPLOADTHING_UFS_HOST: `localhost:${ports.uploads}`,
+    UPLOADTHING_UFS_APP_ID_LOCATION: "path",
     UPLOADTHING_FAKE_PORT: String(ports.uploads),
-    UPLOADTHING_FILE_BASE_URL: `http://127.0.0.1:${ports.uploads}/f`,
+    UPLOADTHING_FILE_BASE_URL: `http://localhost:${ports.uploads}/f`,
     ...extra,
   };
 }
@@ -99,12 +100,29 @@ export async function startStack(opts: {
     await Promise.all(processes.map((p) => (p.exitCode === null ? new Promise((r) => p.once("exit", r)) : null)));
   };
   try {
-    await waitForHttp(`http://127.0.0.1:${opts.ports.stripe}/_fake/events`, 60_000);
+    await waitForHttp(`http://127.0.0.1:${opts.ports.stripe}/health`, 60_000);
+    await waitForHttp(`http://127.0.0.1:${opts.ports.uploads}/health`, 30_000);
     await waitForHttp(`http://127.0.0.1:${opts.ports.app}/sign-in`, 90_000);
+    await loadSeedProcessorRecords(opts.dataDir, opts.ports.stripe);
   } catch (e) {
     const tails = processes.map((p) => ((p as ChildProcess & { tail?: string[] }).tail ?? []).join("\n")).join("\n---\n");
     await stop();
     throw new Error(`${e instanceof Error ? e.message : String(e)}\n${tails}`);
   }
   return { baseUrl: env.APP_URL!, env, processes, stop };
+}
+
+/** Give the payment fake the processor's side of freshly seeded payments, once per seed. */
+async function loadSeedProcessorRecords(dataDir: string, stripePort: number) {
+  const file = path.join(dataDir, "seed-processor-records.json");
+  if (!existsSync(file)) return;
+  const records = JSON.parse(readFileSync(file, "utf8")) as SeedProcessorRecord[];
+  await fetch(`http://127.0.0.1:${stripePort}/_fake/reset`, { method: "POST" });
+  const res = await fetch(`http://127.0.0.1:${stripePort}/_fake/objects`, {
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body: JSON.stringify(processorObjectsFor(records)),
+  });
+  if (!res.ok) throw new Error(`loading the seeded processor records failed: ${res.status} ${await res.text()}`);
+  renameSync(file, `${file}.loaded`);
 }
