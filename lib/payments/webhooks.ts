@@ -1,0 +1,117 @@
+import type Stripe from "stripe";
+import { and, eq, ne } from "drizzle-orm";
+import type { Db } from "../../db/client";
+import { payments } from "../../db/schema";
+import { writeAudit, type Tx } from "../../db/queries/audit";
+import { getOrderWithRequest, getPayment, getPaymentBySession, markPaymentExpired, markPaymentPaid, recordWebhookEvent, isWebhookEventRecorded } from "../../db/queries/payments";
+import { transitionStage } from "../../db/queries/stages";
+
+/** What happened to one event; written to webhook_events.outcome and the log. */
+export type WebhookOutcome =
+  | "duplicate"
+  | "ignored_type"
+  | "unknown_session"
+  | "not_paid_yet"
+  | "amount_mismatch"
+  | "paid"
+  | "paid_stage_moved"
+  | "already_paid"
+  | "expired"
+  | "expired_noop";
+
+export interface WebhookResult {
+  outcome: WebhookOutcome;
+  /** Set when this event newly recorded a payment: the caller sends the e-mail after commit. */
+  paidPaymentId?: string;
+}
+
+const HANDLED = new Set(["checkout.session.completed", "checkout.session.async_payment_succeeded", "checkout.session.expired"]);
+
+class DuplicateEvent extends Error {}
+
+/** Our payment for a session: by session id, else by the ids we put in its metadata. */
+async function findPaymentForSession(tx: Db | Tx, session: Stripe.Checkout.Session) {
+  const bySession = await getPaymentBySession(tx, session.id);
+  if (bySession) return bySession;
+  // The session's webhook can arrive before the app stored the session id on the payment.
+  const pid = session.metadata?.paymentId ?? session.client_reference_id ?? null;
+  if (!pid) return null;
+  const p = await getPayment(tx, pid);
+  if (!p) return null;
+  if (p.checkoutSessionId && p.checkoutSessionId !== session.id) return null;
+  return p;
+}
+
+async function onCompleted(tx: Tx, session: Stripe.Checkout.Session, now: Date): Promise<WebhookResult> {
+  const payment = await findPaymentForSession(tx, session);
+  if (!payment) return { outcome: "unknown_session" };
+  if (session.payment_status !== "paid") return { outcome: "not_paid_yet" };
+  if (session.amount_total !== payment.amountCents || (session.currency ?? "").toLowerCase() !== payment.currency.toLowerCase()) {
+    await writeAudit(tx, {
+      actorId: null,
+      action: "payment.amount_mismatch",
+      entityType: "payment",
+      entityId: payment.id,
+      orgId: payment.orgId,
+      before: { amountCents: payment.amountCents, currency: payment.currency },
+      after: { amountTotal: session.amount_total, currency: session.currency, session: session.id },
+    });
+    return { outcome: "amount_mismatch" };
+  }
+  const paymentIntentId = typeof session.payment_intent === "string" ? session.payment_intent : (session.payment_intent?.id ?? null);
+  const changed = await markPaymentPaid(tx, payment.id, { checkoutSessionId: session.id, paymentIntentId, paidAt: now });
+  if (!changed) return { outcome: "already_paid" };
+  // A newer checkout opened for the same amount (after this one seemed abandoned) is now moot.
+  await tx
+    .update(payments)
+    .set({ status: "expired", checkoutUrl: null })
+    .where(and(eq(payments.orderId, payment.orderId), eq(payments.kind, payment.kind), eq(payments.status, "pending"), ne(payments.id, payment.id)));
+  await writeAudit(tx, {
+    actorId: null,
+    action: "payment.paid",
+    entityType: "payment",
+    entityId: payment.id,
+    orgId: payment.orgId,
+    after: { kind: payment.kind, amountCents: payment.amountCents, session: session.id, paymentIntentId },
+  });
+  if (payment.kind === "deposit") {
+    const row = await getOrderWithRequest(tx, payment.orderId);
+    if (row && row.request.stage === "accepted") {
+      await transitionStage(tx, { requestId: row.request.id, to: "deposit_paid", actorId: null, note: "Deposit received", expectedFrom: "accepted" });
+      return { outcome: "paid_stage_moved", paidPaymentId: payment.id };
+    }
+  }
+  return { outcome: "paid", paidPaymentId: payment.id };
+}
+
+async function onExpired(tx: Tx, session: Stripe.Checkout.Session): Promise<WebhookResult> {
+  const payment = await findPaymentForSession(tx, session);
+  if (!payment) return { outcome: "unknown_session" };
+  // Guarded: a payment already paid (a completed event came first) stays paid.
+  return { outcome: (await markPaymentExpired(tx, payment.id)) ? "expired" : "expired_noop" };
+}
+
+/**
+ * Apply one verified Stripe event, at most once: the handler's writes and the event id commit
+ * in one transaction, so a replay (same event id) or a second event for the same session changes
+ * nothing. Unknown types and unknown sessions write nothing and are answered 200 by the route.
+ */
+export async function handleStripeEvent(db: Db, event: Stripe.Event, now: Date = new Date()): Promise<WebhookResult> {
+  if (!HANDLED.has(event.type)) return { outcome: "ignored_type" };
+  if (await isWebhookEventRecorded(db, event.id)) return { outcome: "duplicate" };
+  try {
+    return await db.transaction(async (tx) => {
+      const session = event.data.object as Stripe.Checkout.Session;
+      const result = event.type === "checkout.session.expired" ? await onExpired(tx, session) : await onCompleted(tx, session, now);
+      if (result.outcome === "unknown_session") {
+        // No write at all: roll back (nothing was written) and tell the route.
+        return result;
+      }
+      if (!(await recordWebhookEvent(tx, { id: event.id, type: event.type, outcome: result.outcome }))) throw new DuplicateEvent();
+      return result;
+    });
+  } catch (e) {
+    if (e instanceof DuplicateEvent) return { outcome: "duplicate" };
+    throw e;
+  }
+}
