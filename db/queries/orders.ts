@@ -1,6 +1,6 @@
 import { and, asc, desc, eq, gt, inArray, lt, sql } from "drizzle-orm";
 import type { Db } from "../client";
-import { analyses, fileRevisions, orders, organisations, parts, payments, requests, scheduleBlocks, stageEvents, users } from "../schema";
+import { analyses, documents, fileRevisions, uploads, orders, organisations, parts, payments, requests, scheduleBlocks, stageEvents, users } from "../schema";
 import type { Tx } from "./audit";
 
 /** Orders on the production board: accepted and later, held orders included. */
@@ -152,4 +152,22 @@ export async function listOrdersWithActuals(db: Db) {
     .from(orders)
     .innerJoin(requests, eq(requests.id, orders.requestId))
     .where(sql`${orders.actualPrintHours} is not null or ${orders.actualMaterialKg} is not null or ${orders.actualMachiningHours} is not null`);
+}
+
+/** File an uploaded inspection report with the request's documents; false when the upload is unknown. */
+export async function attachInspectionReport(tx: Tx, input: { uploadId: string; requestId: string; orgId: string; userId: string }) {
+  const [up] = await tx.select().from(uploads).where(and(eq(uploads.id, input.uploadId), eq(uploads.purpose, "inspection_report")));
+  if (!up) return false;
+  await tx.insert(documents).values({
+    requestId: input.requestId,
+    orgId: input.orgId,
+    kind: "inspection_report",
+    title: `Inspection report — ${up.fileName}`,
+    fileKey: up.fileKey,
+    fileName: up.fileName,
+    sizeBytes: up.sizeBytes,
+    contentType: up.contentType,
+    uploadedById: input.userId,
+  });
+  return true;
 }

@@ -1,0 +1,122 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import { getDb } from "@/db/client";
+import { writeAudit } from "@/db/queries/audit";
+import { getCurrentRateCard } from "@/db/queries/catalogue";
+import { createDraftQuote, createStaffMessage, getQuote, getRequestForSales, hasOrder, markIssued, updateDraftQuote } from "@/db/queries/quotes";
+import { transitionStage } from "@/db/queries/stages";
+import { requirePermission } from "@/lib/auth/guard";
+import { notifyQuoteReady } from "@/lib/email/notify";
+import { AppError, toActionError, type ActionResult } from "@/lib/errors";
+import { checkLines, quoteTotals, validUntil } from "@/lib/quoting/lines";
+import { saveQuoteSchema, staffMessageSchema, type SaveQuoteInput } from "@/lib/validation/admin-quotes";
+
+const QUOTABLE = new Set(["submitted", "quoted"]);
+
+/**
+ * Save a quote draft (a new version, or the draft being edited) and, with `issue`, issue it:
+ * the earlier versions become superseded, the request moves to quoted and the client is e-mailed.
+ * Issuing is refused when a part's analysis is newer than the lines (a new file revision).
+ */
+export async function saveQuote(raw: SaveQuoteInput): Promise<ActionResult<{ quoteId: string; version: number; status: "draft" | "issued" }>> {
+  try {
+    const parsed = saveQuoteSchema.safeParse(raw);
+    if (!parsed.success) throw new AppError("invalid_input", "Check the highlighted fields.", parsed.error.flatten().fieldErrors as Record<string, string[]>);
+    const input = parsed.data;
+    const user = await requirePermission("quote:manage");
+    const db = getDb();
+
+    const sales = await getRequestForSales(db, input.requestId);
+    if (!sales) throw new AppError("not_found:request", "That request was not found.");
+    if (!QUOTABLE.has(sales.request.stage)) throw new AppError("conflict:stage", `The request is ${sales.request.stage.replace("_", " ")}; it can not be quoted now.`);
+    if (await hasOrder(db, input.requestId)) throw new AppError("conflict:order", "This request already has an order; it can not be re-quoted.");
+
+    const problems = checkLines(input.lines);
+    if (problems.length) {
+      const fieldErrors: Record<string, string[]> = {};
+      for (const p of problems) (fieldErrors[p.index < 0 ? "lines" : `lines.${p.index}`] ??= []).push(p.message);
+      throw new AppError("invalid_input", problems[0]!.message, fieldErrors);
+    }
+    const totals = quoteTotals(input.lines, { marginBp: input.marginBp, taxBp: input.taxBp, depositBp: input.depositBp });
+
+    const draft = input.quoteId ? await getQuote(db, input.quoteId) : null;
+    if (input.quoteId && (!draft || draft.requestId !== input.requestId)) throw new AppError("not_found:quote", "That quote was not found.");
+    if (draft && draft.status !== "draft") throw new AppError("conflict:quote", `Version ${draft.version} is already ${draft.status}; start a new version.`);
+
+    if (input.issue) {
+      if (draft?.isStale) throw new AppError("conflict:stale", "A part has a new file revision since this draft was made; start a new version from the fresh analysis.");
+      for (const part of sales.parts) {
+        const a = part.analysis;
+        if (!a || a.status !== "done") throw new AppError("conflict:analysis", `The analysis of “${part.name}” is not finished; a quote can not be issued on it yet.`);
+        const newer = !input.basisAnalysisIds.includes(a.id) || (draft !== null && a.createdAt > draft.createdAt);
+        if (newer) throw new AppError("conflict:stale", `“${part.name}” has a newer analysis than this quote's lines; reload the editor to quote the current revision.`);
+      }
+    }
+
+    const rateCard = await getCurrentRateCard(db);
+    const now = new Date();
+    const write = {
+      lines: input.lines,
+      totals: { subtotalCents: totals.subtotalCents, marginCents: totals.marginCents, taxCents: totals.taxCents, totalCents: totals.totalCents, depositCents: totals.depositCents },
+      marginBp: input.marginBp,
+      taxBp: input.taxBp,
+      depositBp: input.depositBp,
+      validityDays: input.validityDays,
+      terms: input.terms,
+      notes: input.notes,
+      shipDate: input.shipDate ? new Date(`${input.shipDate}T00:00:00Z`) : null,
+      rateCardId: draft?.rateCardId ?? rateCard?.id ?? null,
+    };
+
+    const result = await db.transaction(async (tx) => {
+      const q = draft ? { id: draft.id, version: draft.version } : await createDraftQuote(tx, input.requestId, user.id, write);
+      if (draft) await updateDraftQuote(tx, draft.id, write);
+      await writeAudit(tx, {
+        actorId: user.id,
+        action: draft ? "quote.update" : "quote.create",
+        entityType: "quote",
+        entityId: q.id,
+        orgId: sales.request.orgId,
+        after: { version: q.version, ...write.totals, lines: input.lines.length, edited: input.lines.filter((l) => l.editReason).map((l) => ({ description: l.description, reason: l.editReason })) },
+      });
+      if (!input.issue) return { quoteId: q.id, version: q.version, status: "draft" as const };
+      const ok = await markIssued(tx, q.id, input.requestId, user.id, now, validUntil(now, input.validityDays));
+      if (!ok) throw new AppError("conflict:quote", "This version was issued meanwhile; reload.");
+      await transitionStage(tx, { requestId: input.requestId, to: "quoted", actorId: user.id, note: `Quote version ${q.version} issued` });
+      await writeAudit(tx, { actorId: user.id, action: "quote.issue", entityType: "quote", entityId: q.id, orgId: sales.request.orgId, after: { version: q.version, totalCents: totals.totalCents, validityDays: input.validityDays } });
+      return { quoteId: q.id, version: q.version, status: "issued" as const };
+    });
+
+    if (result.status === "issued") {
+      // The quote stands even if the e-mail fails; the outbox shows what went out.
+      await notifyQuoteReady(result.quoteId).catch((e: unknown) => console.error("quote-ready e-mail failed", e));
+    }
+    revalidatePath(`/admin/sales/requests/${input.requestId}`);
+    revalidatePath("/admin/sales");
+    return { ok: true, data: result };
+  } catch (e) {
+    return toActionError(e);
+  }
+}
+
+/** A staff message to the client on a request. */
+export async function postStaffMessage(raw: { requestId: string; body: string }): Promise<ActionResult<{ id: string }>> {
+  try {
+    const parsed = staffMessageSchema.safeParse(raw);
+    if (!parsed.success) throw new AppError("invalid_input", "Write a message.", parsed.error.flatten().fieldErrors as Record<string, string[]>);
+    const user = await requirePermission("quote:manage");
+    const db = getDb();
+    const sales = await getRequestForSales(db, parsed.data.requestId);
+    if (!sales) throw new AppError("not_found:request", "That request was not found.");
+    const m = await db.transaction(async (tx) => {
+      const row = await createStaffMessage(tx, { requestId: parsed.data.requestId, orgId: sales.request.orgId, authorId: user.id, body: parsed.data.body });
+      await writeAudit(tx, { actorId: user.id, action: "message.post", entityType: "request", entityId: parsed.data.requestId, orgId: sales.request.orgId, after: { messageId: row.id, length: parsed.data.body.length } });
+      return row;
+    });
+    revalidatePath(`/admin/sales/requests/${parsed.data.requestId}`);
+    return { ok: true, data: { id: m.id } };
+  } catch (e) {
+    return toActionError(e);
+  }
+}
