@@ -14,7 +14,7 @@ const input = (bytes: Uint8Array, fileName = "part.stl"): AnalyseInput => ({
 });
 
 beforeAll(() => {
-  execFileSync(process.execPath, [path.join(root, "node_modules/tsx/dist/cli.mjs"), path.join(root, "scripts/build-worker.ts")], { cwd: root, stdio: "pipe" });
+  execFileSync(process.execPath, [path.join(root, "node_modules/tsx/dist/cli.mjs"), path.join(root, "lib/scripts/build-worker.ts")], { cwd: root, stdio: "pipe" });
 }, 60_000);
 
 describe("estimate pool (worker threads)", () => {

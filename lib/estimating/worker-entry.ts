@@ -2,7 +2,7 @@ import { parentPort } from "node:worker_threads";
 import { analyse, type AnalyseInput } from "./analyse";
 
 /**
- * Worker-thread entry of the estimate pool. Bundled on its own by scripts/build-worker.ts into
+ * Worker-thread entry of the estimate pool. Bundled on its own by lib/scripts/build-worker.ts into
  * .worker/estimate-worker.mjs (the app's bundler never sees it). Messages:
  * in  { id, input }; out { id, type: "progress", fraction, stage } | { id, type: "result", result }
  * | { id, type: "error", error: { name, code, message } }.

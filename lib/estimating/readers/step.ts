@@ -30,7 +30,7 @@ export const MIN_TOLERANCE_MM = 0.001;
 export const MAX_TOLERANCE_MM = 0.5;
 export const ANGULAR_DEFLECTION_RAD = 0.2;
 /** Largest file accepted, bytes. The kernel's WASM heap is capped at 2 GiB by its build; a
- * synthetic 9.6 MB STEP assembly grew it by about 4.4 MB per MB of file (scripts/bench-step.ts
+ * synthetic 9.6 MB STEP assembly grew it by about 4.4 MB per MB of file (lib/estimating/bench-step.ts
  * --copies 500), so 150 MB stays near 0.7 GB of heap. Time, not memory, is the tighter bound on
  * big assemblies (about 70 ms a body there): the worker pool's time limit covers it. */
 export const MAX_CAD_FILE_BYTES = 150 * 1024 * 1024;

@@ -1,11 +1,11 @@
 import { spawnSync } from "node:child_process";
 import { mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import path from "node:path";
-import { benchPattern, binaryStl } from "../mocks/fixtures/meshes";
-import { readBinaryStl } from "../lib/estimating/readers/stl";
-import { bounds, volumeAndArea } from "../lib/estimating/measure";
-import { analyse } from "../lib/estimating/analyse";
-import { defaultCells, defaultMaterials, defaultRateCard } from "../lib/estimating/defaults";
+import { benchPattern, binaryStl } from "../../mocks/fixtures/meshes";
+import { readBinaryStl } from "./readers/stl";
+import { bounds, volumeAndArea } from "./measure";
+import { analyse } from "./analyse";
+import { defaultCells, defaultMaterials, defaultRateCard } from "./defaults";
 
 /**
  * npm run bench: a ~1,000,000-triangle binary STL of a part-like shape (a 2.0 × 1.2 m pattern,
@@ -15,7 +15,7 @@ import { defaultCells, defaultMaterials, defaultRateCard } from "../lib/estimati
  * read + volume/area ≤ 2 × admesh, peak memory < 4 × file size.
  */
 const RUNS = Number(process.env.BENCH_RUNS ?? 5);
-const out = path.resolve(import.meta.dirname, "..", "bench-out");
+const out = path.resolve(import.meta.dirname, "../..", "bench-out");
 const file = path.join(out, "pattern-1m.stl");
 const median = (xs: number[]) => { const s = [...xs].sort((a, b) => a - b); return s[Math.floor(s.length / 2)]!; };
 

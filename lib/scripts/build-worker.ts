@@ -5,7 +5,7 @@ import path from "node:path";
  * Bundles the estimate worker into one standalone ES module, .worker/estimate-worker.mjs, which
  * lib/estimating/pool.ts starts in worker threads (the app's own bundler never sees it).
  */
-const root = path.resolve(import.meta.dirname, "..");
+const root = path.resolve(import.meta.dirname, "../..");
 const outfile = path.join(root, ".worker", "estimate-worker.mjs");
 await build({
   entryPoints: [path.join(root, "lib/estimating/worker-entry.ts")],

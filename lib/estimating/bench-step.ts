@@ -7,14 +7,14 @@
  *    analyse(), with the seed catalogue);
  *  - peak memory: process peak RSS and the kernel's WASM heap (it never shrinks, so the value
  *    after the runs is its peak).
- * Usage: npx tsx scripts/bench-step.ts [--runs N] [--file PATH | --copies N] [--json]
+ * Usage: npx tsx lib/estimating/bench-step.ts [--runs N] [--file PATH | --copies N] [--json]
  * (--copies N: a synthetic assembly of N cubes, about 19 kB each, for heap growth per MB of file.)
  */
 import { execFileSync } from "node:child_process";
 import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import path from "node:path";
-import { readStepOrIges, warmStepKernel } from "../lib/estimating/readers/step";
+import { readStepOrIges, warmStepKernel } from "./readers/step";
 
 const args = process.argv.slice(2);
 const flag = (name: string) => {
@@ -23,7 +23,7 @@ const flag = (name: string) => {
 };
 const runs = Math.max(1, Number(flag("--runs") ?? 7));
 const asJson = args.includes("--json");
-const root = path.resolve(import.meta.dirname, "..");
+const root = path.resolve(import.meta.dirname, "../..");
 const copies = Number(flag("--copies") ?? 0);
 const filePath = path.resolve(flag("--file") ?? path.join(root, "mocks/fixtures/cad/as1-oc-214.stp"));
 const format = /\.(igs|iges)$/i.test(filePath) ? "iges" : "step";
@@ -83,8 +83,8 @@ const fine = await timeRuns(async () => {
 let analyseMs: number[] | null = null;
 let analyseError: string | null = null;
 try {
-  const { analyse } = await import("../lib/estimating/analyse");
-  const { defaultCells, defaultMaterials, defaultRateCard } = await import("../lib/estimating/defaults");
+  const { analyse } = await import("./analyse");
+  const { defaultCells, defaultMaterials, defaultRateCard } = await import("./defaults");
   const input = {
     bytes,
     fileName: path.basename(filePath),
