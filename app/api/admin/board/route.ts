@@ -1,0 +1,12 @@
+import { NextResponse } from "next/server";
+import { getDb } from "@/db/client";
+import { listBoard } from "@/db/queries/orders";
+import { requirePermission } from "@/lib/auth/guard";
+import { withErrors } from "@/lib/auth/route";
+
+export const dynamic = "force-dynamic";
+
+export const GET = withErrors(async () => {
+  await requirePermission("production:board");
+  return NextResponse.json({ rows: await listBoard(getDb()) });
+});

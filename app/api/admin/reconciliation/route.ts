@@ -1,0 +1,40 @@
+import { NextResponse } from "next/server";
+import { getDb } from "@/db/client";
+import { ledgerForPeriod, listRefundsForPayments } from "@/db/queries/ledger";
+import { requirePermission } from "@/lib/auth/guard";
+import { withErrors } from "@/lib/auth/route";
+import { AppError } from "@/lib/errors";
+import { listProcessorRecords } from "@/lib/payments/stripe";
+import { fromProcessor } from "@/lib/reconciliation/from-processor";
+import { reconcile, summarise } from "@/lib/reconciliation/match";
+import { periodBounds, periodSchema } from "@/lib/validation/admin-accounts";
+
+export const dynamic = "force-dynamic";
+
+/**
+ * Our ledger for a period against the processor's charges, payment intents, balance
+ * transactions and refunds for the same period: matched, missing either side, amount mismatches.
+ */
+export const GET = withErrors(async (req: Request) => {
+  await requirePermission("accounts:ledger");
+  const period = periodSchema.parse(Object.fromEntries(new URL(req.url).searchParams));
+  const range = periodBounds(period);
+  const db = getDb();
+  const ledger = await ledgerForPeriod(db, range.from, range.to);
+  const refunds = await listRefundsForPayments(db, ledger.payments.map((p) => p.id));
+  let processor;
+  try {
+    processor = fromProcessor(await listProcessorRecords(range));
+  } catch (e) {
+    if (e instanceof RangeError) throw new AppError("invalid_input:period", e.message);
+    console.error(e);
+    throw new AppError("unavailable:processor", "The payment processor did not answer; try again in a moment.");
+  }
+  const findings = reconcile({ payments: ledger.payments, refunds, ...processor });
+  const refs = new Map(ledger.payments.map((p) => [p.id, { reference: p.reference, firmName: p.firmName, kind: p.kind }]));
+  return NextResponse.json({
+    period,
+    summary: summarise(findings),
+    findings: findings.map((f) => ({ ...f, ...(f.paymentId ? (refs.get(f.paymentId) ?? {}) : {}) })),
+  });
+});

@@ -1,0 +1,14 @@
+import { NextResponse } from "next/server";
+import { getDb } from "@/db/client";
+import { listPendingStaffInvitations, listStaff } from "@/db/queries/staff";
+import { requirePermission } from "@/lib/auth/guard";
+import { withErrors } from "@/lib/auth/route";
+
+export const dynamic = "force-dynamic";
+
+export const GET = withErrors(async () => {
+  await requirePermission("admin:staff");
+  const db = getDb();
+  const [rows, invitations] = await Promise.all([listStaff(db), listPendingStaffInvitations(db)]);
+  return NextResponse.json({ rows, invitations });
+});
