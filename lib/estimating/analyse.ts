@@ -30,6 +30,8 @@ export interface AnalyseOptions {
   weldToleranceMm?: number;
   /** STEP/IGES tessellation tolerance, mm. */
   toleranceMm?: number;
+  /** STEP/IGES: indices of the bodies to print; all when absent. */
+  bodies?: number[];
 }
 
 export interface AnalyseInput {
@@ -76,7 +78,7 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
   if (!Number.isInteger(quantity) || quantity < 1 || quantity > 1000) bad("option:quantity", "The quantity must be a whole number from 1 to 1000.");
 
   onProgress(0.02, "reading");
-  const read = await readModel(input.bytes, input.fileName, { units: o.units, toleranceMm: o.toleranceMm });
+  const read = await readModel(input.bytes, input.fileName, { units: o.units, toleranceMm: o.toleranceMm, bodies: o.bodies });
   const mesh = read.mesh;
   if (read.unitsGuessed) warnings.push({ code: "units-guessed", message: read.unitsReason });
 
@@ -232,6 +234,7 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
     units: read.units,
     unitsGuessed: read.unitsGuessed,
     unitsReason: read.unitsReason,
+    ...(read.cad ? { toleranceMm: read.cad.toleranceMm, cad: read.cad } : {}),
     bboxMm: netSize.map(r4) as [number, number, number],
     bboxMinMm: m.bounds.min.map(r4) as [number, number, number],
     volumeMm3: volume,

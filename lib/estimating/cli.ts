@@ -8,10 +8,11 @@ import type { CellParams, EstimateResult, MaterialParams, RateCardParams } from 
 
 /**
  * npm run estimate -- FILE [--units mm|in] [--material KEY] [--allowance MM] [--cell KEY]
- *   [--shell-walls N] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--json]
+ *   [--shell-walls N] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--tolerance MM] [--bodies 0,2,…] [--json]
+ *   (--tolerance and --bodies apply to STEP/IGES files)
  * Exit 0 on success, 2 on a bad file or option (one plain line on stderr), 1 on anything else.
  */
-const USAGE = "usage: npm run estimate -- FILE [--units mm|in] [--material KEY] [--allowance MM] [--cell KEY] [--shell-walls N] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--json]";
+const USAGE = "usage: npm run estimate -- FILE [--units mm|in] [--material KEY] [--allowance MM] [--cell KEY] [--shell-walls N] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--tolerance MM] [--bodies 0,2,…] [--json]";
 
 interface Catalogue { materials: MaterialParams[]; cells: CellParams[]; rateCard: RateCardParams; source: string }
 
@@ -82,6 +83,7 @@ async function main(): Promise<number> {
       options: {
         units: { type: "string" }, material: { type: "string" }, allowance: { type: "string" }, cell: { type: "string" },
         "shell-walls": { type: "string" }, orientation: { type: "string" }, quantity: { type: "string" }, "cure-temp": { type: "string" },
+        tolerance: { type: "string" }, bodies: { type: "string" },
         json: { type: "boolean" }, help: { type: "boolean" },
       },
     });
@@ -105,6 +107,8 @@ async function main(): Promise<number> {
         units: v.units as "mm" | "in" | undefined, materialKey: v.material, allowanceMm: num(v.allowance, "allowance"), cellKey: v.cell,
         shellWalls: num(v["shell-walls"], "shell-walls") ?? null, orientation: v.orientation as "x" | "y" | "z" | undefined,
         quantity: num(v.quantity, "quantity"), cureTempC: num(v["cure-temp"], "cure-temp"),
+        toleranceMm: num(v.tolerance, "tolerance"),
+        bodies: v.bodies === undefined ? undefined : v.bodies.split(",").map((b) => num(b.trim(), "bodies") ?? NaN),
       },
       catalogue: cat, now: new Date(),
     });

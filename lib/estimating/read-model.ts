@@ -13,6 +13,14 @@ export interface ReadModelResult {
   unitsReason: string;
   /** Unit word the file itself declared (3MF, STEP), or null. */
   declaredUnit: string | null;
+  /** STEP/IGES only: tessellation tolerance used and the bodies of the file. */
+  cad?: CadInfo;
+}
+
+export interface CadInfo {
+  toleranceMm: number;
+  sourceUnit: string;
+  bodies: { index: number; name: string; triangleCount: number; sizeMm: number[]; isKept: boolean }[];
 }
 
 /**
@@ -49,7 +57,11 @@ function scale(p: Float32Array, s: number): void {
  * flavour from the content. STEP/IGES are tessellated by `./readers/step` (loaded on demand,
  * it is large). Bad files throw `EstimateInputError`.
  */
-export async function readModel(bytes: Uint8Array, fileName: string, opts: { units?: LengthUnit; toleranceMm?: number } = {}): Promise<ReadModelResult> {
+export async function readModel(
+  bytes: Uint8Array,
+  fileName: string,
+  opts: { units?: LengthUnit; toleranceMm?: number; bodies?: number[] } = {},
+): Promise<ReadModelResult> {
   const ext = extension(fileName);
   if (bytes.length === 0) throw new EstimateInputError("file:empty", "The file is empty.");
   let mesh: Mesh;
@@ -57,9 +69,20 @@ export async function readModel(bytes: Uint8Array, fileName: string, opts: { uni
   if (ext === "step" || ext === "stp" || ext === "igs" || ext === "iges") {
     format = ext === "igs" || ext === "iges" ? "iges" : "step";
     const { readStepOrIges } = await import("./readers/step");
-    const r = await readStepOrIges(bytes, { format, toleranceMm: opts.toleranceMm });
-    const units: LengthUnit = opts.units ?? "mm";
-    return { mesh: r.mesh, format, units, unitsGuessed: false, unitsReason: "The CAD file declares its units; the solid was tessellated in millimetres.", declaredUnit: "millimeter" };
+    const r = await readStepOrIges(bytes, { format, toleranceMm: opts.toleranceMm, bodies: opts.bodies });
+    // The file's own units win; the mesh is already in millimetres. Inches are reported as
+    // inches so the portal shows the client the unit their CAD system used.
+    const units: LengthUnit = r.sourceUnit === "in" ? "in" : "mm";
+    const bodies = r.bodies.map((b) => ({ index: b.index, name: b.name, triangleCount: b.triangleCount, sizeMm: [...b.sizeMm], isKept: b.isKept }));
+    return {
+      mesh: r.mesh,
+      format,
+      units,
+      unitsGuessed: false,
+      unitsReason: `The ${format.toUpperCase()} file declares its length unit (${r.sourceUnit}); it was tessellated in millimetres at a tolerance of ${round(r.toleranceMm * 1000) / 1000} mm.`,
+      declaredUnit: r.sourceUnit,
+      cad: { toleranceMm: r.toleranceMm, sourceUnit: r.sourceUnit, bodies },
+    };
   }
   if (ext === "3mf") {
     const r = read3mf(bytes);

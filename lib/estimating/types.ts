@@ -187,6 +187,14 @@ export interface EstimateResult {
   units: LengthUnit;
   unitsGuessed: boolean;
   unitsReason: string;
+  /** STEP/IGES: the tessellation tolerance used, mm. */
+  toleranceMm?: number;
+  /** STEP/IGES: the file's unit and bodies (index, name, triangles, size, kept). */
+  cad?: {
+    toleranceMm: number;
+    sourceUnit: string;
+    bodies: { index: number; name: string; triangleCount: number; sizeMm: number[]; isKept: boolean }[];
+  };
   bboxMm: [number, number, number];
   bboxMinMm: [number, number, number];
   volumeMm3: number;
