@@ -2,11 +2,12 @@ import type { AnalyseOptions } from "../estimating/analyse";
 
 /** Engine options for one part of one request (units, material, allowance, print mode…). */
 export function analysisOptionsFor(
-  part: { units: "mm" | "in"; materialKey: string; allowanceMm: number; quantity: number; printMode: "solid" | "shell"; shellWalls: number; cellKey: string | null },
+  part: { units: "mm" | "in"; unitsConfirmed: boolean; materialKey: string; allowanceMm: number; quantity: number; printMode: "solid" | "shell"; shellWalls: number; cellKey: string | null },
   request: { cureTempC: number | null; partCtePpmPerK: number | null },
 ): AnalyseOptions {
   return {
-    units: part.units,
+    // Until the client confirms the units, the engine guesses them from the size.
+    ...(part.unitsConfirmed ? { units: part.units } : {}),
     materialKey: part.materialKey,
     allowanceMm: part.allowanceMm,
     quantity: part.quantity,

@@ -1,0 +1,120 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import { getDb } from "@/db/client";
+import { writeAudit } from "@/db/queries/audit";
+import { acceptQuoteAndCreateOrder, getLatestIssuedVersion, getQuoteWithRequest } from "@/db/queries/client-quotes";
+import { createDocument } from "@/db/queries/documents";
+import { getUploadOwned } from "@/db/queries/files";
+import { createMessage, getMessage } from "@/db/queries/messages";
+import { getOrderWithRequest } from "@/db/queries/payments";
+import { getRequest } from "@/db/queries/requests";
+import { transitionStage } from "@/db/queries/stages";
+import { assertCanSee, requirePermission } from "@/lib/auth/guard";
+import { env } from "@/lib/env";
+import { AppError, toActionError, type ActionResult } from "@/lib/errors";
+import { openCheckout, type CheckoutResult } from "@/lib/payments/checkout";
+import { splitDeposit } from "@/lib/payments/deposit";
+import { acceptQuoteSchema, messageSchema, type AcceptQuoteInput } from "@/lib/validation/request";
+
+const dateText = (d: Date) => d.toISOString().slice(0, 10);
+
+/**
+ * Accept an issued quote with a PO number and the terms: the order is made and the deposit's
+ * Checkout Session opened; the browser goes to its URL. Expired, superseded or stale quotes are refused.
+ */
+export async function acceptQuote(input: AcceptQuoteInput): Promise<ActionResult<CheckoutResult & { orderId: string }>> {
+  const parsed = acceptQuoteSchema.safeParse(input);
+  if (!parsed.success) {
+    const fe: Record<string, string[]> = {};
+    for (const i of parsed.error.issues) (fe[i.path.join(".")] ??= []).push(i.message);
+    return { ok: false, code: "invalid_input", message: "Check the highlighted fields.", fieldErrors: fe };
+  }
+  try {
+    const user = await requirePermission("quote:accept");
+    const db = getDb();
+    const row = await getQuoteWithRequest(db, parsed.data.quoteId);
+    assertCanSee(user, row ? { orgId: row.request.orgId, createdById: row.request.createdById } : null, "quote");
+    const { quote, request } = row!;
+    const now = new Date();
+    if (quote.status === "accepted") throw new AppError("conflict:quote", "This quote is already accepted.");
+    if (quote.status === "superseded") throw new AppError("conflict:quote", "A newer version of this quote replaces it; review the latest version.");
+    if (quote.status === "expired" || (quote.validUntil && quote.validUntil.getTime() < now.getTime())) {
+      throw new AppError("conflict:quote", `This quote expired${quote.validUntil ? ` on ${dateText(quote.validUntil)}` : ""}. Ask us for a fresh quote from the messages below.`);
+    }
+    if (quote.status !== "issued") throw new AppError("conflict:quote", "This quote cannot be accepted.");
+    if (quote.isStale) throw new AppError("conflict:quote", "A part's file changed after this quote was made; our sales engineers will re-quote.");
+    if ((await getLatestIssuedVersion(db, request.id)) !== quote.version) throw new AppError("conflict:quote", "A newer version of this quote replaces it; review the latest version.");
+    if (request.stage !== "quoted") throw new AppError("conflict:stage", "This request is not waiting for a quote to be accepted.");
+
+    const split = splitDeposit(quote.totalCents, quote.depositBp);
+    const order = await db.transaction(async (tx) => {
+      const o = await acceptQuoteAndCreateOrder(tx, {
+        quoteId: quote.id,
+        requestId: request.id,
+        orgId: request.orgId,
+        acceptedById: user.id,
+        poNumber: parsed.data.poNumber,
+        totalCents: quote.totalCents,
+        depositCents: quote.depositCents > 0 ? quote.depositCents : split.depositCents,
+        balanceCents: quote.totalCents - (quote.depositCents > 0 ? quote.depositCents : split.depositCents),
+        currency: quote.currency,
+        now,
+      });
+      if (!o) throw new AppError("conflict:quote", "This quote changed meanwhile; reload the page.");
+      await transitionStage(tx, { requestId: request.id, to: "accepted", actorId: user.id, note: `Quote v${quote.version} accepted, PO ${parsed.data.poNumber}`, expectedFrom: "quoted" });
+      await writeAudit(tx, { actorId: user.id, action: "quote.accept", entityType: "quote", entityId: quote.id, orgId: request.orgId, after: { poNumber: parsed.data.poNumber, totalCents: quote.totalCents } });
+      return o;
+    });
+    const checkout = await openCheckout(db, { orderId: order.id, kind: "deposit", userId: user.id, email: user.email, appUrl: env().APP_URL }).catch((e: unknown) => {
+      // The acceptance stands; the deposit can be paid from the order page.
+      console.error("checkout after acceptance failed", e);
+      return { url: null, isComplete: false };
+    });
+    revalidatePath(`/portal/requests/${request.id}`);
+    return { ok: true, data: { ...checkout, orderId: order.id } };
+  } catch (e) {
+    return toActionError(e);
+  }
+}
+
+/** Open (or reopen) the Checkout Session for an order's deposit or balance. */
+export async function payOrder(input: { orderId: string; kind: "deposit" | "balance" }): Promise<ActionResult<CheckoutResult>> {
+  try {
+    const user = await requirePermission("payment:pay");
+    if (input.kind !== "deposit" && input.kind !== "balance") throw new AppError("invalid_input", "Unknown payment kind.");
+    const db = getDb();
+    const row = await getOrderWithRequest(db, String(input.orderId));
+    assertCanSee(user, row ? { orgId: row.request.orgId, createdById: row.request.createdById } : null, "order");
+    const result = await openCheckout(db, { orderId: row!.order.id, kind: input.kind, userId: user.id, email: user.email, appUrl: env().APP_URL });
+    return { ok: true, data: result };
+  } catch (e) {
+    return toActionError(e);
+  }
+}
+
+/** Post a message (or a reply) on a request, with up to four uploaded attachments. */
+export async function postMessage(input: { requestId: string; parentId?: string; body: string; uploadIds?: string[] }): Promise<ActionResult<{ id: string }>> {
+  const parsed = messageSchema.safeParse(input);
+  if (!parsed.success) return { ok: false, code: "invalid_input", message: parsed.error.issues[0]?.message ?? "Check the message.", fieldErrors: { body: parsed.error.issues.map((i) => i.message) } };
+  try {
+    const user = await requirePermission("message:post");
+    const db = getDb();
+    const req = await getRequest(db, parsed.data.requestId);
+    assertCanSee(user, req ? { orgId: req.orgId, createdById: req.createdById } : null, "request");
+    if (parsed.data.parentId) {
+      const parent = await getMessage(db, parsed.data.parentId);
+      if (!parent || parent.requestId !== req!.id) throw new AppError("not_found:message", "The message you replied to was not found.");
+    }
+    const msg = await createMessage(db, { requestId: req!.id, orgId: req!.orgId, authorId: user.id, parentId: parsed.data.parentId ?? null, isFromStaff: false, body: parsed.data.body });
+    for (const uploadId of parsed.data.uploadIds) {
+      const up = await getUploadOwned(db, uploadId, user.id);
+      if (!up) continue;
+      await createDocument(db, { requestId: req!.id, orgId: req!.orgId, messageId: msg.id, kind: "attachment", title: up.fileName, fileKey: up.fileKey, fileName: up.fileName, sizeBytes: up.sizeBytes, contentType: up.contentType, uploadedById: user.id });
+    }
+    revalidatePath(`/portal/requests/${req!.id}`);
+    return { ok: true, data: msg };
+  } catch (e) {
+    return toActionError(e);
+  }
+}
