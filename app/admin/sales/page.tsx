@@ -1,0 +1,22 @@
+import type { Metadata } from "next";
+import { InboxTable } from "@/components/admin/inbox-table";
+import { ButtonLink } from "@/components/ui/button";
+import { PageHeader } from "@/components/ui/card";
+import { pagePermission } from "@/lib/auth/page-guard";
+
+export const metadata: Metadata = { title: "Sales inbox" };
+export const dynamic = "force-dynamic";
+
+export default async function SalesInboxPage() {
+  await pagePermission("sales:inbox", "/admin/sales");
+  return (
+    <>
+      <PageHeader
+        title="Sales inbox"
+        subtitle="Submitted requests and stale quotes, nearest due date first, then the oldest."
+        actions={<ButtonLink href="/admin/sales/quotes" variant="secondary">Quotes by status</ButtonLink>}
+      />
+      <InboxTable />
+    </>
+  );
+}

@@ -1,0 +1,100 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { AnalysisPanel } from "@/components/admin/analysis-panel";
+import { dateText } from "@/components/admin/format";
+import { MessageThread } from "@/components/admin/message-thread";
+import { QuoteEditor } from "@/components/admin/quote-editor";
+import { StatusBadge } from "@/components/admin/stage-badge";
+import { Alert } from "@/components/ui/alert";
+import { Badge } from "@/components/ui/badge";
+import { Card, CardTitle, PageHeader } from "@/components/ui/card";
+import { getDb } from "@/db/client";
+import { getCurrentRateCard } from "@/db/queries/catalogue";
+import { getRequestForSales, listMessages, listQuoteLines, listQuotesForRequest } from "@/db/queries/quotes";
+import { pagePermission } from "@/lib/auth/page-guard";
+import { formatCents } from "@/lib/money";
+import { linesFromEstimates, type DraftLine, type EstimateCostLine } from "@/lib/quoting/lines";
+
+export const metadata: Metadata = { title: "Request" };
+export const dynamic = "force-dynamic";
+
+export default async function SalesRequestPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  await pagePermission("sales:inbox", `/admin/sales/requests/${id}`);
+  const db = getDb();
+  const sales = await getRequestForSales(db, id);
+  if (!sales) notFound();
+  const { request, parts } = sales;
+  const [quotes, messages, card] = await Promise.all([listQuotesForRequest(db, id), listMessages(db, id), getCurrentRateCard(db)]);
+  const draft = quotes.find((q) => q.status === "draft");
+  const basisAnalysisIds = parts.map((p) => p.analysis?.id).filter((x): x is string => Boolean(x));
+  const estimateLines = linesFromEstimates(
+    parts.filter((p) => p.analysis?.status === "done" && p.analysis.result).map((p) => ({ partId: p.id, partName: p.name, lines: ((p.analysis!.result as { lines?: EstimateCostLine[] }).lines ?? []) })),
+  );
+  const draftLines: DraftLine[] | null = draft
+    ? (await listQuoteLines(db, draft.id)).map((l) => ({ partId: l.partId, kind: l.kind, description: l.description, quantity: l.quantity, unitCents: l.unitCents, amountCents: l.amountCents, estimatedCents: l.estimatedCents, editReason: l.editReason }))
+    : null;
+  const rc = card?.params;
+  const canQuote = request.stage === "submitted" || request.stage === "quoted";
+  const initial = draft
+    ? { lines: draftLines ?? [], marginBp: draft.marginBp, taxBp: draft.taxBp, depositBp: draft.depositBp, validityDays: draft.validityDays, terms: draft.terms, notes: draft.notes, shipDate: draft.shipDate?.toISOString().slice(0, 10) ?? null }
+    : {
+        lines: estimateLines,
+        marginBp: rc?.marginBp ?? 0,
+        taxBp: rc?.taxBp ?? 0,
+        depositBp: rc?.depositBp ?? 5000,
+        validityDays: rc?.quoteValidityDays ?? 30,
+        terms: "Deposit due on acceptance; balance due on shipment. Prices exclude duties. Parts are made to the files supplied; the client's own engineering sign-off governs use.",
+        notes: "",
+        shipDate: (parts[0]?.analysis?.result as { shipDate?: string } | null)?.shipDate ?? null,
+      };
+
+  return (
+    <>
+      <PageHeader
+        title={`${request.reference} · ${request.projectName}`}
+        subtitle={
+          <span className="flex flex-wrap items-center gap-2">
+            {request.firmName} · needed by {dateText(request.neededBy)} · submitted {dateText(request.submittedAt)} · cure {request.cureProcess}
+            {request.cureTempC ? ` at ${request.cureTempC} °C` : ""} <StatusBadge value={request.stage} />
+            {request.isControlled ? <Badge tone="danger">controlled</Badge> : null}
+          </span>
+        }
+      />
+      <div className="grid gap-6 lg:grid-cols-[1fr_22rem]">
+        <div className="min-w-0 space-y-4">
+          {request.notes ? <Alert tone="info" title="Client notes">{request.notes}</Alert> : null}
+          {parts.length === 0 ? <Card><p className="text-sm text-ink-500">This request has no parts.</p></Card> : parts.map((p) => <AnalysisPanel key={p.id} part={p} />)}
+          {canQuote ? (
+            <QuoteEditor key={draft?.id ?? "new"} requestId={id} quoteId={draft?.id} basisAnalysisIds={basisAnalysisIds} initial={initial} isStale={Boolean(draft?.isStale)} />
+          ) : (
+            <Alert tone="info" title={`The request is ${request.stage.replace("_", " ")}`}>Quotes are made while a request is submitted or quoted.</Alert>
+          )}
+        </div>
+        <aside className="space-y-4">
+          <Card>
+            <CardTitle>Versions</CardTitle>
+            {quotes.length === 0 ? (
+              <p className="mt-2 text-sm text-ink-500">No quote yet.</p>
+            ) : (
+              <ul className="mt-2 divide-y divide-paper-200 text-sm">
+                {quotes.map((q) => (
+                  <li key={q.id} className="flex items-center justify-between gap-2 py-2">
+                    <span>v{q.version} <StatusBadge value={q.status} /> {q.isStale ? <Badge tone="warn">stale</Badge> : null}</span>
+                    <span className="figures">{formatCents(q.totalCents, q.currency)}</span>
+                  </li>
+                ))}
+              </ul>
+            )}
+          </Card>
+          <Card>
+            <CardTitle>Messages</CardTitle>
+            <div className="mt-2">
+              <MessageThread requestId={id} messages={messages.map((m) => ({ ...m, createdAt: m.createdAt.toISOString() }))} />
+            </div>
+          </Card>
+        </aside>
+      </div>
+    </>
+  );
+}
