@@ -1,0 +1,101 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { dateText, dateTimeText, hoursText, stageText } from "@/components/admin/format";
+import { ActualsForm, ScheduleForm, StageForm } from "@/components/admin/order-forms";
+import { StatusBadge } from "@/components/admin/stage-badge";
+import { Alert } from "@/components/ui/alert";
+import { Card, CardTitle, PageHeader } from "@/components/ui/card";
+import { getDb } from "@/db/client";
+import { listCurrentCells } from "@/db/queries/catalogue";
+import { getOrderForProduction } from "@/db/queries/orders";
+import { estimateTotals } from "@/db/queries/reports";
+import { STAGES } from "@/db/schema/common";
+import { pagePermission } from "@/lib/auth/page-guard";
+import { hasPermission } from "@/lib/auth/policy";
+import { formatCents } from "@/lib/money";
+import { checkTransition, roleMayMove } from "@/lib/orders/stages";
+
+export const metadata: Metadata = { title: "Order" };
+export const dynamic = "force-dynamic";
+
+export default async function ProductionOrderPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const user = await pagePermission("production:board", `/admin/production/orders/${id}`);
+  const db = getDb();
+  const o = await getOrderForProduction(db, id);
+  if (!o) notFound();
+  const cells = await listCurrentCells(db);
+  const stage = o.request.stage;
+  const est = estimateTotals(o.parts);
+  const options = STAGES.filter((s) => s !== "scheduled" || stage === "on_hold")
+    .map((s) => ({ stage: s, ...checkTransition(stage, s, o.request.heldFromStage) }))
+    .filter((x) => x.ok && roleMayMove(user.role, stage, x.stage));
+  const defaultCell = o.order.cellKey ?? o.parts.map((p) => (p.estimate as { cell?: string } | null)?.cell).find(Boolean) ?? cells[0]?.key ?? "";
+  const nextMonday = (() => {
+    const d = new Date();
+    d.setUTCDate(d.getUTCDate() + ((8 - d.getUTCDay()) % 7 || 7));
+    return `${d.toISOString().slice(0, 10)}T06:00`;
+  })();
+  const canSchedule = hasPermission(user, "production:schedule") && (stage === "deposit_paid" || stage === "scheduled");
+  const canRecord = hasPermission(user, "production:record");
+
+  return (
+    <>
+      <PageHeader
+        title={`${o.request.reference} · ${o.request.projectName}`}
+        subtitle={<span className="flex flex-wrap items-center gap-2">{o.firmName} · PO {o.order.poNumber} · total {formatCents(o.order.totalCents, o.order.currency)} <StatusBadge value={stage} /></span>}
+      />
+      <div className="grid gap-6 lg:grid-cols-2">
+        <div className="min-w-0 space-y-4">
+          <Card>
+            <CardTitle>Plan</CardTitle>
+            <dl className="mt-2 grid grid-cols-2 gap-2 text-sm">
+              <div><dt className="text-xs text-ink-500">Cell</dt><dd>{cells.find((c) => c.key === o.order.cellKey)?.params.name ?? "not scheduled"}</dd></div>
+              <div><dt className="text-xs text-ink-500">Planned start / ship</dt><dd>{dateTimeText(o.order.plannedStart)} / {dateText(o.order.plannedShip)}</dd></div>
+              <div><dt className="text-xs text-ink-500">Estimated print + dwell</dt><dd className="figures">{hoursText(est.printHours)}</dd></div>
+              <div><dt className="text-xs text-ink-500">Estimated machining</dt><dd className="figures">{hoursText(est.machiningHours)}</dd></div>
+            </dl>
+            {o.blocks.length ? (
+              <ul className="mt-3 space-y-1 text-sm">
+                {o.blocks.map((b) => <li key={b.id} className="figures"><span className="inline-block w-20 font-medium">{b.kind}</span>{dateTimeText(b.startsAt)} – {dateTimeText(b.endsAt)}</li>)}
+              </ul>
+            ) : null}
+            <div className="mt-4">
+              {canSchedule ? (
+                <ScheduleForm orderId={id} cells={cells.map((c) => ({ key: c.key, name: c.params.name }))} defaultCell={defaultCell} defaultStart={o.order.plannedStart ? o.order.plannedStart.toISOString().slice(0, 16) : nextMonday} />
+              ) : stage === "accepted" ? (
+                <Alert tone="info" title="Waiting for the deposit">Only paid orders are laid on a cell.</Alert>
+              ) : null}
+            </div>
+          </Card>
+          <Card>
+            <CardTitle>Stage</CardTitle>
+            <div className="mt-2">{canRecord ? <StageForm orderId={id} options={options} /> : <p className="text-sm text-ink-500">Your role views the board only.</p>}</div>
+            {stage === "packed" ? <p className="mt-2 text-xs text-ink-500">Shipping needs the carrier and tracking number below; it sends the client the tracking and the balance invoice.</p> : null}
+          </Card>
+          <Alert tone="warn" title="Handling cautions">
+            Printed tools leave the cell hot and are heavy: lift with rated equipment, wear heat-resistant gloves while it cools, and keep clear of machining chips. Follow your site&rsquo;s procedures and local codes.
+          </Alert>
+        </div>
+        <div className="min-w-0 space-y-4">
+          <Card>
+            <CardTitle>Actuals, inspection and shipping</CardTitle>
+            <div className="mt-2">
+              {canRecord ? <ActualsForm orderId={id} initial={{ actualPrintHours: o.order.actualPrintHours, actualMaterialKg: o.order.actualMaterialKg, actualMachiningHours: o.order.actualMachiningHours, inspectionResult: o.order.inspectionResult, inspectionNotes: o.order.inspectionNotes, carrier: o.order.carrier, trackingNumber: o.order.trackingNumber }} /> : <p className="text-sm text-ink-500">Your role views the board only.</p>}
+            </div>
+          </Card>
+          <Card>
+            <CardTitle>History</CardTitle>
+            {o.events.length === 0 ? <p className="mt-2 text-sm text-ink-500">No stage changes recorded.</p> : (
+              <ol className="mt-2 space-y-1 text-sm">
+                {o.events.map((e) => (
+                  <li key={e.id}><span className="figures text-ink-500">{dateTimeText(e.at)}</span> {e.fromStage ? stageText(e.fromStage) : "—"} → <strong>{stageText(e.toStage)}</strong> {e.actor ? `by ${e.actor}` : ""}{e.note ? ` · ${e.note}` : ""}</li>
+                ))}
+              </ol>
+            )}
+          </Card>
+        </div>
+      </div>
+    </>
+  );
+}

@@ -1,0 +1,130 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { useState, useTransition } from "react";
+import { moveStage, recordActuals, scheduleOrder } from "@/app/admin/production/actions";
+import { Button } from "@/components/ui/button";
+import { Field, FormMessage, Input, Select, Textarea } from "@/components/ui/input";
+import { stageText } from "./format";
+import { ReportUpload } from "./report-upload";
+
+type Msg = { tone: "ok" | "error"; text: string } | null;
+
+function useSubmit() {
+  const router = useRouter();
+  const [msg, setMsg] = useState<Msg>(null);
+  const [errors, setErrors] = useState<Record<string, string[]>>({});
+  const [pending, start] = useTransition();
+  const run = (fn: () => Promise<{ ok: true } | { ok: false; message: string; fieldErrors?: Record<string, string[]> }>, okText: string) =>
+    start(async () => {
+      const r = await fn();
+      if (!r.ok) {
+        setErrors(r.fieldErrors ?? {});
+        setMsg({ tone: "error", text: r.message });
+      } else {
+        setErrors({});
+        setMsg({ tone: "ok", text: okText });
+        router.refresh();
+      }
+    });
+  return { msg, errors, pending, run };
+}
+
+export function ScheduleForm({ orderId, cells, defaultCell, defaultStart }: { orderId: string; cells: { key: string; name: string }[]; defaultCell: string; defaultStart: string }) {
+  const [cellKey, setCell] = useState(defaultCell);
+  const [startAt, setStart] = useState(defaultStart);
+  const { msg, errors, pending, run } = useSubmit();
+  return (
+    <form className="space-y-3" onSubmit={(e) => (e.preventDefault(), run(() => scheduleOrder({ orderId, cellKey, start: startAt }), "Scheduled; the client has been e-mailed the planned dates."))}>
+      <div className="grid gap-3 sm:grid-cols-2">
+        <Field label="Printing cell" htmlFor="cell">
+          <Select id="cell" value={cellKey} onChange={(e) => setCell(e.target.value)}>
+            {cells.map((c) => <option key={c.key} value={c.key}>{c.name}</option>)}
+          </Select>
+        </Field>
+        <Field label="Print start (UTC)" htmlFor="start" error={errors.start?.[0]}>
+          <Input id="start" type="datetime-local" value={startAt} onChange={(e) => setStart(e.target.value)} />
+        </Field>
+      </div>
+      <FormMessage tone={msg?.tone}>{msg?.text}</FormMessage>
+      <Button type="submit" disabled={pending}>{pending ? "Planning…" : "Schedule on this cell"}</Button>
+    </form>
+  );
+}
+
+export function StageForm({ orderId, options }: { orderId: string; options: { stage: string; ok: boolean; reason?: string }[] }) {
+  const allowed = options.filter((o) => o.ok);
+  const [to, setTo] = useState(allowed[0]?.stage ?? "");
+  const [note, setNote] = useState("");
+  const { msg, pending, run } = useSubmit();
+  if (allowed.length === 0) return <p className="text-sm text-ink-500">No stage change is open to you from here.</p>;
+  return (
+    <form className="space-y-3" onSubmit={(e) => (e.preventDefault(), run(() => moveStage({ orderId, to, note: note || undefined }), `Moved to ${stageText(to)}.`))}>
+      <div className="grid gap-3 sm:grid-cols-2">
+        <Field label="Move to" htmlFor="to">
+          <Select id="to" value={to} onChange={(e) => setTo(e.target.value)}>
+            {allowed.map((o) => <option key={o.stage} value={o.stage}>{stageText(o.stage)}</option>)}
+          </Select>
+        </Field>
+        <Field label="Note (optional)" htmlFor="note">
+          <Input id="note" value={note} onChange={(e) => setNote(e.target.value)} />
+        </Field>
+      </div>
+      <FormMessage tone={msg?.tone}>{msg?.text}</FormMessage>
+      <Button type="submit" disabled={pending}>Move stage</Button>
+    </form>
+  );
+}
+
+export interface ActualsInitial {
+  actualPrintHours: number | null;
+  actualMaterialKg: number | null;
+  actualMachiningHours: number | null;
+  inspectionResult: string | null;
+  inspectionNotes: string | null;
+  carrier: string | null;
+  trackingNumber: string | null;
+}
+
+export function ActualsForm({ orderId, initial }: { orderId: string; initial: ActualsInitial }) {
+  const s = (v: number | string | null) => (v === null ? "" : String(v));
+  const [v, setV] = useState({
+    actualPrintHours: s(initial.actualPrintHours),
+    actualMaterialKg: s(initial.actualMaterialKg),
+    actualMachiningHours: s(initial.actualMachiningHours),
+    inspectionResult: s(initial.inspectionResult),
+    inspectionNotes: s(initial.inspectionNotes),
+    carrier: s(initial.carrier),
+    trackingNumber: s(initial.trackingNumber),
+  });
+  const [reportUploadId, setReport] = useState<string | undefined>();
+  const { msg, errors, pending, run } = useSubmit();
+  const set = (k: keyof typeof v) => (e: { target: { value: string } }) => setV((x) => ({ ...x, [k]: e.target.value }));
+  return (
+    <form className="space-y-3" onSubmit={(e) => (e.preventDefault(), run(() => recordActuals({ orderId, ...v, reportUploadId }), "Actuals saved."))}>
+      <div className="grid gap-3 sm:grid-cols-3">
+        <Field label="Print hours" htmlFor="aph" error={errors.actualPrintHours?.[0]}><Input id="aph" inputMode="decimal" value={v.actualPrintHours} onChange={set("actualPrintHours")} /></Field>
+        <Field label="Material used (kg)" htmlFor="akg" error={errors.actualMaterialKg?.[0]}><Input id="akg" inputMode="decimal" value={v.actualMaterialKg} onChange={set("actualMaterialKg")} /></Field>
+        <Field label="Machining hours" htmlFor="amh" error={errors.actualMachiningHours?.[0]}><Input id="amh" inputMode="decimal" value={v.actualMachiningHours} onChange={set("actualMachiningHours")} /></Field>
+      </div>
+      <div className="grid gap-3 sm:grid-cols-[12rem_1fr]">
+        <Field label="Inspection result" htmlFor="insp">
+          <Select id="insp" value={v.inspectionResult} onChange={set("inspectionResult")}>
+            <option value="">not inspected</option>
+            <option value="pass">pass</option>
+            <option value="conditional">conditional</option>
+            <option value="fail">fail</option>
+          </Select>
+        </Field>
+        <Field label="Inspection notes" htmlFor="inotes"><Textarea id="inotes" className="min-h-10" value={v.inspectionNotes} onChange={set("inspectionNotes")} /></Field>
+      </div>
+      <ReportUpload onUploaded={setReport} uploaded={Boolean(reportUploadId)} />
+      <div className="grid gap-3 sm:grid-cols-2">
+        <Field label="Carrier" htmlFor="carrier"><Input id="carrier" value={v.carrier} onChange={set("carrier")} /></Field>
+        <Field label="Tracking number" htmlFor="tracking"><Input id="tracking" value={v.trackingNumber} onChange={set("trackingNumber")} /></Field>
+      </div>
+      <FormMessage tone={msg?.tone}>{msg?.text}</FormMessage>
+      <Button type="submit" variant="secondary" disabled={pending}>Save actuals</Button>
+    </form>
+  );
+}
