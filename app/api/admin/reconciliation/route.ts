@@ -31,7 +31,7 @@ export const GET = withErrors(async (req: Request) => {
     throw new AppError("unavailable:processor", "The payment processor did not answer; try again in a moment.");
   }
   const findings = reconcile({ payments: ledger.payments, refunds, ...processor });
-  const refs = new Map(ledger.payments.map((p) => [p.id, { reference: p.reference, firmName: p.firmName, kind: p.kind }]));
+  const refs = new Map(ledger.payments.map((p) => [p.id, { reference: p.reference, firmName: p.firmName, paymentKind: p.kind }]));
   return NextResponse.json({
     period,
     summary: summarise(findings),

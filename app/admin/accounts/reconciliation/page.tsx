@@ -1,0 +1,18 @@
+import type { Metadata } from "next";
+import { ReconciliationView } from "@/components/admin/reconciliation-view";
+import { ButtonLink } from "@/components/ui/button";
+import { PageHeader } from "@/components/ui/card";
+import { pagePermission } from "@/lib/auth/page-guard";
+
+export const metadata: Metadata = { title: "Reconciliation" };
+export const dynamic = "force-dynamic";
+
+export default async function ReconciliationPage() {
+  await pagePermission("accounts:ledger", "/admin/accounts/reconciliation");
+  return (
+    <>
+      <PageHeader title="Reconciliation" subtitle="Our ledger against the processor's charges, payment intents, balance transactions and refunds." actions={<ButtonLink href="/admin/accounts" variant="secondary">Ledger</ButtonLink>} />
+      <ReconciliationView />
+    </>
+  );
+}

@@ -1,0 +1,87 @@
+"use client";
+
+import Link from "next/link";
+import { useState } from "react";
+import { DataTable, type ColumnDef, type ColumnFiltersState, type SortingState } from "@/components/data-table";
+import { buttonClass } from "@/components/ui/button";
+import { Field, Input } from "@/components/ui/input";
+import { formatCents } from "@/lib/money";
+import { dateText } from "./format";
+import { Pager } from "./pager";
+import { StatusBadge } from "./stage-badge";
+import { useApi } from "./use-api";
+
+interface LedgerRow {
+  id: string;
+  reference: string;
+  projectName: string;
+  firmName: string;
+  kind: string;
+  status: string;
+  amountCents: number;
+  feeCents: number | null;
+  refundedCents: number;
+  currency: string;
+  createdAt: string;
+  paidAt: string | null;
+}
+
+const columns: ColumnDef<LedgerRow, unknown>[] = [
+  { accessorKey: "reference", header: "Order", cell: ({ row }) => <Link className="font-medium text-kiln-700 underline" href={`/admin/accounts/payments/${row.original.id}`}>{row.original.reference}</Link> },
+  { accessorKey: "firmName", header: "Firm", enableSorting: false },
+  { accessorKey: "kind", header: "Kind", enableSorting: false },
+  { accessorKey: "status", header: "Status", cell: ({ getValue }) => <StatusBadge value={getValue() as string} /> },
+  { accessorKey: "amountCents", header: "Amount", cell: ({ row }) => <span className="figures">{formatCents(row.original.amountCents, row.original.currency)}</span> },
+  { accessorKey: "feeCents", header: "Fee", enableSorting: false, cell: ({ row }) => <span className="figures">{row.original.feeCents === null ? "—" : formatCents(row.original.feeCents, row.original.currency)}</span> },
+  { accessorKey: "refundedCents", header: "Refunded", enableSorting: false, cell: ({ row }) => <span className="figures">{row.original.refundedCents ? formatCents(row.original.refundedCents, row.original.currency) : "—"}</span> },
+  { accessorKey: "paidAt", header: "Paid", cell: ({ getValue }) => dateText(getValue() as string | null) },
+  { accessorKey: "createdAt", header: "Created", cell: ({ getValue }) => dateText(getValue() as string | null) },
+];
+
+const monthAgo = () => new Date(Date.now() - 90 * 86_400_000).toISOString().slice(0, 10);
+const today = () => new Date().toISOString().slice(0, 10);
+
+/** Every payment; sorted, filtered and paged on the server; CSV export of the chosen dates. */
+export function LedgerTable() {
+  const [sorting, setSorting] = useState<SortingState>([{ id: "createdAt", desc: true }]);
+  const [filters, setFilters] = useState<ColumnFiltersState>([]);
+  const [search, setSearch] = useState("");
+  const [page, setPage] = useState(1);
+  const [from, setFrom] = useState(monthAgo);
+  const [to, setTo] = useState(today);
+  const get = (id: string) => filters.find((f) => f.id === id)?.value as string | undefined;
+  const params = new URLSearchParams({ page: String(page), from, to });
+  if (get("status")) params.set("status", get("status")!);
+  if (get("kind")) params.set("kind", get("kind")!);
+  if (search) params.set("q", search);
+  if (sorting[0]) params.set("sort", sorting[0].id), params.set("dir", sorting[0].desc ? "desc" : "asc");
+  const { data, error, isLoading, reload } = useApi<{ rows: LedgerRow[]; total: number; page: number; pageSize: number }>(from && to ? `/api/admin/ledger?${params}` : null);
+  return (
+    <div className="space-y-3">
+      <div className="flex flex-wrap items-end gap-3">
+        <Field label="From" htmlFor="ledger-from"><Input id="ledger-from" type="date" value={from} onChange={(e) => (setFrom(e.target.value), setPage(1))} /></Field>
+        <Field label="To" htmlFor="ledger-to"><Input id="ledger-to" type="date" value={to} onChange={(e) => (setTo(e.target.value), setPage(1))} /></Field>
+        <a className={buttonClass("secondary")} href={`/api/admin/ledger/export?from=${from}&to=${to}`} download>
+          Export CSV
+        </a>
+      </div>
+      <DataTable
+        label="Ledger"
+        columns={columns}
+        data={data?.rows}
+        isLoading={isLoading}
+        error={error}
+        onRetry={reload}
+        getRowId={(r) => r.id}
+        filters={[
+          { columnId: "status", label: "Status", options: ["pending", "paid", "partially_refunded", "refunded", "failed", "expired"].map((v) => ({ value: v, label: v.replace("_", " ") })) },
+          { columnId: "kind", label: "Kind", options: [{ value: "deposit", label: "deposit" }, { value: "balance", label: "balance" }] },
+        ]}
+        manual={{ sorting, onSortingChange: (u) => (setSorting(u), setPage(1)), columnFilters: filters, onColumnFiltersChange: (u) => (setFilters(u), setPage(1)), search, onSearchChange: (v) => (setSearch(v), setPage(1)) }}
+        searchPlaceholder="Search order, firm, payment intent"
+        empty={{ title: "No payments in these dates", body: "Deposits and balances appear here as clients pay." }}
+      />
+      {data ? <Pager page={data.page} pageSize={data.pageSize} total={data.total} onPage={setPage} /> : null}
+    </div>
+  );
+}
