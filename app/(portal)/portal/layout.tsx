@@ -1,5 +1,6 @@
 import { redirect } from "next/navigation";
 import { AppShell, ROLE_LABELS, type NavItem } from "@/components/layout/app-shell";
+import { QueryProvider } from "@/components/portal/query-provider";
 import { pageUser } from "@/lib/auth/page-guard";
 import { isStaff } from "@/lib/auth/policy";
 
@@ -9,13 +10,14 @@ export default async function PortalLayout({ children }: { children: React.React
   const nav: NavItem[] = [
     { href: "/portal", label: "Requests & orders" },
     { href: "/portal/requests/new", label: "New request" },
+    { href: "/portal/payments", label: "Payments" },
   ];
   if (user.role === "client_admin") {
     nav.push({ href: "/portal/firm", label: "Firm & members" });
   }
   return (
     <AppShell nav={nav} area="Client portal" userLabel={user.name ?? user.email} roleLabel={ROLE_LABELS[user.role] ?? user.role}>
-      {children}
+      <QueryProvider>{children}</QueryProvider>
     </AppShell>
   );
 }

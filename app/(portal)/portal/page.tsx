@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { RequestsTable } from "@/components/portal/requests-table";
 import { ButtonLink } from "@/components/ui/button";
 import { PageHeader } from "@/components/ui/card";
 import { pageUser } from "@/lib/auth/page-guard";
@@ -14,6 +15,7 @@ export default async function PortalHomePage() {
         subtitle={user.role === "client_admin" ? "Every request and order of your firm." : "Your requests and orders."}
         actions={<ButtonLink href="/portal/requests/new">New request</ButtonLink>}
       />
+      <RequestsTable showAuthor={user.role === "client_admin"} />
     </>
   );
 }
