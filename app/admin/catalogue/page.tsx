@@ -1,0 +1,65 @@
+import type { Metadata } from "next";
+import { ParamsForm } from "@/components/admin/params-form";
+import { Badge } from "@/components/ui/badge";
+import { Card, CardTitle, PageHeader } from "@/components/ui/card";
+import { getDb } from "@/db/client";
+import { countVersions } from "@/db/queries/admin-catalogue";
+import { getCurrentRateCard, listCurrentCells, listCurrentMaterials } from "@/db/queries/catalogue";
+import { pagePermission } from "@/lib/auth/page-guard";
+import { formatCents } from "@/lib/money";
+import { cellFormValues } from "@/lib/validation/admin-catalogue";
+
+export const metadata: Metadata = { title: "Catalogue" };
+export const dynamic = "force-dynamic";
+
+export default async function CataloguePage() {
+  await pagePermission("admin:catalogue", "/admin/catalogue");
+  const db = getDb();
+  const [materials, cells, card, versions] = await Promise.all([listCurrentMaterials(db, { activeOnly: false }), listCurrentCells(db, { activeOnly: false }), getCurrentRateCard(db), countVersions(db)]);
+  return (
+    <>
+      <PageHeader title="Catalogue" subtitle="Materials, printing cells and the rate card. Each save adds a version; old quotes keep the values they were made with." />
+      <div className="space-y-8">
+        <Card>
+          <CardTitle>Rate card {card ? <Badge tone="info">version {card.version}</Badge> : null}</CardTitle>
+          <div className="mt-3">
+            {card ? <ParamsForm kind="rateCard" idPrefix="rc" initial={card.params as unknown as Record<string, unknown>} /> : <p className="text-sm text-ink-500">No rate card yet.</p>}
+          </div>
+        </Card>
+        <section className="space-y-2">
+          <CardTitle>Materials</CardTitle>
+          {materials.length === 0 ? <p className="text-sm text-ink-500">No materials yet.</p> : null}
+          {materials.map((m) => (
+            <details key={m.key} className="rounded-md bg-white ring-1 ring-paper-200">
+              <summary className="flex cursor-pointer flex-wrap items-center gap-2 px-4 py-3 text-sm">
+                <span className="font-medium text-ink-800">{m.params.name}</span>
+                <span className="text-ink-500">{m.params.densityGPerCm3} g/cm³ · {formatCents(m.params.pricePerKgCents)}/kg · service to {m.params.maxServiceTempC} °C</span>
+                <Badge>v{m.version} of {versions.materials.get(m.key) ?? 1}</Badge>
+                {!m.isActive ? <Badge tone="warn">out of service</Badge> : null}
+              </summary>
+              <div className="border-t border-paper-200 p-4">
+                <ParamsForm kind="material" idPrefix={`m-${m.key}`} keyLocked initial={{ ...m.params, isActive: m.isActive }} />
+              </div>
+            </details>
+          ))}
+        </section>
+        <section className="space-y-2">
+          <CardTitle>Printing cells</CardTitle>
+          {cells.map((c) => (
+            <details key={c.key} className="rounded-md bg-white ring-1 ring-paper-200">
+              <summary className="flex cursor-pointer flex-wrap items-center gap-2 px-4 py-3 text-sm">
+                <span className="font-medium text-ink-800">{c.params.name}</span>
+                <span className="text-ink-500">{c.params.envelopeMm.x} × {c.params.envelopeMm.y} × {c.params.envelopeMm.z} mm · {c.params.extruderOutputKgPerH} kg/h</span>
+                <Badge>v{c.version} of {versions.cells.get(c.key) ?? 1}</Badge>
+                {!c.isActive ? <Badge tone="warn">out of service</Badge> : null}
+              </summary>
+              <div className="border-t border-paper-200 p-4">
+                <ParamsForm kind="cell" idPrefix={`c-${c.key}`} keyLocked initial={{ ...cellFormValues(c.params), isActive: c.isActive }} />
+              </div>
+            </details>
+          ))}
+        </section>
+      </div>
+    </>
+  );
+}
