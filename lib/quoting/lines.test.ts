@@ -40,6 +40,12 @@ describe("checkLines", () => {
     expect(checkLines([{ ...base[0]!, amountCents: 1 }])[0]!.message).toMatch(/quantity × unit/);
   });
   it("refuses an empty quote", () => expect(checkLines([])).toHaveLength(1));
+  it("accepts an untouched estimate line whose shown quantity is rounded to 0.001", () => {
+    // 412.5004 kg × 1850 ¢ = 763 125.74 → 763 126 ¢, shown as 412.5 kg
+    const l: DraftLine = { partId: "p", kind: "material", description: "Material", quantity: 412.5, unitCents: 1_850, amountCents: 763_126, estimatedCents: 763_126, editReason: null };
+    expect(checkLines([l])).toEqual([]);
+    expect(checkLines([{ ...l, amountCents: 763_130, estimatedCents: 763_130 }])).toHaveLength(1);
+  });
 });
 
 describe("quoteTotals", () => {

@@ -90,7 +90,10 @@ export function checkLines(lines: DraftLine[]): LineProblem[] {
   const problems: LineProblem[] = [];
   if (lines.length === 0) problems.push({ index: -1, message: "A quote needs at least one line." });
   lines.forEach((l, index) => {
-    if (l.amountCents !== lineAmount(l.quantity, l.unitCents)) {
+    // The estimator shows quantities rounded to 0.001 but prices the unrounded figure, so an
+    // untouched estimate line may differ from quantity × unit by that rounding, no more.
+    const slack = isEdited(l) ? 0 : Math.abs(l.unitCents) * 0.0005 + 0.5;
+    if (Math.abs(l.amountCents - lineAmount(l.quantity, l.unitCents)) > slack) {
       problems.push({ index, message: "The amount does not equal quantity × unit price." });
     }
     if (isEdited(l) && !(l.editReason ?? "").trim()) {
