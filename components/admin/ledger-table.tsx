@@ -54,7 +54,10 @@ export function LedgerTable() {
   if (get("status")) params.set("status", get("status")!);
   if (get("kind")) params.set("kind", get("kind")!);
   if (search) params.set("q", search);
-  if (sorting[0]) params.set("sort", sorting[0].id), params.set("dir", sorting[0].desc ? "desc" : "asc");
+  if (sorting[0]) {
+    params.set("sort", sorting[0].id);
+    params.set("dir", sorting[0].desc ? "desc" : "asc");
+  }
   const { data, error, isLoading, reload } = useApi<{ rows: LedgerRow[]; total: number; page: number; pageSize: number }>(from && to ? `/api/admin/ledger?${params}` : null);
   return (
     <div className="space-y-3">

@@ -53,7 +53,10 @@ export function QuotesTable() {
   const [page, setPage] = useState(1);
   const status = filters.find((f) => f.id === "status")?.value as string | undefined;
   const params = new URLSearchParams({ page: String(page), ...(status ? { status } : {}), ...(search ? { q: search } : {}) });
-  if (sorting[0]) params.set("sort", sorting[0].id), params.set("dir", sorting[0].desc ? "desc" : "asc");
+  if (sorting[0]) {
+    params.set("sort", sorting[0].id);
+    params.set("dir", sorting[0].desc ? "desc" : "asc");
+  }
   const { data, error, isLoading, reload } = useApi<QuotesAnswer>(`/api/admin/quotes?${params}`);
   const s = data?.stats;
   return (
