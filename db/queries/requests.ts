@@ -1,7 +1,7 @@
 import { and, asc, count, desc, eq, inArray, like, or, sql, type SQL } from "drizzle-orm";
 import type { Db } from "../client";
 import type { Stage } from "../schema/common";
-import { memberships, orders, organisations, parts, quotes, requests, users } from "../schema";
+import { memberships, orders, organisations, parts, quotes, requests, stageEvents, users } from "../schema";
 import type { Tx } from "./audit";
 
 /** Who is asking, for scoping: client_admin sees the firm, client their own requests. */
@@ -171,4 +171,14 @@ export async function listOrgMemberEmails(db: Db | Tx, orgId: string) {
     .innerJoin(users, eq(users.id, memberships.userId))
     .where(and(eq(memberships.orgId, orgId), sql`${users.disabledAt} is null`));
   return rows.map((r) => r.email);
+}
+
+/** The request's stage history, oldest first, with who moved it. */
+export async function listStageEvents(db: Db | Tx, requestId: string) {
+  return db
+    .select({ id: stageEvents.id, fromStage: stageEvents.fromStage, toStage: stageEvents.toStage, note: stageEvents.note, plannedAt: stageEvents.plannedAt, at: stageEvents.at, actorName: users.name })
+    .from(stageEvents)
+    .leftJoin(users, eq(users.id, stageEvents.actorId))
+    .where(eq(stageEvents.requestId, requestId))
+    .orderBy(asc(stageEvents.at));
 }

@@ -1,0 +1,223 @@
+import type { Metadata } from "next";
+import { getDb } from "@/db/client";
+import { listClientQuotes } from "@/db/queries/client-quotes";
+import { listDocuments } from "@/db/queries/documents";
+import { listMessages } from "@/db/queries/messages";
+import { getOrganisation } from "@/db/queries/organisations";
+import { listPartsWithAnalysis } from "@/db/queries/parts";
+import { getOrderByRequest, listPaymentsForOrder } from "@/db/queries/payments";
+import { getRequest, listStageEvents } from "@/db/queries/requests";
+import type { Stage } from "@/db/schema/common";
+import { CheckoutReturn } from "@/components/portal/checkout-return";
+import { FigureKind } from "@/components/portal/estimate-panel";
+import { MessagesThread } from "@/components/portal/messages";
+import { PayButton, PaymentsList } from "@/components/portal/payments";
+import { QuotesSection } from "@/components/portal/quotes";
+import { RequestForm } from "@/components/portal/request-form/request-form";
+import { loadDraft, loadFormCatalogue } from "@/components/portal/request-form/load";
+import { PartReview } from "@/components/portal/request-form/part-review";
+import { StageBadge } from "@/components/portal/stage-badge";
+import { StageTimeline } from "@/components/portal/timeline";
+import { Alert } from "@/components/ui/alert";
+import { Badge } from "@/components/ui/badge";
+import { Card, CardTitle, EmptyState, PageHeader } from "@/components/ui/card";
+import { assertCanSee } from "@/lib/auth/guard";
+import { orPageError, pageUser } from "@/lib/auth/page-guard";
+import { can } from "@/lib/auth/policy";
+import type { EstimateResult } from "@/lib/estimating/types";
+import { formatCents } from "@/lib/money";
+import { formatTemp } from "@/lib/units";
+
+export const metadata: Metadata = { title: "Request" };
+export const dynamic = "force-dynamic";
+
+const day = (d: Date | null | undefined) => (d ? d.toLocaleDateString("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" }) : "—");
+const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null);
+
+export default async function RequestPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
+  const { id } = await params;
+  const sp = await searchParams;
+  const user = await pageUser(`/portal/requests/${id}`);
+  const db = getDb();
+  const req = await orPageError(async () => {
+    const r = await getRequest(db, id);
+    assertCanSee(user, r ? { orgId: r.orgId, createdById: r.createdById } : null, "request");
+    return r!;
+  });
+  const units = user.unitsPref;
+
+  if (req.stage === "draft" && can(user, "request:edit_draft", { orgId: req.orgId, createdById: req.createdById })) {
+    const [catalogue, draft] = await Promise.all([loadFormCatalogue(db, units), loadDraft(db, req, units)]);
+    return (
+      <>
+        <PageHeader title={req.projectName || "New request"} subtitle={`Draft ${req.reference} — not sent to the bureau yet.`} />
+        <RequestForm initial={draft.values} initialFiles={draft.files} reference={req.reference} catalogue={catalogue} />
+      </>
+    );
+  }
+
+  const [parts, quotes, order, events, messages, documents, catalogue, org] = await Promise.all([
+    listPartsWithAnalysis(db, req.id),
+    listClientQuotes(db, req.id),
+    getOrderByRequest(db, req.id),
+    listStageEvents(db, req.id),
+    listMessages(db, req.id),
+    listDocuments(db, req.id),
+    loadFormCatalogue(db, units),
+    getOrganisation(db, req.orgId),
+  ]);
+  const payments = order ? await listPaymentsForOrder(db, order.id) : [];
+  const paid = (kind: "deposit" | "balance") => payments.some((p) => p.kind === kind && (p.status === "paid" || p.status.includes("refunded")));
+  const acceptedQuote = quotes.find((q) => q.status === "accepted");
+  const planned: Partial<Record<Stage, Date | null>> = {
+    printing: order?.plannedStart ?? null,
+    shipped: order?.plannedShip ?? acceptedQuote?.shipDate ?? quotes[0]?.shipDate ?? null,
+  };
+  const canPay = can(user, "payment:pay", { orgId: req.orgId, createdById: req.createdById });
+  const checkout = sp.checkout === "success" || sp.checkout === "cancelled" ? sp.checkout : null;
+
+  return (
+    <>
+      <PageHeader
+        title={req.projectName}
+        subtitle={
+          <span className="flex flex-wrap items-center gap-2">
+            <span className="font-mono">{req.reference}</span>
+            <StageBadge stage={req.stage} />
+            {req.isControlled ? <Badge tone="warn">Controlled data</Badge> : null}
+            <span>
+              {req.cureProcess} cure{req.cureTempC !== null ? ` at ${formatTemp(req.cureTempC, units)}` : ""} · needed by {day(req.neededBy)}
+            </span>
+          </span>
+        }
+      />
+      <div className="space-y-6">
+        {sp.submitted ? <Alert tone="info" title="Sent to the bureau">Our sales engineers review the analysis and issue a quote; you will get an e-mail.</Alert> : null}
+        {checkout ? <CheckoutReturn requestId={req.id} outcome={checkout} stage={req.stage} /> : null}
+
+        <div className="grid gap-6 lg:grid-cols-3">
+          <div className="space-y-6 lg:col-span-2">
+            {order ? (
+              <Card className="space-y-4" aria-label="Order and payments">
+                <div className="flex flex-wrap items-center gap-2">
+                  <CardTitle>Order</CardTitle>
+                  <FigureKind kind="quote" />
+                  <span className="text-sm text-ink-500">PO {order.poNumber}</span>
+                </div>
+                <dl className="grid grid-cols-3 gap-3 text-sm">
+                  <div>
+                    <dt className="text-xs text-ink-500">Total</dt>
+                    <dd className="figures font-semibold">{formatCents(order.totalCents, order.currency)}</dd>
+                  </div>
+                  <div>
+                    <dt className="text-xs text-ink-500">Deposit</dt>
+                    <dd className="figures">{formatCents(order.depositCents, order.currency)} {paid("deposit") ? <Badge tone="ok">paid</Badge> : null}</dd>
+                  </div>
+                  <div>
+                    <dt className="text-xs text-ink-500">Balance</dt>
+                    <dd className="figures">{formatCents(order.balanceCents, order.currency)} {paid("balance") ? <Badge tone="ok">paid</Badge> : null}</dd>
+                  </div>
+                </dl>
+                {canPay && req.stage === "accepted" && !paid("deposit") ? <PayButton orderId={order.id} kind="deposit" amountCents={order.depositCents} currency={order.currency} /> : null}
+                {canPay && (req.stage === "shipped" || req.stage === "delivered") && !paid("balance") && order.balanceCents > 0 ? (
+                  <PayButton orderId={order.id} kind="balance" amountCents={order.balanceCents} currency={order.currency} />
+                ) : null}
+                {order.carrier || order.trackingNumber ? (
+                  <p className="text-sm">
+                    Shipped with {order.carrier ?? "our carrier"}
+                    {order.trackingNumber ? `, tracking ${order.trackingNumber}` : ""}.
+                  </p>
+                ) : null}
+                <PaymentsList payments={payments.map((p) => ({ id: p.id, kind: p.kind, status: p.status, amountCents: p.amountCents, currency: p.currency, createdAt: p.createdAt.toISOString(), paidAt: iso(p.paidAt) }))} />
+              </Card>
+            ) : null}
+
+            <QuotesSection
+              quotes={quotes.map((q) => ({ ...q, shipDate: iso(q.shipDate), issuedAt: iso(q.issuedAt), validUntil: iso(q.validUntil) }))}
+              canAccept={can(user, "quote:accept", { orgId: req.orgId, createdById: req.createdById }) && req.stage === "quoted"}
+              defaultPo={org?.defaultPoNumber ?? ""}
+              now={new Date().toISOString()}
+            />
+
+            {parts.length === 0 ? <EmptyState title="This request has no parts" /> : null}
+            {parts.map(({ part, revision, analysis }) =>
+              revision && analysis?.status === "done" && analysis.result ? (
+                <PartReview
+                  key={part.id}
+                  title={`${part.name} · ${revision.fileName}${revision.revision > 1 ? ` (revision ${revision.revision})` : ""} · qty ${part.quantity}`}
+                  revisionId={revision.id}
+                  result={analysis.result as unknown as EstimateResult}
+                  fileUnits={part.units}
+                  displayUnits={units}
+                  cells={catalogue.cells}
+                  cureTempC={req.cureTempC}
+                />
+              ) : (
+                <Card key={part.id}>
+                  <CardTitle>{part.name}</CardTitle>
+                  <p className="mt-2 text-sm text-ink-500">
+                    {!revision ? "No file." : analysis?.status === "failed" ? `The file could not be analysed: ${analysis.errorMessage}` : "The analysis is still running."}
+                  </p>
+                </Card>
+              ),
+            )}
+          </div>
+
+          <div className="space-y-6">
+            <Card>
+              <CardTitle className="mb-3">Timeline</CardTitle>
+              <StageTimeline stage={req.stage} events={events.map((e) => ({ toStage: e.toStage, at: e.at, note: e.note, actorName: e.actorName }))} planned={planned} />
+            </Card>
+            <Card>
+              <CardTitle className="mb-3">Documents</CardTitle>
+              {documents.filter((d) => !d.messageId).length === 0 ? (
+                <p className="text-sm text-ink-500">Inspection reports, invoices and quote pages appear here.</p>
+              ) : (
+                <ul className="space-y-2 text-sm">
+                  {documents
+                    .filter((d) => !d.messageId)
+                    .map((d) => (
+                      <li key={d.id} className="flex items-center gap-2">
+                        <Badge>{d.kind.replace("_", " ")}</Badge>
+                        {d.hasFile ? (
+                          <a href={`/api/files/${d.id}`} className="text-kiln-700 underline">
+                            {d.title}
+                          </a>
+                        ) : (
+                          <span>{d.title}</span>
+                        )}
+                      </li>
+                    ))}
+                </ul>
+              )}
+              {parts.some((p) => p.revision) ? (
+                <div className="mt-4 border-t border-paper-200 pt-3">
+                  <p className="text-xs font-medium uppercase tracking-wide text-ink-500">Your files</p>
+                  <ul className="mt-1 space-y-1 text-sm">
+                    {parts.map((p) =>
+                      p.revision ? (
+                        <li key={p.part.id}>
+                          <a href={`/api/files/${p.revision.id}`} className="text-kiln-700 underline">
+                            {p.revision.fileName}
+                          </a>{" "}
+                          <span className="text-xs text-ink-400">rev {p.revision.revision}</span>
+                        </li>
+                      ) : null,
+                    )}
+                  </ul>
+                </div>
+              ) : null}
+            </Card>
+            <Card>
+              <CardTitle className="mb-3">Messages</CardTitle>
+              <MessagesThread
+                requestId={req.id}
+                messages={messages.map((m) => ({ id: m.id, parentId: m.parentId, body: m.body, isFromStaff: m.isFromStaff, createdAt: m.createdAt.toISOString(), authorName: m.authorName, attachments: m.attachments }))}
+              />
+            </Card>
+          </div>
+        </div>
+      </div>
+    </>
+  );
+}

@@ -1,0 +1,73 @@
+"use client";
+
+import Link from "next/link";
+import { useState } from "react";
+import { payOrder } from "@/app/(portal)/portal/requests/[id]/actions";
+import { Badge } from "@/components/ui/badge";
+import { Button } from "@/components/ui/button";
+import { FormMessage } from "@/components/ui/input";
+import { formatCents } from "@/lib/money";
+
+export interface PaymentView {
+  id: string;
+  kind: "deposit" | "balance";
+  status: string;
+  amountCents: number;
+  currency: string;
+  createdAt: string;
+  paidAt: string | null;
+}
+
+const day = (iso: string | null) => (iso ? new Date(iso).toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" }) : "—");
+const TONE: Record<string, "ok" | "warn" | "neutral" | "danger" | "info"> = { paid: "ok", pending: "info", expired: "neutral", failed: "danger", refunded: "warn", partially_refunded: "warn" };
+
+/** The pay button: one click opens one Checkout Session (the server reuses an open one). */
+export function PayButton({ orderId, kind, amountCents, currency }: { orderId: string; kind: "deposit" | "balance"; amountCents: number; currency: string }) {
+  const [busy, setBusy] = useState(false);
+  const [message, setMessage] = useState<string | null>(null);
+  async function pay() {
+    if (busy) return;
+    setBusy(true);
+    setMessage(null);
+    const res = await payOrder({ orderId, kind });
+    if (!res.ok) {
+      setMessage(res.message);
+      setBusy(false);
+      return;
+    }
+    if (res.data.url) window.location.assign(res.data.url);
+    else {
+      setMessage("This payment is already complete; we are recording it.");
+      setBusy(false);
+    }
+  }
+  return (
+    <div className="space-y-2">
+      <Button type="button" onClick={() => void pay()} disabled={busy}>
+        {busy ? "Opening the payment page…" : `Pay the ${kind} · ${formatCents(amountCents, currency)}`}
+      </Button>
+      <FormMessage>{message}</FormMessage>
+    </div>
+  );
+}
+
+export function PaymentsList({ payments }: { payments: PaymentView[] }) {
+  if (payments.length === 0) return <p className="text-sm text-ink-500">No payments yet.</p>;
+  return (
+    <ul className="divide-y divide-paper-200 text-sm">
+      {payments.map((p) => (
+        <li key={p.id} className="flex flex-wrap items-center gap-x-3 gap-y-1 py-2">
+          <span className="font-medium capitalize">{p.kind}</span>
+          <span className="figures">{formatCents(p.amountCents, p.currency)}</span>
+          <Badge tone={TONE[p.status] ?? "neutral"}>{p.status.replace("_", " ")}</Badge>
+          <span className="text-xs text-ink-500">{p.paidAt ? `paid ${day(p.paidAt)}` : `opened ${day(p.createdAt)}`}</span>
+          {p.status === "paid" || p.status.includes("refunded") ? (
+            <Link href={`/portal/payments/${p.id}`} className="ml-auto text-kiln-700 underline">
+              Receipt
+            </Link>
+          ) : null}
+        </li>
+      ))}
+    </ul>
+  );
+}

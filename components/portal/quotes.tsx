@@ -1,0 +1,183 @@
+"use client";
+
+import { useState } from "react";
+import { acceptQuote } from "@/app/(portal)/portal/requests/[id]/actions";
+import { Badge } from "@/components/ui/badge";
+import { Button } from "@/components/ui/button";
+import { Card, CardTitle, EmptyState } from "@/components/ui/card";
+import { Field, FormMessage, Input } from "@/components/ui/input";
+import { formatCents } from "@/lib/money";
+import { FigureKind } from "./estimate-panel";
+
+export interface QuoteView {
+  id: string;
+  version: number;
+  status: "issued" | "accepted" | "superseded" | "expired" | "declined" | "draft";
+  isStale: boolean;
+  subtotalCents: number;
+  marginCents: number;
+  taxCents: number;
+  totalCents: number;
+  depositCents: number;
+  currency: string;
+  terms: string;
+  notes: string;
+  shipDate: string | null;
+  issuedAt: string | null;
+  validUntil: string | null;
+  lines: { id: string; kind: string; description: string; quantity: number; unitCents: number; amountCents: number }[];
+}
+
+const day = (iso: string | null) => (iso ? new Date(iso).toLocaleDateString("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" }) : "—");
+
+/** What changed from the previous version: lines added, removed or re-priced, and the total. */
+export function quoteChanges(cur: QuoteView, prev: QuoteView | undefined): string[] {
+  if (!prev) return [];
+  const out: string[] = [];
+  const key = (l: QuoteView["lines"][number]) => `${l.kind}|${l.description}`;
+  const before = new Map(prev.lines.map((l) => [key(l), l]));
+  const after = new Map(cur.lines.map((l) => [key(l), l]));
+  for (const [k, l] of after) {
+    const b = before.get(k);
+    if (!b) out.push(`Added: ${l.description} (${formatCents(l.amountCents, cur.currency)})`);
+    else if (b.amountCents !== l.amountCents) out.push(`${l.description}: ${formatCents(b.amountCents, cur.currency)} → ${formatCents(l.amountCents, cur.currency)}`);
+  }
+  for (const [k, l] of before) if (!after.has(k)) out.push(`Removed: ${l.description}`);
+  if (prev.totalCents !== cur.totalCents) out.push(`Total: ${formatCents(prev.totalCents, cur.currency)} → ${formatCents(cur.totalCents, cur.currency)}`);
+  if (prev.shipDate !== cur.shipDate) out.push(`Ship date: ${day(prev.shipDate)} → ${day(cur.shipDate)}`);
+  return out.length ? out : ["No changes to the lines or total."];
+}
+
+const STATUS_TONE = { issued: "accent", accepted: "ok", superseded: "neutral", expired: "warn", declined: "danger", draft: "neutral" } as const;
+
+function AcceptForm({ quote, defaultPo }: { quote: QuoteView; defaultPo: string }) {
+  const [po, setPo] = useState(defaultPo);
+  const [terms, setTerms] = useState(false);
+  const [errors, setErrors] = useState<Record<string, string[]>>({});
+  const [message, setMessage] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  async function submit(e: React.FormEvent) {
+    e.preventDefault();
+    if (busy) return;
+    setBusy(true);
+    setMessage(null);
+    const res = await acceptQuote({ quoteId: quote.id, poNumber: po, acceptTerms: terms as true });
+    if (!res.ok) {
+      setErrors(res.fieldErrors ?? {});
+      setMessage(res.message);
+      setBusy(false);
+      return;
+    }
+    if (res.data.url) window.location.assign(res.data.url);
+    else window.location.reload();
+  }
+  return (
+    <form onSubmit={submit} className="space-y-3 rounded bg-kiln-50 p-4 ring-1 ring-kiln-100" aria-label={`Accept quote version ${quote.version}`}>
+      <p className="text-sm text-ink-700">
+        Accepting makes the order. A deposit of <strong className="figures">{formatCents(quote.depositCents, quote.currency)}</strong> is paid next by card; the balance
+        when the order ships.
+      </p>
+      <Field label="Your purchase order number" htmlFor={`po-${quote.id}`} error={errors.poNumber?.[0]}>
+        <Input id={`po-${quote.id}`} value={po} onChange={(e) => setPo(e.target.value)} aria-invalid={Boolean(errors.poNumber)} autoComplete="off" />
+      </Field>
+      <label className="flex items-start gap-2 text-sm">
+        <input type="checkbox" className="mt-1 accent-kiln-600" checked={terms} onChange={(e) => setTerms(e.target.checked)} />
+        <span>I accept the terms of this quote on behalf of my firm{quote.terms ? `: ${quote.terms}` : "."}</span>
+      </label>
+      {errors.acceptTerms ? <p className="text-xs text-signal-danger" role="alert">{errors.acceptTerms[0]}</p> : null}
+      <FormMessage>{message}</FormMessage>
+      <Button type="submit" disabled={busy}>
+        {busy ? "Accepting…" : "Accept and pay the deposit"}
+      </Button>
+    </form>
+  );
+}
+
+/** Every issued version of the request's quote, newest first, with its lines and changes. */
+export function QuotesSection({ quotes, canAccept, defaultPo, now }: { quotes: QuoteView[]; canAccept: boolean; defaultPo: string; now: string }) {
+  if (quotes.length === 0) {
+    return (
+      <Card>
+        <CardTitle>Quote</CardTitle>
+        <EmptyState title="No quote yet">Our sales engineers review the automatic estimate and issue a quote, usually within two working days. You will get an e-mail.</EmptyState>
+      </Card>
+    );
+  }
+  const latestIssued = quotes.find((q) => q.status === "issued");
+  return (
+    <Card className="space-y-5">
+      <CardTitle>Quote</CardTitle>
+      {quotes.map((q, i) => {
+        const expired = q.status === "expired" || (q.status === "issued" && q.validUntil !== null && q.validUntil < now);
+        const changes = quoteChanges(q, quotes[i + 1]);
+        return (
+          <section key={q.id} className="space-y-3 border-t border-paper-200 pt-4 first:border-0 first:pt-0" aria-label={`Quote version ${q.version}`}>
+            <div className="flex flex-wrap items-center gap-2">
+              <h3 className="font-semibold text-ink-800">Version {q.version}</h3>
+              <Badge tone={expired ? "warn" : STATUS_TONE[q.status]}>{expired ? "expired" : q.status}</Badge>
+              <FigureKind kind="quote" />
+              {q.isStale ? <Badge tone="warn">Files changed since this quote</Badge> : null}
+              <span className="text-xs text-ink-500">
+                issued {day(q.issuedAt)} · valid until {day(q.validUntil)}
+              </span>
+            </div>
+            {changes.length ? (
+              <div className="rounded bg-paper-50 px-3 py-2 text-sm ring-1 ring-paper-200">
+                <p className="text-xs font-medium uppercase tracking-wide text-ink-500">Changes since version {quotes[i + 1]?.version}</p>
+                <ul className="mt-1 list-disc pl-5">
+                  {changes.map((c) => (
+                    <li key={c}>{c}</li>
+                  ))}
+                </ul>
+              </div>
+            ) : null}
+            <div className="overflow-x-auto">
+              <table className="min-w-full text-sm">
+                <thead className="text-left text-xs uppercase tracking-wide text-ink-500">
+                  <tr>
+                    <th className="py-1 pr-3">Line (quote)</th>
+                    <th className="py-1 pr-3 text-right">Qty</th>
+                    <th className="py-1 text-right">Amount</th>
+                  </tr>
+                </thead>
+                <tbody className="divide-y divide-paper-200">
+                  {q.lines.map((l) => (
+                    <tr key={l.id}>
+                      <td className="py-1.5 pr-3">{l.description}</td>
+                      <td className="figures py-1.5 pr-3 text-right text-ink-500">{Math.round(l.quantity * 100) / 100}</td>
+                      <td className="figures py-1.5 text-right">{formatCents(l.amountCents, q.currency)}</td>
+                    </tr>
+                  ))}
+                </tbody>
+                <tfoot>
+                  <tr>
+                    <td colSpan={2} className="pt-2">Margin</td>
+                    <td className="figures pt-2 text-right">{formatCents(q.marginCents, q.currency)}</td>
+                  </tr>
+                  <tr>
+                    <td colSpan={2}>Tax</td>
+                    <td className="figures text-right">{formatCents(q.taxCents, q.currency)}</td>
+                  </tr>
+                  <tr className="font-semibold">
+                    <td colSpan={2}>Quoted total</td>
+                    <td className="figures text-right">{formatCents(q.totalCents, q.currency)}</td>
+                  </tr>
+                  <tr className="text-ink-500">
+                    <td colSpan={2}>Deposit on acceptance</td>
+                    <td className="figures text-right">{formatCents(q.depositCents, q.currency)}</td>
+                  </tr>
+                </tfoot>
+              </table>
+            </div>
+            {q.shipDate ? <p className="text-sm text-ink-600">Quoted ship date: {day(q.shipDate)}</p> : null}
+            {q.notes ? <p className="text-sm text-ink-600">{q.notes}</p> : null}
+            {canAccept && q === latestIssued && !expired && !q.isStale ? <AcceptForm quote={q} defaultPo={defaultPo} /> : null}
+            {canAccept && q === latestIssued && expired ? (
+              <p className="rounded bg-amber-50 px-3 py-2 text-sm text-amber-900">This quote has expired and can no longer be accepted. Ask us for a fresh one in the messages below.</p>
+            ) : null}
+          </section>
+        );
+      })}
+    </Card>
+  );
+}

@@ -1,0 +1,48 @@
+"use client";
+
+import { LazyPartViewer } from "@/components/part-viewer";
+import { Card, CardTitle } from "@/components/ui/card";
+import type { EstimateResult } from "@/lib/estimating/types";
+import type { UnitsPref } from "@/lib/units";
+import { EstimatePanel } from "../estimate-panel";
+import { LayerChart } from "../layer-chart";
+
+/** One part seen: 3D preview on its cell, the layer-time chart and the estimate. */
+export function PartReview({
+  title,
+  revisionId,
+  result,
+  fileUnits,
+  displayUnits,
+  cells,
+  cureTempC,
+}: {
+  title: string;
+  revisionId: string;
+  result: EstimateResult;
+  fileUnits: "mm" | "in";
+  displayUnits: UnitsPref;
+  cells: { key: string; name: string; envelopeMm: { x: number; y: number; z: number } }[];
+  cureTempC: number | null;
+}) {
+  const cell = cells.find((c) => c.key === result.cell) ?? null;
+  return (
+    <Card className="space-y-5" data-testid="part-review">
+      <CardTitle>{title}</CardTitle>
+      <LazyPartViewer
+        revisionId={revisionId}
+        fileUnits={fileUnits}
+        displayUnits={displayUnits}
+        orientation={result.orientation}
+        envelopeMm={cell?.envelopeMm ?? null}
+        cellName={cell?.name ?? null}
+        allowanceMm={result.allowanceMm}
+      />
+      <section aria-label="Layer times" className="space-y-2">
+        <h4 className="text-sm font-semibold text-ink-700">Layer times (automatic estimate)</h4>
+        <LayerChart layerChart={result.layerChart} minLayerTimeS={result.material.minLayerTimeS} maxLayerTimeS={result.material.maxLayerTimeS} units={displayUnits} />
+      </section>
+      <EstimatePanel r={result} units={displayUnits} cureTempC={cureTempC} />
+    </Card>
+  );
+}

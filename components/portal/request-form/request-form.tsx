@@ -1,0 +1,267 @@
+"use client";
+
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useRouter } from "next/navigation";
+import { useCallback, useEffect, useRef, useState } from "react";
+import { FormProvider, useFieldArray, useForm, useWatch } from "react-hook-form";
+import { attachPartFile, saveDraft, submitRequest } from "@/app/(portal)/portal/requests/actions";
+import { Button } from "@/components/ui/button";
+import { EmptyState } from "@/components/ui/card";
+import { FormMessage } from "@/components/ui/input";
+import { fToC } from "@/lib/units";
+import { draftSchema, type DraftInput } from "@/lib/validation/request";
+import { useAnalysis } from "./analysis-status";
+import { PartCard } from "./part-card";
+import { PartReview } from "./part-review";
+import { ProjectStep } from "./project-step";
+import { emptyFileState, type CatalogueForForm, type PartFileState } from "./types";
+
+const STEPS = ["Project", "Parts", "Review & submit"] as const;
+
+type SaveState = { kind: "idle" } | { kind: "saving" } | { kind: "saved"; at: Date } | { kind: "error"; message: string };
+
+export interface RequestFormProps {
+  initial: DraftInput;
+  initialFiles: Record<string, PartFileState>;
+  reference: string | null;
+  catalogue: CatalogueForForm;
+}
+
+/** The new-request form: three steps, saved to the server as a draft while you type. */
+export function RequestForm({ initial, initialFiles, reference: initialRef, catalogue }: RequestFormProps) {
+  const router = useRouter();
+  const form = useForm<DraftInput>({ resolver: zodResolver(draftSchema), defaultValues: initial, mode: "onBlur" });
+  const { control, handleSubmit, getValues, setValue, trigger, setError } = form;
+  const parts = useFieldArray({ control, name: "parts", keyName: "_key" });
+  const [step, setStep] = useState(0);
+  const [files, setFiles] = useState<Record<string, PartFileState>>(initialFiles);
+  const [reference, setReference] = useState(initialRef);
+  const [save, setSave] = useState<SaveState>({ kind: "idle" });
+  const [formError, setFormError] = useState<string | null>(null);
+  const [partErrors, setPartErrors] = useState<Record<number, string>>({});
+  const [submitting, setSubmitting] = useState(false);
+  const inflight = useRef<Promise<string | null>>(Promise.resolve(initial.requestId ?? null));
+
+  const setFile = useCallback((partId: string, patch: Partial<PartFileState>) => setFiles((f) => ({ ...f, [partId]: { ...(f[partId] ?? emptyFileState), ...patch } })), []);
+
+  /** Save the draft now (after any save in flight); resolves to the request id. */
+  const flush = useCallback(async (): Promise<string | null> => {
+    const run = inflight.current.then(async () => {
+      const values = getValues();
+      const parsed = draftSchema.safeParse(values);
+      if (!parsed.success) {
+        setSave({ kind: "error", message: "Not saved yet: some fields need attention." });
+        return values.requestId ?? null;
+      }
+      setSave({ kind: "saving" });
+      const res = await saveDraft(values);
+      if (!res.ok) {
+        setSave({ kind: "error", message: res.message });
+        return values.requestId ?? null;
+      }
+      if (!values.requestId) {
+        setValue("requestId", res.data.requestId);
+        setReference(res.data.reference);
+        // Keep the address of the saved draft so a reload finds it.
+        window.history.replaceState(null, "", `/portal/requests/${res.data.requestId}`);
+      }
+      for (const [partId, analysisId] of Object.entries(res.data.analyses)) setFile(partId, { analysisId });
+      setSave({ kind: "saved", at: new Date() });
+      return res.data.requestId;
+    });
+    inflight.current = run.catch(() => null);
+    return run;
+  }, [getValues, setValue, setFile]);
+
+  // Autosave a moment after the last change.
+  const watched = useWatch({ control });
+  const first = useRef(true);
+  useEffect(() => {
+    if (first.current) {
+      first.current = false;
+      return;
+    }
+    const t = setTimeout(() => void flush(), 1200);
+    return () => clearTimeout(t);
+  }, [watched, flush]);
+
+  function addPart() {
+    const id = crypto.randomUUID();
+    const u = catalogue.unitsPref;
+    parts.append({
+      id,
+      name: `Part ${parts.fields.length + 1}`,
+      materialKey: catalogue.materials[0]?.key ?? "",
+      allowance: u === "in" ? Math.round((catalogue.defaultAllowanceMm / 25.4) * 1000) / 1000 : catalogue.defaultAllowanceMm,
+      quantity: 1,
+      printMode: "solid",
+      units: u,
+      unitsConfirmed: false,
+      cellKey: "",
+    });
+    setFile(id, emptyFileState);
+  }
+
+  async function uploaded(index: number, uploadId: string) {
+    const partId = getValues(`parts.${index}.id`);
+    setFile(partId, { error: null });
+    const requestId = await flush();
+    if (!requestId) {
+      setFile(partId, { error: "The draft could not be saved, so the file was not attached. Fix the highlighted fields and upload again." });
+      return;
+    }
+    const res = await attachPartFile({ requestId, partId, uploadId });
+    if (!res.ok) {
+      setFile(partId, { error: res.message });
+      return;
+    }
+    setValue(`parts.${index}.unitsConfirmed`, false);
+    setFile(partId, { revisionId: res.data.revisionId, fileName: res.data.fileName, revision: res.data.revision, analysisId: res.data.analysisId, error: null });
+  }
+
+  async function next() {
+    const ok = step === 0 ? await trigger("project") : await trigger("parts");
+    if (!ok) return;
+    await flush();
+    setStep((s) => Math.min(s + 1, STEPS.length - 1));
+    window.scrollTo({ top: 0 });
+  }
+
+  const onSubmit = handleSubmit(async (values) => {
+    setFormError(null);
+    setPartErrors({});
+    setSubmitting(true);
+    try {
+      await inflight.current;
+      const res = await submitRequest(values);
+      if (!res.ok) {
+        setFormError(res.message);
+        const pe: Record<number, string> = {};
+        for (const [k, msgs] of Object.entries(res.fieldErrors ?? {})) {
+          const m = /^parts\.(\d+)\.(\w+)$/.exec(k);
+          if (m && m[2] === "file") pe[Number(m[1])] = msgs[0] ?? "";
+          else if (m) setError(`parts.${Number(m[1])}.${m[2]}` as "parts.0.name", { message: msgs[0] });
+          else if (k.startsWith("project.")) setError(k as "project.projectName", { message: msgs[0] });
+        }
+        setPartErrors(pe);
+        if (Object.keys(res.fieldErrors ?? {}).some((k) => k.startsWith("project."))) setStep(0);
+        else if (Object.keys(res.fieldErrors ?? {}).some((k) => k.startsWith("parts"))) setStep(1);
+        return;
+      }
+      router.push(`/portal/requests/${res.data.requestId}?submitted=1`);
+    } finally {
+      setSubmitting(false);
+    }
+  });
+
+  const project = useWatch({ control, name: "project" });
+  const cureNum = project.cureTemp === undefined || project.cureTemp === "" || project.cureTemp === null ? null : Number(project.cureTemp);
+  const cureC = cureNum === null || Number.isNaN(cureNum) ? null : project.cureTempUnit === "F" ? fToC(cureNum) : cureNum;
+
+  return (
+    <FormProvider {...form}>
+      <form onSubmit={onSubmit} noValidate className="space-y-6">
+        <div className="flex flex-col gap-3 sm:flex-row sm:items-center sm:justify-between">
+          <ol className="flex flex-wrap gap-2 text-sm" aria-label="Steps">
+            {STEPS.map((label, i) => (
+              <li key={label}>
+                <button
+                  type="button"
+                  onClick={() => (i < step ? setStep(i) : void next())}
+                  aria-current={i === step ? "step" : undefined}
+                  className={`rounded-full px-3 py-1 ring-1 ring-inset ${i === step ? "bg-ink-800 text-white ring-ink-800" : i < step ? "bg-tide-50 text-tide-700 ring-tide-100" : "bg-white text-ink-500 ring-paper-300"}`}
+                >
+                  {i + 1}. {label}
+                </button>
+              </li>
+            ))}
+          </ol>
+          <p className="text-xs text-ink-500" role="status" aria-live="polite" data-testid="save-state">
+            {reference ? <span className="mr-2 font-mono text-ink-700">{reference}</span> : null}
+            {save.kind === "saving" ? "Saving draft…" : save.kind === "saved" ? `Draft saved ${save.at.toLocaleTimeString("en-GB", { hour: "2-digit", minute: "2-digit" })}` : save.kind === "error" ? save.message : reference ? "Draft" : "Not saved yet"}
+          </p>
+        </div>
+
+        <div hidden={step !== 0}>
+          <ProjectStep />
+        </div>
+
+        <div hidden={step !== 1} className="space-y-4">
+          {parts.fields.length === 0 ? (
+            <EmptyState title="No parts yet">Add a part for each mold, plug or fixture; each gets its own file, material and allowance.</EmptyState>
+          ) : null}
+          {parts.fields.map((f, i) => (
+            <PartCard
+              key={f._key}
+              index={i}
+              catalogue={catalogue}
+              file={files[f.id] ?? emptyFileState}
+              serverError={partErrors[i]}
+              onUploaded={(uploadId) => uploaded(i, uploadId)}
+              onFileError={(message) => setFile(f.id, { error: message })}
+              onRemove={() => parts.remove(i)}
+            />
+          ))}
+          <Button type="button" variant="secondary" onClick={addPart}>
+            + Add a part
+          </Button>
+        </div>
+
+        <div hidden={step !== 2} className="space-y-4">
+          {step === 2 ? (
+            <ReviewList catalogue={catalogue} files={files} cureTempC={cureC} />
+          ) : null}
+        </div>
+
+        <FormMessage>{formError}</FormMessage>
+        <div className="flex flex-wrap items-center gap-3 border-t border-paper-200 pt-4">
+          {step > 0 ? (
+            <Button type="button" variant="secondary" onClick={() => setStep((s) => s - 1)}>
+              Back
+            </Button>
+          ) : null}
+          {step < STEPS.length - 1 ? (
+            <Button type="button" onClick={() => void next()}>
+              Continue
+            </Button>
+          ) : (
+            <Button type="submit" disabled={submitting}>
+              {submitting ? "Submitting…" : "Submit to the bureau"}
+            </Button>
+          )}
+          <span className="text-xs text-ink-500">Your draft is kept on our server; you can leave and come back.</span>
+        </div>
+      </form>
+    </FormProvider>
+  );
+}
+
+function ReviewList({ catalogue, files, cureTempC }: { catalogue: CatalogueForForm; files: Record<string, PartFileState>; cureTempC: number | null }) {
+  const parts = useWatch<DraftInput, "parts">({ name: "parts" });
+  if (parts.length === 0) return <EmptyState title="Add at least one part before submitting" />;
+  return (
+    <>
+      {parts.map((p) => (
+        <ReviewItem key={p.id} part={p} file={files[p.id] ?? emptyFileState} catalogue={catalogue} cureTempC={cureTempC} />
+      ))}
+    </>
+  );
+}
+
+function ReviewItem({ part, file, catalogue, cureTempC }: { part: DraftInput["parts"][number]; file: PartFileState; catalogue: CatalogueForForm; cureTempC: number | null }) {
+  const a = useAnalysis(file.analysisId);
+  if (!file.revisionId) return <EmptyState title={`${part.name}: no file yet`}>Go back to Parts and upload its model.</EmptyState>;
+  if (a.data?.status === "failed") return <EmptyState title={`${part.name}: the file could not be analysed`}>{a.data.error?.message}</EmptyState>;
+  if (!a.data?.result) return <EmptyState title={`${part.name}: analysing…`}>The estimate appears here when the analysis finishes.</EmptyState>;
+  return (
+    <PartReview
+      title={`${part.name} · ${file.fileName ?? ""}`}
+      revisionId={file.revisionId}
+      result={a.data.result}
+      fileUnits={part.units}
+      displayUnits={catalogue.unitsPref}
+      cells={catalogue.cells}
+      cureTempC={cureTempC}
+    />
+  );
+}

@@ -1,0 +1,55 @@
+import type { Stage } from "@/db/schema/common";
+import { FLOW } from "@/lib/orders/stages";
+import { cn } from "@/components/ui/cn";
+import { STAGE_LABEL } from "./stage-badge";
+
+export interface TimelineEvent {
+  toStage: Stage;
+  at: Date;
+  note: string | null;
+  actorName: string | null;
+}
+
+const day = (d: Date) => d.toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" });
+
+/** The order's life as a vertical timeline: actual dates where reached, planned dates ahead. */
+export function StageTimeline({ stage, events, planned }: { stage: Stage; events: TimelineEvent[]; planned: Partial<Record<Stage, Date | null>> }) {
+  const reached = new Map<Stage, TimelineEvent>();
+  for (const e of events) reached.set(e.toStage, e);
+  const current = FLOW.indexOf(stage === "on_hold" ? (events.at(-2)?.toStage ?? "draft") : stage);
+  const off = stage === "on_hold" || stage === "cancelled";
+  return (
+    <ol className="relative space-y-0 text-sm" aria-label="Order timeline">
+      {FLOW.map((s, i) => {
+        const ev = reached.get(s);
+        const done = i <= current && Boolean(ev || i === 0);
+        const isNow = s === stage;
+        const plan = planned[s];
+        return (
+          <li key={s} className="relative flex gap-3 pb-3 last:pb-0">
+            <span className="flex flex-col items-center">
+              <span className={cn("mt-1 h-3 w-3 rounded-full ring-2", isNow ? "bg-kiln-500 ring-kiln-100" : done ? "bg-tide-500 ring-tide-100" : "bg-white ring-paper-300")} aria-hidden="true" />
+              {i < FLOW.length - 1 ? <span className={cn("w-px flex-1", done && i < current ? "bg-tide-500" : "bg-paper-300")} aria-hidden="true" /> : null}
+            </span>
+            <div className="min-w-0 pb-1">
+              <p className={cn("font-medium", isNow ? "text-kiln-700" : done ? "text-ink-800" : "text-ink-400")}>
+                {STAGE_LABEL[s]}
+                {isNow ? <span className="sr-only"> (current)</span> : null}
+              </p>
+              <p className="text-xs text-ink-500">
+                {ev ? `${day(ev.at)}${ev.actorName ? ` · ${ev.actorName}` : ""}` : plan ? `planned ${day(plan)}` : null}
+                {ev?.note ? ` · ${ev.note}` : ""}
+              </p>
+            </div>
+          </li>
+        );
+      })}
+      {off ? (
+        <li className="mt-2 rounded bg-amber-50 px-3 py-2 text-amber-900">
+          {STAGE_LABEL[stage]}
+          {events.at(-1)?.note ? `: ${events.at(-1)!.note}` : ""}
+        </li>
+      ) : null}
+    </ol>
+  );
+}
