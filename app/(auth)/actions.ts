@@ -56,7 +56,13 @@ export async function requestMagicLink(_prev: FormResult, formData: FormData): P
   if (!parsed.success) {
     return { ok: false, code: "invalid_input", message: "Check the highlighted fields.", fieldErrors: fieldErrorsOf(parsed.error) };
   }
-  await signIn("email", { email: parsed.data.email.toLowerCase(), redirect: false, redirectTo: "/after-sign-in" });
+  try {
+    await signIn("email", { email: parsed.data.email.toLowerCase(), redirect: false, redirectTo: "/after-sign-in" });
+  } catch (e) {
+    // Say nothing that tells whether the address has an account; log what went wrong.
+    if (!(e instanceof AuthError)) throw e;
+    console.error("sign-in link request failed", e.type);
+  }
   redirect("/sign-in/check-email");
 }
 

@@ -86,7 +86,10 @@ export const authConfig = {
     },
   ],
   callbacks: {
-    async signIn({ user, account }) {
+    async signIn({ user, account, email }) {
+      // Asking for a link always "succeeds" (the link is only sent to existing accounts), so the
+      // page says the same for every address; using a link needs an existing, enabled account.
+      if (email?.verificationRequest) return true;
       if (account?.provider === "email") {
         const existing = user.email ? await getUserForSignIn(getDb(), user.email) : null;
         return Boolean(existing && !existing.disabledAt);

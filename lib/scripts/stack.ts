@@ -21,11 +21,13 @@ export interface StackPorts {
 export const DEMO_PORTS: StackPorts = { app: 3000, stripe: 4010, resend: 4020, uploads: 4030 };
 
 /** Environment that points every service at the local fakes. */
-export function stackEnv(ports: StackPorts, dataDir: string, extra: Record<string, string> = {}, host = "127.0.0.1"): Record<string, string> {
+export function stackEnv(ports: StackPorts, dataDir: string, extra: Record<string, string> = {}, host = "localhost"): Record<string, string> {
   const appUrl = `http://${host}:${ports.app}`;
   return {
     NODE_ENV: "production",
     APP_URL: appUrl,
+    // Auth.js builds its links from this; without it `next start` reports its host as localhost.
+    AUTH_URL: appUrl,
     AUTH_TRUST_HOST: "true",
     AUTH_SECRET: process.env.AUTH_SECRET ?? "layerwright-local-demo-secret-change-me",
     DATA_DIR: dataDir,
@@ -74,7 +76,8 @@ function run(cmd: string, args: string[], env: Record<string, string>, label: st
     (child as ChildProcess & { tail?: string[] }).tail = tail;
   }
   child.on("exit", (code, signal) => {
-    if (code && code !== 0) console.error(`${label} exited with ${code ?? signal}`);
+    // 143 = stopped by our own SIGTERM.
+    if (code && code !== 0 && code !== 143) console.error(`${label} exited with ${code ?? signal}`);
   });
   return child;
 }
@@ -86,14 +89,17 @@ export async function startStack(opts: {
   distDir?: string;
   quiet?: boolean;
   extraEnv?: Record<string, string>;
-  /** Host name in the app's own links (the demo uses localhost, tests 127.0.0.1). */
+  /**
+   * Host name of the app's own links. Auth.js answers with the host `next start` reports
+   * (localhost), so the browser must use the same name or its cookies go astray.
+   */
   host?: string;
 }): Promise<RunningStack> {
-  const host = opts.host ?? "127.0.0.1";
+  const host = opts.host ?? "localhost";
   const env = stackEnv(opts.ports, opts.dataDir, { NEXT_DIST_DIR: opts.distDir ?? ".next", ...(opts.extraEnv ?? {}) }, host);
   const quiet = opts.quiet ?? false;
   const fakes = run(path.join(root, "node_modules/.bin/tsx"), ["mocks/start.ts"], env, "local fakes", quiet);
-  const app = run(path.join(root, "node_modules/.bin/next"), ["start", "-p", String(opts.ports.app), ...(host === "127.0.0.1" ? ["-H", host] : [])], env, "next start", quiet);
+  const app = run(path.join(root, "node_modules/.bin/next"), ["start", "-p", String(opts.ports.app), "-H", host], env, "next start", quiet);
   const processes = [fakes, app];
   const stop = async () => {
     for (const p of processes) if (p.exitCode === null) p.kill("SIGTERM");
@@ -102,7 +108,7 @@ export async function startStack(opts: {
   try {
     await waitForHttp(`http://127.0.0.1:${opts.ports.stripe}/health`, 60_000);
     await waitForHttp(`http://127.0.0.1:${opts.ports.uploads}/health`, 30_000);
-    await waitForHttp(`http://127.0.0.1:${opts.ports.app}/sign-in`, 90_000);
+    await waitForHttp(`http://${host}:${opts.ports.app}/sign-in`, 90_000);
     await loadSeedProcessorRecords(opts.dataDir, opts.ports.stripe);
   } catch (e) {
     const tails = processes.map((p) => ((p as ChildProcess & { tail?: string[] }).tail ?? []).join("\n")).join("\n---\n");

@@ -26,9 +26,9 @@ export async function startStack(): Promise<TestStack> {
   const dbUrl = `file:${path.join(dataDir, "layerwright.db")}`;
   await migrateDatabase(dbUrl);
   const { db, client } = openDb(dbUrl);
-  await seed(db, { dataDir, fileBaseUrl: `http://127.0.0.1:${ports.uploads}/f`, quiet: true });
+  await seed(db, { dataDir, fileBaseUrl: `http://localhost:${ports.uploads}/f`, quiet: true });
   client.close();
-  const stack = await startProcesses({ ports, dataDir, distDir: E2E_DIST_DIR, quiet: true });
+  const stack = await startProcesses({ ports, dataDir, distDir: E2E_DIST_DIR, quiet: !process.env.E2E_VERBOSE });
   return {
     ...stack,
     dataDir,

@@ -54,6 +54,65 @@ describe("smoke: every role lands on its own home", () => {
     await context.close();
   });
 
+  it("an e-mail link signs in once; the same link again gets a clear page and no session", async () => {
+    const { context, page } = await newPage(browser);
+    await page.goto(`${stack.baseUrl}/sign-in`);
+    await page.getByLabel("E-mail for a sign-in link").fill("buyer@bramblewake.example");
+    await page.getByRole("button", { name: "E-mail me a sign-in link" }).click();
+    await page.waitForURL(/check-email/);
+    const db = createClient({ url: stack.dbUrl });
+    let html = "";
+    for (let i = 0; i < 40 && !html; i++) {
+      const r = await db.execute("SELECT html FROM email_outbox WHERE to_addresses LIKE '%buyer@bramblewake.example%' ORDER BY created_at DESC LIMIT 1");
+      html = String(r.rows[0]?.html ?? "");
+      if (!html) await new Promise((res) => setTimeout(res, 250));
+    }
+    db.close();
+    const link = html.match(/href="([^"]*callback\/email[^"]*)"/)?.[1]?.replaceAll("&amp;", "&");
+    expect(link, "sign-in link in the outbox").toBeTruthy();
+    await page.goto(link!);
+    await page.waitForURL((u) => u.pathname === "/portal");
+    await context.close();
+
+    const second = await newPage(browser);
+    await second.page.goto(link!);
+    await second.page.waitForURL(/sign-in\/problem/);
+    await expect(second.page.getByText(/expired or has already been used/).waitFor()).resolves.toBeUndefined();
+    const home = await second.page.goto(`${stack.baseUrl}/portal`);
+    expect(new URL(home!.url()).pathname).toBe("/sign-in");
+    await second.context.close();
+  });
+
+  it("an unknown address asking for a link sees the same page, and nothing is sent", async () => {
+    const { context, page } = await newPage(browser);
+    await page.goto(`${stack.baseUrl}/sign-in`);
+    await page.getByLabel("E-mail for a sign-in link").fill("stranger@nowhere.example");
+    await page.getByRole("button", { name: "E-mail me a sign-in link" }).click();
+    await page.waitForURL(/check-email/);
+    const db = createClient({ url: stack.dbUrl });
+    const r = await db.execute("SELECT count(*) AS n FROM email_outbox WHERE to_addresses LIKE '%stranger@nowhere.example%'");
+    db.close();
+    expect(Number(r.rows[0]?.n)).toBe(0);
+    await context.close();
+  });
+
+  it("five wrong passwords pause sign-in for that account, even with the right password", async () => {
+    const { context, page } = await newPage(browser);
+    for (let i = 0; i < 5; i++) {
+      await page.goto(`${stack.baseUrl}/sign-in`);
+      await page.getByLabel("E-mail", { exact: true }).fill("lab@hollinsridge.example");
+      await page.getByLabel("Password").fill(`wrong-${i}`);
+      await page.getByRole("button", { name: "Sign in", exact: true }).click();
+      await page.getByRole("alert").first().waitFor();
+    }
+    await page.goto(`${stack.baseUrl}/sign-in`);
+    await page.getByLabel("E-mail", { exact: true }).fill("lab@hollinsridge.example");
+    await page.getByLabel("Password").fill(DEMO_PASSWORDS.client_admin);
+    await page.getByRole("button", { name: "Sign in", exact: true }).click();
+    await expect(page.getByRole("alert").filter({ hasText: "Too many failed attempts" }).waitFor()).resolves.toBeUndefined();
+    await context.close();
+  });
+
   it("a client is refused /admin (403) and gets 404 for another firm's order", async () => {
     const { context, page } = await newPage(browser);
     await signIn(page, stack.baseUrl, "engineer@kittering.example", DEMO_PASSWORDS.client);
