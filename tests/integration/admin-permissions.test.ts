@@ -40,8 +40,8 @@ afterAll(() => t?.close());
 
 const as = (role: Role | null) => (session.current = role ? { user: { id: userIds[role] } } : null);
 
-type PageModule = { default: (props: { params: Promise<Record<string, string>> }) => Promise<unknown> };
-const PAGES: { path: string; permission: Permission; load: () => Promise<PageModule>; params?: () => Record<string, string> }[] = [
+type PageModule = { default: (props: { params: Promise<{ id: string }> }) => Promise<unknown> };
+const PAGES: { path: string; permission: Permission; load: () => Promise<PageModule>; params?: () => { id: string } }[] = [
   { path: "/admin/sales", permission: "sales:inbox", load: () => import("@/app/admin/sales/page") },
   { path: "/admin/sales/quotes", permission: "quote:manage", load: () => import("@/app/admin/sales/quotes/page") },
   { path: "/admin/sales/requests/[id]", permission: "sales:inbox", load: () => import("@/app/admin/sales/requests/[id]/page"), params: () => ({ id: ids.request }) },
@@ -82,7 +82,7 @@ describe("every /admin page × every role", () => {
         const mod = await page.load();
         let outcome: string = "opened";
         try {
-          await mod.default({ params: Promise.resolve(page.params?.() ?? {}) });
+          await mod.default({ params: Promise.resolve(page.params?.() ?? { id: "" }) });
         } catch (e) {
           outcome = interruptOf(e) ?? `threw ${(e as Error).message}`;
         }
