@@ -2,6 +2,7 @@
 
 import { OrbitControls } from "@react-three/drei";
 import { Canvas } from "@react-three/fiber";
+import { useQuery } from "@tanstack/react-query";
 import { useEffect, useMemo, useState } from "react";
 import * as THREE from "three";
 import { mergeVertices } from "three/examples/jsm/utils/BufferGeometryUtils.js";
@@ -23,22 +24,20 @@ export interface PartViewerProps {
 type Loaded = { status: "loading" } | { status: "error"; message: string } | { status: "ready"; positions: Float32Array; triangles: number };
 
 function useMesh(revisionId: string, units: "mm" | "in"): Loaded {
-  const [state, setState] = useState<Loaded>({ status: "loading" });
-  useEffect(() => {
-    let alive = true;
-    setState({ status: "loading" });
-    fetch(`/api/portal/revisions/${revisionId}/mesh?units=${units}`)
-      .then(async (res) => {
-        if (!res.ok) throw new Error(((await res.json().catch(() => null)) as { error?: { message?: string } } | null)?.error?.message ?? `The server answered ${res.status}.`);
-        const buf = await res.arrayBuffer();
-        if (alive) setState({ status: "ready", positions: new Float32Array(buf), triangles: Number(res.headers.get("x-triangles") ?? buf.byteLength / 36) });
-      })
-      .catch((e: Error) => alive && setState({ status: "error", message: e.message }));
-    return () => {
-      alive = false;
-    };
-  }, [revisionId, units]);
-  return state;
+  const q = useQuery({
+    queryKey: ["mesh", revisionId, units],
+    queryFn: async () => {
+      const res = await fetch(`/api/portal/revisions/${revisionId}/mesh?units=${units}`);
+      if (!res.ok) throw new Error(((await res.json().catch(() => null)) as { error?: { message?: string } } | null)?.error?.message ?? `The server answered ${res.status}.`);
+      const buf = await res.arrayBuffer();
+      return { positions: new Float32Array(buf), triangles: Number(res.headers.get("x-triangles") ?? buf.byteLength / 36) };
+    },
+    staleTime: Infinity,
+    retry: 1,
+  });
+  if (q.isError) return { status: "error", message: q.error.message };
+  if (!q.data) return { status: "loading" };
+  return { status: "ready", ...q.data };
 }
 
 /** Build-space geometry (z up), moved so the part sits on the bed at the envelope's centre. */

@@ -56,14 +56,14 @@ export async function listPaymentsForOrder(db: Db | Tx, orderId: string) {
   return db.select(paymentColumns).from(payments).where(eq(payments.orderId, orderId)).orderBy(desc(payments.createdAt));
 }
 
-/** Every payment of a firm (client_admin's payments page). */
-export async function listPaymentsForOrg(db: Db, orgId: string) {
+/** Every payment of a firm (client_admin), or of one member's requests (client). */
+export async function listPaymentsForOrg(db: Db, orgId: string, createdById?: string) {
   return db
     .select({ ...paymentColumns, reference: requests.reference, projectName: requests.projectName, requestId: requests.id })
     .from(payments)
     .innerJoin(orders, eq(orders.id, payments.orderId))
     .innerJoin(requests, eq(requests.id, orders.requestId))
-    .where(eq(payments.orgId, orgId))
+    .where(createdById ? and(eq(payments.orgId, orgId), eq(requests.createdById, createdById)) : eq(payments.orgId, orgId))
     .orderBy(desc(payments.createdAt));
 }
 

@@ -1,0 +1,48 @@
+import type { Metadata } from "next";
+import { getDb } from "@/db/client";
+import { listMembers } from "@/db/queries/members";
+import { getOrganisation } from "@/db/queries/organisations";
+import { BillingForm, InviteForm, RemoveMemberButton } from "@/components/portal/firm-forms";
+import { Badge } from "@/components/ui/badge";
+import { Card, CardTitle, PageHeader } from "@/components/ui/card";
+import { pagePermission } from "@/lib/auth/page-guard";
+import { notFound } from "next/navigation";
+
+export const metadata: Metadata = { title: "Firm & members" };
+export const dynamic = "force-dynamic";
+
+export default async function FirmPage() {
+  const user = await pagePermission("members:manage", "/portal/firm");
+  if (!user.orgId) notFound();
+  const db = getDb();
+  const [org, members] = await Promise.all([getOrganisation(db, user.orgId), listMembers(db, user.orgId)]);
+  if (!org) notFound();
+  return (
+    <>
+      <PageHeader title={org.name} subtitle="Members of your firm, and how the bureau bills you." />
+      <div className="space-y-6">
+        <Card className="space-y-4">
+          <CardTitle>Members</CardTitle>
+          <ul className="divide-y divide-paper-200">
+            {members.map((m) => (
+              <li key={m.id} className="flex flex-wrap items-center gap-x-3 gap-y-1 py-2 text-sm">
+                <span className="min-w-0 flex-1">
+                  <span className="block font-medium text-ink-800">{m.name ?? m.email}</span>
+                  <span className="block text-xs text-ink-500">{m.email}</span>
+                </span>
+                <Badge tone={m.role === "client_admin" ? "accent" : "neutral"}>{m.role === "client_admin" ? "Lead" : "Engineer"}</Badge>
+                {m.disabledAt ? <Badge tone="danger">disabled</Badge> : !m.hasPassword ? <Badge tone="info">invited</Badge> : null}
+                <RemoveMemberButton userId={m.id} email={m.email} isSelf={m.id === user.id} />
+              </li>
+            ))}
+          </ul>
+          <InviteForm />
+        </Card>
+        <Card className="space-y-4">
+          <CardTitle>Billing</CardTitle>
+          <BillingForm initial={{ billingContact: org.billingContact ?? "", billingEmail: org.billingEmail ?? "", defaultPoNumber: org.defaultPoNumber ?? "" }} />
+        </Card>
+      </div>
+    </>
+  );
+}

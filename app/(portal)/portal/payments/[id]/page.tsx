@@ -1,0 +1,64 @@
+import type { Metadata } from "next";
+import { getDb } from "@/db/client";
+import { getOrganisation } from "@/db/queries/organisations";
+import { getOrderWithRequest, getPayment } from "@/db/queries/payments";
+import { Card, PageHeader } from "@/components/ui/card";
+import { assertCanSee } from "@/lib/auth/guard";
+import { orPageError, pageUser } from "@/lib/auth/page-guard";
+import { formatCents } from "@/lib/money";
+
+export const metadata: Metadata = { title: "Receipt" };
+export const dynamic = "force-dynamic";
+
+const day = (d: Date | null) => (d ? d.toLocaleDateString("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" }) : "—");
+
+/** Our receipt for one payment (the processor's own receipt link is shown when it gave one). */
+export default async function ReceiptPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const user = await pageUser(`/portal/payments/${id}`);
+  const db = getDb();
+  const { payment, order, request } = await orPageError(async () => {
+    const p = await getPayment(db, id);
+    const row = p ? await getOrderWithRequest(db, p.orderId) : null;
+    assertCanSee(user, row ? { orgId: row.request.orgId, createdById: row.request.createdById } : null, "payment");
+    if (p!.status !== "paid" && !p!.status.includes("refunded")) assertCanSee(user, null, "receipt");
+    return { payment: p!, order: row!.order, request: row!.request };
+  });
+  const org = await getOrganisation(db, request.orgId);
+  return (
+    <>
+      <PageHeader title={`Receipt · ${payment.kind}`} subtitle={`${request.reference} · ${request.projectName}`} />
+      <Card className="max-w-xl space-y-3 text-sm">
+        <dl className="grid grid-cols-[10rem_1fr] gap-y-2">
+          <dt className="text-ink-500">Received from</dt>
+          <dd>{org?.name}</dd>
+          <dt className="text-ink-500">Received by</dt>
+          <dd>Saltgrass Additive Works</dd>
+          <dt className="text-ink-500">For</dt>
+          <dd>
+            {payment.kind === "deposit" ? "Deposit" : "Balance"} on order {request.reference}, PO {order.poNumber}
+          </dd>
+          <dt className="text-ink-500">Amount</dt>
+          <dd className="figures font-semibold">{formatCents(payment.amountCents, payment.currency)}</dd>
+          {payment.refundedCents > 0 ? (
+            <>
+              <dt className="text-ink-500">Refunded</dt>
+              <dd className="figures">{formatCents(payment.refundedCents, payment.currency)}</dd>
+            </>
+          ) : null}
+          <dt className="text-ink-500">Paid on</dt>
+          <dd>{day(payment.paidAt)}</dd>
+          <dt className="text-ink-500">Order total</dt>
+          <dd className="figures">{formatCents(order.totalCents, order.currency)} (sales-approved quote)</dd>
+          <dt className="text-ink-500">Card payment ref.</dt>
+          <dd className="font-mono text-xs">{payment.paymentIntentId ?? "—"}</dd>
+        </dl>
+        {payment.receiptUrl ? (
+          <a href={payment.receiptUrl} className="text-kiln-700 underline" rel="noreferrer">
+            The card processor&rsquo;s receipt
+          </a>
+        ) : null}
+      </Card>
+    </>
+  );
+}

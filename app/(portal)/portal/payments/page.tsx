@@ -1,0 +1,68 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { getDb } from "@/db/client";
+import { listPaymentsForOrg } from "@/db/queries/payments";
+import { Badge } from "@/components/ui/badge";
+import { EmptyState, PageHeader } from "@/components/ui/card";
+import { pagePermission } from "@/lib/auth/page-guard";
+import { formatCents } from "@/lib/money";
+
+export const metadata: Metadata = { title: "Payments" };
+export const dynamic = "force-dynamic";
+
+const day = (d: Date | null) => (d ? d.toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" }) : "—");
+
+export default async function PaymentsPage() {
+  const user = await pagePermission("payment:pay", "/portal/payments");
+  const rows = user.orgId ? await listPaymentsForOrg(getDb(), user.orgId, user.role === "client_admin" ? undefined : user.id) : [];
+  return (
+    <>
+      <PageHeader title="Payments" subtitle={user.role === "client_admin" ? "Every deposit and balance of your firm, with receipts." : "Payments on your requests, with receipts."} />
+      {rows.length === 0 ? (
+        <EmptyState title="No payments yet">Deposits are paid by card when you accept a quote; the balance when the order ships.</EmptyState>
+      ) : (
+        <div className="overflow-x-auto rounded-md bg-white ring-1 ring-paper-200">
+          <table className="min-w-full text-sm">
+            <thead className="bg-paper-100 text-left text-xs uppercase tracking-wide text-ink-500">
+              <tr>
+                <th className="px-4 py-2">Order</th>
+                <th className="px-4 py-2">Kind</th>
+                <th className="px-4 py-2 text-right">Amount</th>
+                <th className="px-4 py-2">Status</th>
+                <th className="px-4 py-2">Paid</th>
+                <th className="px-4 py-2">Receipt</th>
+              </tr>
+            </thead>
+            <tbody className="divide-y divide-paper-200">
+              {rows.map((p) => (
+                <tr key={p.id}>
+                  <td className="px-4 py-2">
+                    <Link href={`/portal/requests/${p.requestId}`} className="font-mono text-kiln-700 underline">
+                      {p.reference}
+                    </Link>
+                    <span className="block text-xs text-ink-500">{p.projectName}</span>
+                  </td>
+                  <td className="px-4 py-2 capitalize">{p.kind}</td>
+                  <td className="figures px-4 py-2 text-right">{formatCents(p.amountCents, p.currency)}</td>
+                  <td className="px-4 py-2">
+                    <Badge tone={p.status === "paid" ? "ok" : p.status === "pending" ? "info" : "neutral"}>{p.status.replace("_", " ")}</Badge>
+                  </td>
+                  <td className="whitespace-nowrap px-4 py-2">{day(p.paidAt)}</td>
+                  <td className="px-4 py-2">
+                    {p.status === "paid" || p.status.includes("refunded") ? (
+                      <Link href={`/portal/payments/${p.id}`} className="text-kiln-700 underline">
+                        View
+                      </Link>
+                    ) : (
+                      "—"
+                    )}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </>
+  );
+}
