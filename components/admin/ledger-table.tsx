@@ -27,7 +27,7 @@ interface LedgerRow {
 }
 
 const columns: ColumnDef<LedgerRow, unknown>[] = [
-  { accessorKey: "reference", header: "Order", cell: ({ row }) => <Link className="font-medium text-kiln-700 underline" href={`/admin/accounts/payments/${row.original.id}`}>{row.original.reference}</Link> },
+  { accessorKey: "reference", header: "Order", cell: ({ row }) => <Link className="font-medium text-kiln-700 underline" href={`/admin/accounts/payments/${row.original.id}`}><span className="whitespace-nowrap">{row.original.reference}</span></Link> },
   { accessorKey: "firmName", header: "Firm", enableSorting: false },
   { accessorKey: "kind", header: "Kind", enableSorting: false },
   { accessorKey: "status", header: "Status", cell: ({ getValue }) => <StatusBadge value={getValue() as string} /> },

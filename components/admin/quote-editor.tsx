@@ -94,7 +94,7 @@ export function QuoteEditor({ requestId, quoteId, basisAnalysisIds, initial, isS
           const err = errors[`lines.${i}`]?.[0];
           return (
             <div key={r.key} className="rounded border border-paper-200 p-3">
-              <div className="grid gap-2 sm:grid-cols-[7rem_1fr_6rem_8rem_8rem_auto] sm:items-end">
+              <div className="grid gap-2 sm:grid-cols-[9.5rem_1fr_6rem_8rem_8rem_auto] sm:items-end">
                 <Field label="Kind" htmlFor={`kind-${r.key}`}>
                   <Select id={`kind-${r.key}`} value={r.kind} onChange={(e) => update(r.key, { kind: e.target.value as Row["kind"] })}>
                     {LINE_KINDS.map((k) => (
