@@ -1,5 +1,6 @@
 "use client";
 
+import Link from "next/link";
 import { useActionState } from "react";
 import { requestMagicLink, signInWithPassword } from "@/app/(auth)/actions";
 import { Button } from "@/components/ui/button";
@@ -25,6 +26,11 @@ export function SignInForm({ callbackUrl }: { callbackUrl?: string }) {
         <Button type="submit" className="w-full" disabled={pending}>
           {pending ? "Signing in…" : "Sign in"}
         </Button>
+        <p className="text-right text-sm">
+          <Link href="/reset" className="font-medium text-kiln-700 underline">
+            Forgot your password?
+          </Link>
+        </p>
       </form>
 
       <div className="flex items-center gap-3 text-xs uppercase tracking-wide text-ink-400">

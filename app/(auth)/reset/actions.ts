@@ -1,0 +1,58 @@
+"use server";
+
+import { after } from "next/server";
+import { headers } from "next/headers";
+import { redirect } from "next/navigation";
+import { getDb } from "@/db/client";
+import { completePasswordReset, requestPasswordReset } from "@/lib/auth/password-reset";
+import { sendEmail } from "@/lib/email/send";
+import { env } from "@/lib/env";
+import type { ActionResult } from "@/lib/errors";
+import { resetPasswordSchema, resetRequestSchema } from "@/lib/validation/password-reset";
+
+type FormResult = ActionResult<undefined> | null;
+
+function fieldErrorsOf(error: { issues: { path: PropertyKey[]; message: string }[] }) {
+  const out: Record<string, string[]> = {};
+  for (const issue of error.issues) (out[String(issue.path[0] ?? "form")] ??= []).push(issue.message);
+  return out;
+}
+
+async function clientAddress(): Promise<string> {
+  const h = await headers();
+  return h.get("x-forwarded-for")?.split(",")[0]?.trim() || h.get("x-real-ip") || "local";
+}
+
+export async function requestPasswordResetAction(_prev: FormResult, formData: FormData): Promise<FormResult> {
+  const parsed = resetRequestSchema.safeParse({ email: formData.get("email") });
+  if (!parsed.success) return { ok: false, code: "invalid_input", message: "Check the highlighted fields.", fieldErrors: fieldErrorsOf(parsed.error) };
+  const outcome = await requestPasswordReset(getDb(), {
+    email: parsed.data.email,
+    address: await clientAddress(),
+    appUrl: env().APP_URL,
+    now: new Date(),
+    // Sent after the answer, so known and unknown addresses take the same time to answer.
+    send: (msg) =>
+      after(() =>
+        sendEmail(msg).catch((e: unknown) => {
+          console.error("password reset e-mail failed", e);
+        }),
+      ),
+  });
+  if (outcome === "throttled") {
+    return { ok: false, code: "rate_limited", message: "Too many reset requests. Please wait 15 minutes before asking again." };
+  }
+  redirect("/reset/sent");
+}
+
+export async function resetPasswordAction(_prev: FormResult, formData: FormData): Promise<FormResult> {
+  const parsed = resetPasswordSchema.safeParse({ token: formData.get("token"), password: formData.get("password"), confirm: formData.get("confirm") });
+  if (!parsed.success) {
+    const fieldErrors = fieldErrorsOf(parsed.error);
+    if (fieldErrors.token) return { ok: false, code: "invalid_input", message: fieldErrors.token[0]! };
+    return { ok: false, code: "invalid_input", message: "Check the highlighted fields.", fieldErrors };
+  }
+  const done = await completePasswordReset(getDb(), { token: parsed.data.token, password: parsed.data.password, now: new Date() });
+  if (!done) return { ok: false, code: "invalid_input:token", message: "This reset link has expired or has already been used. Ask for a new one." };
+  redirect("/reset/done");
+}
