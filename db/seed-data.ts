@@ -50,6 +50,8 @@ export interface DemoRequest {
   allowanceMm?: number;
   units?: "mm" | "in";
   quantity?: number;
+  /** Shell print with this many walls; solid when absent. */
+  shellWalls?: number;
   notes?: string;
   daysAgo: number;
 }
@@ -58,20 +60,20 @@ export interface DemoRequest {
 export const DEMO_REQUESTS: DemoRequest[] = [
   { project: "Spar cap tool — long span", firm: "kittering", by: "engineer@kittering.example", stage: "draft", cure: "autoclave", cureTempC: 177, partCte: 3, mesh: "too-long-beam", material: "pesu-cf", daysAgo: 1, notes: "Longer than any cell; expect a split." },
   { project: "Inlet duct layup tool", firm: "kittering", by: "engineer@kittering.example", stage: "submitted", cure: "autoclave", cureTempC: 177, partCte: 3, controlled: true, mesh: "layup-mold", material: "pesu-cf", daysAgo: 3 },
-  { project: "Deck hatch plug", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "quoted", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", allowanceMm: 6.35, daysAgo: 6 },
+  { project: "Deck hatch plug", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "quoted", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", shellWalls: 3, allowanceMm: 6.35, daysAgo: 6 },
   { project: "Composite coupon drill fixture", firm: "hollins", by: "lab@hollinsridge.example", stage: "accepted", cure: "oven", cureTempC: 120, mesh: "drill-fixture", material: "petg-gf", daysAgo: 9, notes: "Budget-limited; solid print is fine." },
   { project: "Access panel layup tool", firm: "kittering", by: "lead@kittering.example", stage: "deposit_paid", cure: "autoclave", cureTempC: 177, partCte: 3, mesh: "layup-mold", material: "psu-cf", daysAgo: 14 },
   { project: "Fairing trim fixture", firm: "kittering", by: "engineer@kittering.example", stage: "scheduled", cure: "room", cureTempC: null, mesh: "trim-fixture", material: "abs-cf", daysAgo: 18 },
-  { project: "Transom plug, 28 ft hull", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "printing", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", daysAgo: 22 },
+  { project: "Transom plug, 28 ft hull", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "printing", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", shellWalls: 3, daysAgo: 22 },
   { project: "Wing-to-body fairing mold", firm: "kittering", by: "lead@kittering.example", stage: "cooling", cure: "oven", cureTempC: 120, partCte: 3, mesh: "layup-mold", material: "pc-cf", daysAgo: 26 },
   { project: "Sandwich panel press fixture", firm: "hollins", by: "lab@hollinsridge.example", stage: "machining", cure: "oven", cureTempC: 90, mesh: "drill-fixture", material: "pa-cf", daysAgo: 30 },
   { project: "Radome layup tool", firm: "kittering", by: "engineer@kittering.example", stage: "inspection", cure: "autoclave", cureTempC: 177, partCte: 3, controlled: true, mesh: "layup-mold", material: "pei-cf", daysAgo: 34 },
-  { project: "Console mold, centre console", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "finishing", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", daysAgo: 40 },
+  { project: "Console mold, centre console", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "finishing", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", shellWalls: 3, daysAgo: 40 },
   { project: "Stiffener drill jig", firm: "kittering", by: "lead@kittering.example", stage: "packed", cure: "room", cureTempC: null, mesh: "drill-fixture", material: "pc-cf", daysAgo: 44 },
-  { project: "Cockpit liner plug", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "shipped", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", daysAgo: 50 },
+  { project: "Cockpit liner plug", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "shipped", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", shellWalls: 3, daysAgo: 50 },
   { project: "Tensile coupon layup plate", firm: "hollins", by: "lab@hollinsridge.example", stage: "delivered", cure: "oven", cureTempC: 120, mesh: "trim-fixture", material: "pps-cf", daysAgo: 58 },
   { project: "Flap track fairing tool", firm: "kittering", by: "lead@kittering.example", stage: "closed", cure: "autoclave", cureTempC: 177, partCte: 3, mesh: "layup-mold", material: "pesu-cf", daysAgo: 75 },
-  { project: "Bow thruster tunnel plug", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "on_hold", heldFrom: "quoted", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", daysAgo: 12, notes: "On hold while the yard confirms the hull lines." },
+  { project: "Bow thruster tunnel plug", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "on_hold", heldFrom: "quoted", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", shellWalls: 3, daysAgo: 12, notes: "On hold while the yard confirms the hull lines." },
   { project: "Antenna bracket fixture", firm: "hollins", by: "lab@hollinsridge.example", stage: "cancelled", cure: "room", cureTempC: null, mesh: "drill-fixture", material: "petg-gf", daysAgo: 20 },
   // A second, autoclave request on a material rated below the cure: the portal warns.
   { project: "Nacelle inner skin tool (trial)", firm: "kittering", by: "engineer@kittering.example", stage: "draft", cure: "autoclave", cureTempC: 177, partCte: 3, mesh: "layup-mold", material: "abs-cf", daysAgo: 0 },

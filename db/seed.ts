@@ -16,6 +16,7 @@ import { shareOfCents } from "../lib/money";
 import { binaryStl, drillFixture, hullPlugInches, layupMold, tooLongBeam, extrude, type IndexedMesh } from "../mocks/fixtures/meshes";
 import { openDb, type Db } from "./client";
 import * as s from "./schema";
+import type { Stage } from "./schema/common";
 import { DEMO_PASSWORDS, DEMO_REQUESTS, DEMO_USERS, FIRMS, type DemoMeshKey, type DemoRequest } from "./seed-data";
 import { processorRecordsFor, type SeedProcessorRecord } from "./seed-processor";
 import { FileStore } from "../mocks/uploadthing/store";
@@ -106,7 +107,7 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
   // ---- meshes, analysed once per kind and options ----
   const analysed = new Map<string, { bytes: Uint8Array; result: EstimateResult }>();
   async function analysis(r: DemoRequest) {
-    const key = `${r.mesh}|${r.material}|${r.units ?? "mm"}|${r.allowanceMm ?? defaultRateCard.defaultAllowanceMm}`;
+    const key = `${r.mesh}|${r.material}|${r.units ?? "mm"}|${r.allowanceMm ?? defaultRateCard.defaultAllowanceMm}|${r.shellWalls ?? "solid"}`;
     const hit = analysed.get(key);
     if (hit) return hit;
     const m = MESHES[r.mesh];
@@ -114,7 +115,7 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
     const result = await analyse({
       bytes,
       fileName: m.file,
-      options: { units: r.units ?? "mm", materialKey: r.material, allowanceMm: r.allowanceMm ?? defaultRateCard.defaultAllowanceMm },
+      options: { ...optionsOf(r), cureTempC: r.cureTempC ?? undefined, partCtePpmPerK: r.partCte },
       catalogue,
       now,
     });
@@ -169,6 +170,8 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
           quantity: r.quantity ?? 1,
           units: r.units ?? "mm",
           unitsConfirmed: true,
+          printMode: r.shellWalls ? "shell" : "solid",
+          shellWalls: r.shellWalls ?? 2,
           cellKey: result.cell,
           createdAt: created,
         })
@@ -207,7 +210,7 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
         revisionId: rev!.id,
         status: "done",
         progress: 1,
-        options: { units: r.units ?? "mm", materialKey: r.material, allowanceMm: r.allowanceMm ?? defaultRateCard.defaultAllowanceMm },
+        options: optionsOf(r),
         result: result as unknown as Record<string, unknown>,
         rateCardId: rateCard!.id,
         createdAt: created,
@@ -319,8 +322,7 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
       }
 
       if (reached >= FLOW.indexOf("scheduled")) {
-        const start = new Date(result.schedule.printStart).getTime() - r.daysAgo * DAY * 0.5;
-        const blocks = scheduleFrom(result, start);
+        const blocks = scheduleFrom(result, printStartFor(effective, result, now));
         await tx.insert(s.scheduleBlocks).values(blocks.map((b) => ({ orderId: order!.id, cellKey: result.cell, ...b })));
       }
     });
@@ -334,6 +336,15 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
     for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(13)} ${u.email.padEnd(30)} ${DEMO_PASSWORDS[u.role]}`);
   }
   return { users: DEMO_USERS.length, requests: DEMO_REQUESTS.length, processorRecords };
+}
+
+function optionsOf(r: DemoRequest) {
+  return {
+    units: r.units ?? "mm",
+    materialKey: r.material,
+    allowanceMm: r.allowanceMm ?? defaultRateCard.defaultAllowanceMm,
+    shellWalls: r.shellWalls ?? null,
+  } as const;
 }
 
 function lineKind(key: string): (typeof s.QUOTE_LINE_KINDS)[number] {
@@ -362,6 +373,34 @@ function seedPayment(n: number, kind: "deposit" | "balance", amountCents: number
       paidAt: paid ? at : null,
     },
   };
+}
+
+/**
+ * When the seeded job's print started, so that its blocks sit where its stage says: a scheduled
+ * job prints in two days, a printing job is half-way through, later stages lie in the past.
+ */
+function printStartFor(stage: Stage, result: EstimateResult, now: Date): number {
+  const sch = result.schedule;
+  const t = (iso: string) => new Date(iso).getTime();
+  const from = t(sch.printStart);
+  const nowMs = now.getTime();
+  const HOUR = 3_600_000;
+  switch (stage) {
+    case "scheduled":
+      return nowMs + 2 * DAY;
+    case "printing":
+      return nowMs - (t(sch.printEnd) - from) / 2;
+    case "cooling":
+      return nowMs - (t(sch.printEnd) - from) - HOUR;
+    case "machining":
+      return nowMs - (t(sch.coolingEnd) - from) - 2 * HOUR;
+    case "inspection":
+      return nowMs - (t(sch.machiningEnd) - from) - 4 * HOUR;
+    default: {
+      const later = FLOW.indexOf(stage) - FLOW.indexOf("finishing");
+      return nowMs - (t(sch.shipDate) - from) - (1 + 3 * later) * DAY;
+    }
+  }
 }
 
 function scheduleFrom(result: EstimateResult, startMs: number) {
