@@ -136,7 +136,7 @@ export function PartViewer({ revisionId, fileUnits, displayUnits, orientation, e
       <figcaption className="flex flex-wrap items-center gap-x-5 gap-y-2 border-t border-ink-700 px-4 py-2 text-xs text-paper-200">
         {geo ? (
           <span data-testid="bounding-size">
-            Part bounding size: <strong className="figures text-white">{formatSize(geo.size, displayUnits)}</strong>
+            Bounding size as built: <strong className="figures text-white">{formatSize(geo.size, displayUnits)}</strong>
           </span>
         ) : null}
         {mesh.status === "ready" ? <span className="text-paper-300">{mesh.triangles.toLocaleString("en-US")} triangles</span> : null}

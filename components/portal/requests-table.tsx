@@ -58,7 +58,7 @@ export function RequestsTable({ showAuthor }: { showAuthor: boolean }) {
         accessorKey: "reference",
         header: "Ref",
         cell: ({ row }) => (
-          <Link href={`/portal/requests/${row.original.id}`} className="font-mono text-sm font-medium text-kiln-700 underline-offset-2 hover:underline">
+          <Link href={`/portal/requests/${row.original.id}`} className="whitespace-nowrap font-mono text-sm font-medium text-kiln-700 underline-offset-2 hover:underline">
             {row.original.reference}
           </Link>
         ),

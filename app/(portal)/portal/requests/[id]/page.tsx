@@ -83,7 +83,9 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
         subtitle={
           <span className="flex flex-wrap items-center gap-2">
             <span className="font-mono">{req.reference}</span>
-            <StageBadge stage={req.stage} />
+            <span data-testid="request-stage" data-stage={req.stage}>
+              <StageBadge stage={req.stage} />
+            </span>
             {req.isControlled ? <Badge tone="warn">Controlled data</Badge> : null}
             <span>
               {req.cureProcess} cure{req.cureTempC !== null ? ` at ${formatTemp(req.cureTempC, units)}` : ""} · needed by {day(req.neededBy)}
