@@ -37,7 +37,8 @@ describe("back office journeys", () => {
     const client = await open("lead@kittering.example", DEMO_PASSWORDS.client_admin);
     await client.goto(`${stack.baseUrl}/portal`);
     await client.getByText(reference).first().click();
-    await expect(client.getByText(/quote/i).first().isVisible()).resolves.toBe(true);
+    await client.waitForURL(/\/portal\/requests\//);
+    await client.getByText(/quote/i).first().waitFor();
     await shot(client, "admin-e2e-client-sees-quote");
     await client.context().close();
   }, 120_000);
