@@ -1,4 +1,5 @@
 import { execFileSync } from "node:child_process";
+import { readFileSync } from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { binaryStl, box } from "../../mocks/fixtures/meshes";
@@ -49,5 +50,26 @@ describe("estimate pool (worker threads)", () => {
     await expect(pool.run(input(binaryStl(box(1000, 500, 400))))).rejects.toBeInstanceOf(EstimateJobError);
     const ok = make({ size: 1, timeLimitMs: 30_000 });
     await expect(ok.run(input(binaryStl(box(1000, 500, 400))))).resolves.toHaveProperty("totalCents");
+  });
+
+  it("tessellates STEP in the worker and retires a worker whose CAD kernel memory passed the limit", async () => {
+    // cube-10x10.stp: a 10 mm cube from the occt-import-js test files (mocks/fixtures/cad/README.md).
+    const step = new Uint8Array(readFileSync(path.join(root, "mocks/fixtures/cad/cube-10x10.stp")));
+    const keep = make({ size: 1 });
+    const r1 = await keep.run(input(step, "cube-10x10.stp"));
+    await keep.run(input(step, "cube-10x10.stp"));
+    expect(r1.format).toBe("step");
+    expect(r1.volumeMm3).toBeCloseTo(1000, 3);
+    expect(keep.workersStarted).toBe(1);
+
+    process.env.ESTIMATE_WASM_RETIRE_MB = "1";
+    try {
+      const retire = make({ size: 1 });
+      await retire.run(input(step, "cube-10x10.stp"));
+      await retire.run(input(step, "cube-10x10.stp"));
+      expect(retire.workersStarted).toBe(2);
+    } finally {
+      delete process.env.ESTIMATE_WASM_RETIRE_MB;
+    }
   });
 });

@@ -65,6 +65,7 @@ export class EstimatePool {
   private readonly queue: Job[] = [];
   private nextId = 1;
   private closed = false;
+  private started = 0;
 
   constructor(opts: PoolOptions = {}) {
     this.size = Math.max(1, Math.min(8, opts.size ?? 1));
@@ -72,6 +73,11 @@ export class EstimatePool {
     this.timeLimitMs = opts.timeLimitMs ?? 60_000;
     this.heapMb = opts.maxOldGenerationSizeMb ?? 1024;
     this.workerPath = opts.workerPath ?? defaultWorkerPath();
+  }
+
+  /** Workers started so far (a retired or crashed worker is replaced by a new one). */
+  get workersStarted(): number {
+    return this.started;
   }
 
   /** Jobs waiting plus running. */
@@ -111,13 +117,19 @@ export class EstimatePool {
 
   private spawn(): Slot {
     const worker = new Worker(this.workerPath, { resourceLimits: { maxOldGenerationSizeMb: this.heapMb } });
+    this.started += 1;
     const slot: Slot = { worker, job: null, timer: null };
     worker.unref();
-    worker.on("message", (msg: { id: number; type: string; fraction?: number; stage?: string; result?: EstimateResult; error?: { name: string; code: string; message: string } }) => {
+    worker.on("message", (msg: { id: number; type: string; fraction?: number; stage?: string; result?: EstimateResult; error?: { name: string; code: string; message: string }; retire?: boolean }) => {
       const job = slot.job;
       if (!job || msg.id !== job.id) return;
       if (msg.type === "progress") { try { job.onProgress?.(msg.fraction ?? 0, msg.stage ?? ""); } catch { /* a failing listener must not kill the job */ } return; }
       this.finish(slot);
+      if (msg.retire) {
+        // Its CAD kernel's memory has grown past the limit: replace the worker before the next job.
+        this.remove(slot);
+        void slot.worker.terminate();
+      }
       if (msg.type === "result") job.resolve(msg.result!);
       else {
         const e = msg.error!;

@@ -1,11 +1,20 @@
 import { parentPort } from "node:worker_threads";
 import { analyse, type AnalyseInput } from "./analyse";
+import { loadedOcctHeapBytes } from "./readers/step-occt";
+
+/**
+ * The CAD kernel's WebAssembly memory only grows and no thread limit covers it, so after each
+ * file a worker whose kernel holds more than this asks to be retired (a fresh one loads the
+ * kernel again in about a quarter of a second).
+ */
+const RETIRE_ABOVE_BYTES = (Number(process.env.ESTIMATE_WASM_RETIRE_MB) || 768) * 1024 * 1024;
 
 /**
  * Worker-thread entry of the estimate pool. Bundled on its own by lib/scripts/build-worker.ts into
  * .worker/estimate-worker.mjs (the app's bundler never sees it). Messages:
  * in  { id, input }; out { id, type: "progress", fraction, stage } | { id, type: "result", result }
- * | { id, type: "error", error: { name, code, message } }.
+ * | { id, type: "error", error: { name, code, message } }; each result or error may carry
+ * `retire: true` when the worker should be replaced before its next job.
  */
 if (!parentPort) throw new Error("estimate worker must run in a worker thread");
 const port = parentPort;
@@ -13,9 +22,14 @@ port.on("message", async (msg: { id: number; input: AnalyseInput }) => {
   const { id, input } = msg;
   try {
     const result = await analyse(input, (fraction, stage) => port.postMessage({ id, type: "progress", fraction, stage }));
-    port.postMessage({ id, type: "result", result });
+    port.postMessage({ id, type: "result", result, retire: shouldRetire() });
   } catch (e) {
     const err = e as { name?: string; code?: string; message?: string };
-    port.postMessage({ id, type: "error", error: { name: err?.name ?? "Error", code: err?.code ?? "internal", message: err?.message ?? String(e) } });
+    port.postMessage({ id, type: "error", error: { name: err?.name ?? "Error", code: err?.code ?? "internal", message: err?.message ?? String(e) }, retire: shouldRetire() });
   }
 });
+
+function shouldRetire(): boolean {
+  const heap = loadedOcctHeapBytes();
+  return heap !== null && heap > RETIRE_ABOVE_BYTES;
+}

@@ -40,6 +40,7 @@ export interface OcctModule {
 type Factory = (overrides?: Record<string, unknown>) => Promise<OcctModule>;
 
 let cached: Promise<OcctModule> | null = null;
+let loaded: OcctModule | null = null;
 let loadMs: number | null = null;
 let sink: ((line: string) => void) | null = null;
 
@@ -56,6 +57,7 @@ export function loadOcct(): Promise<OcctModule> {
     cached = factory({ print: route, printErr: route }).then(
       (m) => {
         loadMs = performance.now() - t0;
+        loaded = m;
         return m;
       },
       (e: unknown) => {
@@ -73,6 +75,7 @@ export function loadOcct(): Promise<OcctModule> {
  */
 export function dropOcct(): void {
   cached = null;
+  loaded = null;
   loadMs = null;
 }
 
@@ -101,4 +104,9 @@ export function occtLoadMs(): number | null {
  */
 export function occtHeapBytes(m: OcctModule): number {
   return m.HEAPU8.buffer.byteLength;
+}
+
+/** WASM bytes held by the kernel if this process has loaded it, else null (loads nothing). */
+export function loadedOcctHeapBytes(): number | null {
+  return loaded ? occtHeapBytes(loaded) : null;
 }
