@@ -105,7 +105,10 @@ async function rerunChangedAnalyses(requestId: string): Promise<Record<string, s
   for (const p of withRev) {
     const options = analysisOptionsFor(p, req);
     const a = latest.get(p.currentRevisionId!);
-    if (a && sameOptions(a.options, options as Record<string, unknown>)) continue;
+    // Confirming the units the engine guessed changes nothing: compare with the guess filled in.
+    const guessed = (a?.result as { units?: string } | null)?.units;
+    const before = a ? { ...(guessed && a.options.units === undefined ? { units: guessed } : {}), ...a.options } : null;
+    if (a && sameOptions(before, options as Record<string, unknown>)) continue;
     const rev = await getRevision(db, p.currentRevisionId!);
     if (!rev) continue;
     const { analysisId } = await startAnalysis(db, { revisionId: rev.id, fileKey: rev.fileKey, fileName: rev.fileName, options });
