@@ -1,0 +1,35 @@
+import { render } from "@react-email/render";
+import { createElement, type FC } from "react";
+import { describe, expect, it } from "vitest";
+import BalanceDueEmail from "./balance-due";
+import DepositReceivedEmail from "./deposit-received";
+import MemberInviteEmail from "./member-invite";
+import QuoteReadyEmail from "./quote-ready";
+import RequestReceivedEmail from "./request-received";
+import ScheduledEmail from "./scheduled";
+import ShippedEmail from "./shipped";
+
+type Template = FC<never> & { PreviewProps: object };
+const text = async (t: Template, props: object = t.PreviewProps) => (await render(createElement(t as FC<object>, props), { plainText: true })).replace(/\s+/g, " ");
+
+describe("client e-mail templates render their preview props", () => {
+  it.each([
+    ["request-received", RequestReceivedEmail, ["LW-2026-0042", "Automatic estimate (not an offer): $18,420.00"]],
+    ["quote-ready", QuoteReadyEmail, ["Quote version 2", "$9,552.50", "Valid until 15 January 2027"]],
+    ["deposit-received", DepositReceivedEmail, ["$9,552.50", "PO KA-PO-7781"]],
+    ["scheduled", ScheduledEmail, ["Long Bed", "12 January 2027", "2 February 2027"]],
+    ["shipped", ShippedEmail, ["HF-88213-04", "340 kg", "lifting procedures"]],
+    ["balance-due", BalanceDueEmail, ["balance of $9,552.50"]],
+    ["member-invite", MemberInviteEmail, ["Kittering Aerostructures", "one-time link"]],
+  ] as const)("%s", async (_name, t, expected) => {
+    const out = await text(t as unknown as Template);
+    for (const e of expected) expect(out).toContain(e);
+  });
+
+  it("the sales copy of request-received reads as a notice to the bureau", async () => {
+    const t = RequestReceivedEmail as unknown as Template;
+    const out = await text(t, { ...RequestReceivedEmail.PreviewProps, forSales: true, isControlled: true });
+    expect(out.toLowerCase()).toContain("new request lw-2026-0042 from kittering aerostructures");
+    expect(out).toContain("flagged controlled");
+  });
+});
