@@ -10,7 +10,7 @@ import ScheduledEmail from "./scheduled";
 import ShippedEmail from "./shipped";
 
 type Template = FC<never> & { PreviewProps: object };
-const text = async (t: Template, props: object = t.PreviewProps) => (await render(createElement(t as FC<object>, props), { plainText: true })).replace(/\s+/g, " ");
+const text = async (t: Template, props: object = t.PreviewProps) => (await render(createElement(t as unknown as FC<object>, props), { plainText: true })).replace(/\s+/g, " ");
 
 describe("client e-mail templates render their preview props", () => {
   it.each([

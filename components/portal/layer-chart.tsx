@@ -10,6 +10,13 @@ export interface LayerChartProps {
   units: UnitsPref;
 }
 
+/** A small marker, so hundreds of flagged layers stay readable. */
+function FlagDot(props: unknown) {
+  const { cx, cy } = props as { cx?: number; cy?: number };
+  if (cx === undefined || cy === undefined) return <g />;
+  return <circle cx={cx} cy={cy} r={2} fill="#b42318" />;
+}
+
 /** Layer time across the build height, with the material's cooling window shaded. */
 export function LayerChart({ layerChart, minLayerTimeS, maxLayerTimeS, units }: LayerChartProps) {
   const toH = (mm: number) => (units === "in" ? Math.round(mmToIn(mm) * 100) / 100 : Math.round(mm));
@@ -34,7 +41,7 @@ export function LayerChart({ layerChart, minLayerTimeS, maxLayerTimeS, units }: 
             <Legend verticalAlign="top" height={24} wrapperStyle={{ fontSize: 11 }} />
             <Line type="stepAfter" dataKey="time" name="Path time" stroke="#6b7480" dot={false} strokeWidth={1.2} isAnimationActive={false} />
             <Line type="stepAfter" dataKey="total" name="With dwell" stroke="#d9692a" dot={false} strokeWidth={1.6} isAnimationActive={false} />
-            <Scatter dataKey="flagged" name="Flagged layer" fill="#b42318" isAnimationActive={false} />
+            <Scatter dataKey="flagged" name="Flagged layer" fill="#b42318" isAnimationActive={false} shape={FlagDot} />
           </ComposedChart>
         </ResponsiveContainer>
       </div>

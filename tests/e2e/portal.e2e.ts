@@ -50,7 +50,8 @@ describe("client portal journey", () => {
     await page.locator('[id="parts.0.file"]').setInputFiles(MOLD_STL.file);
     await waitForEstimate(page, 0);
     await page.getByLabel(/Confirm millimetres|Units confirmed/).check();
-    // The catalogue's first material is rated below a 177 °C cure: the warning shows on the part.
+    // A material rated below a 177 °C cure gets a warning on the part (the default is a rated one).
+    await page.getByLabel("Material").selectOption("abs-cf");
     await expect(page.getByTestId("material-warnings").textContent()).resolves.toMatch(/177 °C cure/);
     await page.getByLabel("Material").selectOption("pesu-cf");
     await both(page, "new-parts");

@@ -18,6 +18,14 @@ import { emptyFileState, type CatalogueForForm, type PartFileState } from "./typ
 
 const STEPS = ["Project", "Parts", "Review & submit"] as const;
 
+/** The first catalogue material rated for the stated cure temperature (else the first one). */
+function defaultMaterial(catalogue: CatalogueForForm, project: DraftInput["project"]): string {
+  const t = project.cureTemp === undefined || project.cureTemp === "" || project.cureTemp === null ? NaN : Number(project.cureTemp);
+  const c = Number.isNaN(t) ? null : project.cureTempUnit === "F" ? fToC(t) : t;
+  const ok = c === null ? undefined : catalogue.materials.find((m) => m.maxServiceTempC >= c);
+  return (ok ?? catalogue.materials[0])?.key ?? "";
+}
+
 type SaveState = { kind: "idle" } | { kind: "saving" } | { kind: "saved"; at: Date } | { kind: "error"; message: string };
 
 export interface RequestFormProps {
@@ -91,7 +99,7 @@ export function RequestForm({ initial, initialFiles, reference: initialRef, cata
     parts.append({
       id,
       name: `Part ${parts.fields.length + 1}`,
-      materialKey: catalogue.materials[0]?.key ?? "",
+      materialKey: defaultMaterial(catalogue, getValues("project")),
       allowance: u === "in" ? Math.round((catalogue.defaultAllowanceMm / 25.4) * 1000) / 1000 : catalogue.defaultAllowanceMm,
       quantity: 1,
       printMode: "solid",
