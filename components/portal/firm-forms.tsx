@@ -24,14 +24,14 @@ export function InviteForm() {
     router.refresh();
   }
   return (
-    <form onSubmit={submit} className="grid gap-3 sm:grid-cols-[1fr_12rem_auto] sm:items-end" aria-label="Invite a colleague">
+    <form onSubmit={submit} className="grid gap-3 sm:grid-cols-[1fr_16rem_auto] sm:items-end" aria-label="Invite a colleague">
       <Field label="Colleague's e-mail" htmlFor="invite-email">
         <Input id="invite-email" type="email" value={email} onChange={(e) => setEmail(e.target.value)} required />
       </Field>
       <Field label="Role" htmlFor="invite-role">
         <Select id="invite-role" value={role} onChange={(e) => setRole(e.target.value)}>
-          <option value="client">Engineer (own requests)</option>
-          <option value="client_admin">Lead (whole firm, members, billing)</option>
+          <option value="client">Engineer: own requests</option>
+          <option value="client_admin">Lead: firm, members, billing</option>
         </Select>
       </Field>
       <Button type="submit" disabled={busy}>

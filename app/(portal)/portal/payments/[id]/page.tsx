@@ -51,7 +51,7 @@ export default async function ReceiptPage({ params }: { params: Promise<{ id: st
           <dt className="text-ink-500">Order total</dt>
           <dd className="figures">{formatCents(order.totalCents, order.currency)} (sales-approved quote)</dd>
           <dt className="text-ink-500">Card payment ref.</dt>
-          <dd className="font-mono text-xs">{payment.paymentIntentId ?? "—"}</dd>
+          <dd className="break-all font-mono text-xs">{payment.paymentIntentId ?? "—"}</dd>
         </dl>
         {payment.receiptUrl ? (
           <a href={payment.receiptUrl} className="text-kiln-700 underline" rel="noreferrer">

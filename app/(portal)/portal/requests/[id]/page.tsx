@@ -168,7 +168,10 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
           <div className="space-y-6">
             <Card>
               <CardTitle className="mb-3">Timeline</CardTitle>
-              <StageTimeline stage={req.stage} events={events.map((e) => ({ toStage: e.toStage, at: e.at, note: e.note, actorName: e.actorName }))} planned={planned} />
+              <StageTimeline stage={req.stage} events={[
+                  ...(events.some((e) => e.toStage === "draft") ? [] : [{ toStage: "draft" as const, at: req.createdAt, note: "Draft started", actorName: null }]),
+                  ...events.map((e) => ({ toStage: e.toStage, at: e.at, note: e.note, actorName: e.actorName })),
+                ]} planned={planned} />
             </Card>
             <Card>
               <CardTitle className="mb-3">Documents</CardTitle>
