@@ -1,7 +1,8 @@
 import { eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { Db } from "../../db/client";
-import { uploads, users } from "../../db/schema";
+import { readFileSync } from "node:fs";
+import { fileRevisions, parts, requests, uploads, users } from "../../db/schema";
 import { binaryStl, box } from "../../mocks/fixtures/meshes";
 import { createTestDb, type TestDb } from "../helpers/test-db";
 
@@ -67,4 +68,34 @@ describe("POST /api/estimate", () => {
     expect((await call({ uploadId })).status).toBe(401);
     session.current = keep;
   });
+});
+
+describe("STEP files in the portal (issue 7 item 5)", () => {
+  it("estimates a STEP upload and serves its tessellated mesh to the preview", async () => {
+    // "Cube 10x10.stp": a 10 mm cube from occt-import-js's test files (origin in mocks/fixtures/cad/README.md).
+    const step = new Uint8Array(readFileSync("mocks/fixtures/cad/cube-10x10.stp"));
+    files.set("kstep", step);
+    const me = session.current!.user.id;
+    const [up] = await db.insert(uploads).values({ fileKey: "kstep", fileName: "cube.step", sizeBytes: step.length, url: "http://127.0.0.1:1/f/kstep", userId: me, purpose: "model" }).returning({ id: uploads.id });
+    const res = await call({ uploadId: up!.id, options: { materialKey: "pc-cf" } });
+    expect(res.status).toBe(200);
+    const r = (await res.json()) as { format: string; bboxMm: number[]; volumeMm3: number };
+    expect(r.format).toBe("step");
+    for (const v of r.bboxMm) expect(v).toBeCloseTo(10, 3);
+    expect(r.volumeMm3).toBeCloseTo(1000, 0);
+
+    const [req] = await db.select({ id: requests.id }).from(requests).where(eq(requests.createdById, me)).limit(1);
+    const [p] = await db.insert(parts).values({ requestId: req!.id, name: "Cube", materialKey: "pc-cf", allowanceMm: 1 }).returning({ id: parts.id });
+    const [rev] = await db.insert(fileRevisions).values({ partId: p!.id, revision: 1, uploadId: up!.id, fileKey: "kstep", fileName: "cube.step", sizeBytes: step.length, uploadedById: me }).returning({ id: fileRevisions.id });
+    const { GET } = await import("../../app/api/portal/revisions/[id]/mesh/route");
+    const mesh = await GET(new Request(`http://localhost/api/portal/revisions/${rev!.id}/mesh`), { params: Promise.resolve({ id: rev!.id }) });
+    expect(mesh.status).toBe(200);
+    const tri = new Float32Array(await mesh.arrayBuffer());
+    // A cube tessellates to 12 triangles, 9 floats each, 10 mm along each axis.
+    expect(tri.length).toBe(12 * 9);
+    for (let axis = 0; axis < 3; axis++) {
+      const v = Array.from(tri).filter((_, i) => i % 3 === axis);
+      expect(Math.max(...v) - Math.min(...v)).toBeCloseTo(10, 3);
+    }
+  }, 60_000);
 });
