@@ -121,6 +121,24 @@ describe("drafts, files and submission", () => {
     const [row] = await db.select({ stage: requests.stage }).from(requests).where(eq(requests.id, requestId));
     expect(row!.stage).toBe("submitted");
   }, 90_000);
+
+  it("a new revision of a submitted part re-runs the analysis and marks the open quote stale", async () => {
+    const me = await as("engineer@kittering.example");
+    const [q] = await db.insert(quotes).values({ requestId, version: 1, status: "issued", totalCents: 100_000, depositCents: 50_000 }).returning({ id: quotes.id });
+    const { attachPartFile } = await import("../../app/(portal)/portal/requests/actions");
+    const r = await attachPartFile({ requestId, partId, uploadId: await storeUpload(me, "rib-rev2.stl", binaryStl(box(820, 400, 200))) });
+    expect(r.ok, r.ok ? "" : r.message).toBe(true);
+    if (r.ok) expect(r.data.revision).toBe(2);
+    const [after] = await db.select({ isStale: quotes.isStale }).from(quotes).where(eq(quotes.id, q!.id));
+    expect(after!.isStale).toBe(true);
+    // The accept action refuses a stale quote.
+    await db.update(requests).set({ stage: "quoted" }).where(eq(requests.id, requestId));
+    const { acceptQuote } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const refused = await acceptQuote({ quoteId: q!.id, poNumber: "KA-1", acceptTerms: true });
+    expect(refused.ok ? "" : refused.message).toMatch(/changed after this quote/);
+    await db.delete(quotes).where(eq(quotes.id, q!.id));
+    await db.update(requests).set({ stage: "submitted" }).where(eq(requests.id, requestId));
+  }, 60_000);
 });
 
 describe("quotes and the deposit", () => {

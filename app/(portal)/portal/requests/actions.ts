@@ -128,10 +128,17 @@ export interface AttachedFile {
  * Attach an uploaded file to a part of a draft: check its content, add a file revision, mark any
  * quote stale and start the analysis. A bad file gets a message for that part; nothing else changes.
  */
+/** Stages in which a client may still send a new revision of a part's file (before acceptance). */
+const REVISABLE = new Set(["draft", "submitted", "quoted"]);
+
 export async function attachPartFile(input: { requestId: string; partId: string; uploadId: string }): Promise<ActionResult<AttachedFile>> {
   try {
     const user = await requirePermission("request:edit_draft");
-    const req = await editableDraft(user, String(input.requestId));
+    const db0 = getDb();
+    const found = await getRequest(db0, String(input.requestId));
+    assertCanSee(user, found ? { orgId: found.orgId, createdById: found.createdById } : null, "request");
+    if (!REVISABLE.has(found!.stage)) throw new AppError("conflict:stage", "The quote is accepted; send changed files to the bureau in a message so they can re-plan.");
+    const req = found!;
     const db = getDb();
     const part = await getPart(db, String(input.partId));
     if (!part || part.requestId !== req.id) throw new AppError("not_found:part", "That part was not found; save the draft and try again.");
@@ -154,11 +161,14 @@ export async function attachPartFile(input: { requestId: string; partId: string;
         format: check.format,
         uploadedById: user.id,
       });
-      // A new file needs a fresh guess at its units.
-      await updatePart(tx, req.id, part.id, { unitsConfirmed: false });
+      // A new file needs a fresh guess at its units (a submitted request keeps the confirmed ones).
+      if (req.stage === "draft") await updatePart(tx, req.id, part.id, { unitsConfirmed: false });
       await markQuotesStale(tx, req.id);
       return r;
     });
+    if (req.stage !== "draft") {
+      await writeAudit(db, { actorId: user.id, action: "part.revision", entityType: "part", entityId: part.id, orgId: req.orgId, after: { revision: rev.revision, fileName: upload.fileName } });
+    }
     const fresh = (await getPart(db, part.id))!;
     const { analysisId } = await startAnalysis(db, { revisionId: rev.id, fileKey: upload.fileKey, fileName: upload.fileName, options: analysisOptionsFor(fresh, req) });
     return { ok: true, data: { revisionId: rev.id, revision: rev.revision, analysisId, fileName: upload.fileName } };

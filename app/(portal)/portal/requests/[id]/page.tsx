@@ -17,6 +17,7 @@ import { RequestForm } from "@/components/portal/request-form/request-form";
 import { loadDraft, loadFormCatalogue } from "@/components/portal/request-form/load";
 import { PartReview } from "@/components/portal/request-form/part-review";
 import { StageBadge } from "@/components/portal/stage-badge";
+import { RevisionUpload } from "@/components/portal/revision-upload";
 import { StageTimeline } from "@/components/portal/timeline";
 import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
@@ -74,6 +75,7 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
     shipped: order?.plannedShip ?? acceptedQuote?.shipDate ?? quotes[0]?.shipDate ?? null,
   };
   const canPay = can(user, "payment:pay", { orgId: req.orgId, createdById: req.createdById });
+  const canRevise = (req.stage === "submitted" || req.stage === "quoted") && can(user, "request:edit_draft", { orgId: req.orgId, createdById: req.createdById });
   const checkout = sp.checkout === "success" || sp.checkout === "cancelled" ? sp.checkout : null;
 
   return (
@@ -142,27 +144,30 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
             />
 
             {parts.length === 0 ? <EmptyState title="This request has no parts" /> : null}
-            {parts.map(({ part, revision, analysis }) =>
-              revision && analysis?.status === "done" && analysis.result ? (
-                <PartReview
-                  key={part.id}
-                  title={`${part.name} · ${revision.fileName}${revision.revision > 1 ? ` (revision ${revision.revision})` : ""} · qty ${part.quantity}`}
-                  revisionId={revision.id}
-                  result={analysis.result as unknown as EstimateResult}
-                  fileUnits={part.units}
-                  displayUnits={units}
-                  cells={catalogue.cells}
-                  cureTempC={req.cureTempC}
-                />
-              ) : (
-                <Card key={part.id}>
-                  <CardTitle>{part.name}</CardTitle>
-                  <p className="mt-2 text-sm text-ink-500">
-                    {!revision ? "No file." : analysis?.status === "failed" ? `The file could not be analysed: ${analysis.errorMessage}` : "The analysis is still running."}
-                  </p>
-                </Card>
-              ),
-            )}
+            {parts.map(({ part, revision, analysis }) => (
+              <div key={part.id} className="space-y-2">
+                {revision && analysis?.status === "done" && analysis.result ? (
+                  <PartReview
+                    key={part.id}
+                    title={`${part.name} · ${revision.fileName}${revision.revision > 1 ? ` (revision ${revision.revision})` : ""} · qty ${part.quantity}`}
+                    revisionId={revision.id}
+                    result={analysis.result as unknown as EstimateResult}
+                    fileUnits={part.units}
+                    displayUnits={units}
+                    cells={catalogue.cells}
+                    cureTempC={req.cureTempC}
+                  />
+                ) : (
+                  <Card key={part.id}>
+                    <CardTitle>{part.name}</CardTitle>
+                    <p className="mt-2 text-sm text-ink-500">
+                      {!revision ? "No file." : analysis?.status === "failed" ? `The file could not be analysed: ${analysis.errorMessage}` : "The analysis is still running."}
+                    </p>
+                  </Card>
+                )}
+                {canRevise ? <RevisionUpload requestId={req.id} partId={part.id} fileName={revision?.fileName ?? null} /> : null}
+              </div>
+            ))}
           </div>
 
           <div className="space-y-6">
