@@ -5,6 +5,7 @@ import { readFileSync } from "node:fs";
 import { fileRevisions, parts, requests, uploads, users } from "../../db/schema";
 import { binaryStl, box } from "../../mocks/fixtures/meshes";
 import { createTestDb, type TestDb } from "../helpers/test-db";
+import type * as PoolModule from "../../lib/estimating/pool";
 
 const session = vi.hoisted(() => ({ current: null as null | { user: { id: string } } }));
 vi.mock("@/lib/auth/config", () => ({ auth: async () => session.current }));
@@ -14,7 +15,7 @@ const files = vi.hoisted(() => new Map<string, Uint8Array>());
 vi.mock("@/lib/uploads/uploadthing", () => ({ fetchUploadedFile: async (key: string) => files.get(key)! }));
 const poolMode = vi.hoisted(() => ({ full: false }));
 vi.mock("@/lib/estimating/pool", async (importOriginal) => {
-  const real = await importOriginal<typeof import("../../lib/estimating/pool")>();
+  const real = await importOriginal<typeof PoolModule>();
   return {
     ...real,
     getEstimatePool: () => (poolMode.full ? { run: () => Promise.reject(new real.QueueFullError(7)) } : real.getEstimatePool()),
