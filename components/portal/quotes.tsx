@@ -8,45 +8,9 @@ import { Card, CardTitle, EmptyState } from "@/components/ui/card";
 import { Field, FormMessage, Input } from "@/components/ui/input";
 import { formatCents } from "@/lib/money";
 import { FigureKind } from "./estimate-panel";
+import { day, quoteChanges, type QuoteView } from "./quote-changes";
 
-export interface QuoteView {
-  id: string;
-  version: number;
-  status: "issued" | "accepted" | "superseded" | "expired" | "declined" | "draft";
-  isStale: boolean;
-  subtotalCents: number;
-  marginCents: number;
-  taxCents: number;
-  totalCents: number;
-  depositCents: number;
-  currency: string;
-  terms: string;
-  notes: string;
-  shipDate: string | null;
-  issuedAt: string | null;
-  validUntil: string | null;
-  lines: { id: string; kind: string; description: string; quantity: number; unitCents: number; amountCents: number }[];
-}
-
-const day = (iso: string | null) => (iso ? new Date(iso).toLocaleDateString("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" }) : "—");
-
-/** What changed from the previous version: lines added, removed or re-priced, and the total. */
-export function quoteChanges(cur: QuoteView, prev: QuoteView | undefined): string[] {
-  if (!prev) return [];
-  const out: string[] = [];
-  const key = (l: QuoteView["lines"][number]) => `${l.kind}|${l.description}`;
-  const before = new Map(prev.lines.map((l) => [key(l), l]));
-  const after = new Map(cur.lines.map((l) => [key(l), l]));
-  for (const [k, l] of after) {
-    const b = before.get(k);
-    if (!b) out.push(`Added: ${l.description} (${formatCents(l.amountCents, cur.currency)})`);
-    else if (b.amountCents !== l.amountCents) out.push(`${l.description}: ${formatCents(b.amountCents, cur.currency)} → ${formatCents(l.amountCents, cur.currency)}`);
-  }
-  for (const [k, l] of before) if (!after.has(k)) out.push(`Removed: ${l.description}`);
-  if (prev.totalCents !== cur.totalCents) out.push(`Total: ${formatCents(prev.totalCents, cur.currency)} → ${formatCents(cur.totalCents, cur.currency)}`);
-  if (prev.shipDate !== cur.shipDate) out.push(`Ship date: ${day(prev.shipDate)} → ${day(cur.shipDate)}`);
-  return out.length ? out : ["No changes to the lines or total."];
-}
+export type { QuoteView };
 
 const STATUS_TONE = { issued: "accent", accepted: "ok", superseded: "neutral", expired: "warn", declined: "danger", draft: "neutral" } as const;
 
