@@ -36,10 +36,12 @@ export function ProjectStep() {
       >
         <div className="flex gap-2">
           <Input id="cureTemp" type="number" step="any" inputMode="decimal" {...register("project.cureTemp")} aria-invalid={Boolean(e.cureTemp)} />
-          <Select aria-label="Temperature unit" className="w-24" {...register("project.cureTempUnit")}>
-            <option value="C">°C</option>
-            <option value="F">°F</option>
-          </Select>
+          <div className="w-24 shrink-0">
+            <Select aria-label="Temperature unit" {...register("project.cureTempUnit")}>
+              <option value="C">°C</option>
+              <option value="F">°F</option>
+            </Select>
+          </div>
         </div>
       </Field>
       <Field
