@@ -34,3 +34,14 @@ export function EmptyState({ title, children }: { title: string; children?: Reac
 export function Skeleton({ className }: { className?: string }) {
   return <div className={cn("animate-pulse rounded bg-paper-200", className)} aria-hidden="true" />;
 }
+
+/** What a page shows while its data loads: a title bar, a line and a block. */
+export function PageSkeleton() {
+  return (
+    <div className="space-y-4" role="status" aria-label="Loading">
+      <Skeleton className="h-8 w-64" />
+      <Skeleton className="h-4 w-96 max-w-full" />
+      <Skeleton className="h-64 w-full" />
+    </div>
+  );
+}

@@ -1,26 +1,10 @@
-import type { Role, Stage } from "../../db/schema/common";
+import { STAGES, type Role, type Stage } from "../../db/schema/common";
 
 /**
  * The order's life (DESIGN.md) as a pure state machine. `next` lists the forward moves; on_hold
  * and cancelled are reachable where they make sense, and a held order returns to where it was.
  */
-export const FLOW: readonly Stage[] = [
-  "draft",
-  "submitted",
-  "quoted",
-  "accepted",
-  "deposit_paid",
-  "scheduled",
-  "printing",
-  "cooling",
-  "machining",
-  "inspection",
-  "finishing",
-  "packed",
-  "shipped",
-  "delivered",
-  "closed",
-];
+export const FLOW: readonly Stage[] = STAGES.filter((s) => s !== "on_hold" && s !== "cancelled");
 
 const NEXT: Partial<Record<Stage, Stage[]>> = {
   draft: ["submitted"],

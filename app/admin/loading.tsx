@@ -1,0 +1,5 @@
+import { PageSkeleton } from "@/components/ui/card";
+
+export default function Loading() {
+  return <PageSkeleton />;
+}
