@@ -37,7 +37,7 @@ export default async function PaymentsPage() {
               {rows.map((p) => (
                 <tr key={p.id}>
                   <td className="px-4 py-2">
-                    <Link href={`/portal/requests/${p.requestId}`} className="font-mono text-kiln-700 underline">
+                    <Link href={`/portal/requests/${p.requestId}`} className="whitespace-nowrap font-mono text-kiln-700 underline">
                       {p.reference}
                     </Link>
                     <span className="block text-xs text-ink-500">{p.projectName}</span>

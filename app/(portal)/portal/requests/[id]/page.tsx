@@ -100,7 +100,7 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
         {checkout ? <CheckoutReturn requestId={req.id} outcome={checkout} stage={req.stage} /> : null}
 
         <div className="grid gap-6 lg:grid-cols-3">
-          <div className="space-y-6 lg:col-span-2">
+          <div className="min-w-0 space-y-6 lg:col-span-2">
             {order ? (
               <Card className="space-y-4" aria-label="Order and payments">
                 <div className="flex flex-wrap items-center gap-2">
@@ -170,7 +170,7 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
             ))}
           </div>
 
-          <div className="space-y-6">
+          <div className="min-w-0 space-y-6">
             <Card>
               <CardTitle className="mb-3">Timeline</CardTitle>
               <StageTimeline stage={req.stage} events={[
