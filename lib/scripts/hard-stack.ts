@@ -1,0 +1,88 @@
+/**
+ * A throwaway copy of the product for hardening runs (faults, load, hostile input): a fresh data
+ * folder, migrated and seeded (optionally grown), the local fakes and `next start` on free
+ * loopback ports, with the app server killable and restartable on its own.
+ */
+import { spawn, type ChildProcess } from "node:child_process";
+import { existsSync, mkdtempSync, rmSync } from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { openDb } from "../../db/client";
+import { seed } from "../../db/seed";
+import { freePort, waitForHttp } from "./free-port";
+import { migrateDatabase } from "./migrate";
+import { root, startStack, type RunningStack, type StackPorts } from "./stack";
+
+export interface HardStack {
+  baseUrl: string;
+  dataDir: string;
+  dbUrl: string;
+  ports: StackPorts;
+  env: Record<string, string>;
+  distDir: string;
+  /** The app server's process (changes on restart). */
+  app: () => ChildProcess;
+  /** SIGKILL the app server (no shutdown hooks run) and wait for it to be gone. */
+  killApp: () => Promise<void>;
+  /** Start `next start` again on the same port and data. */
+  restartApp: () => Promise<void>;
+  stop: () => Promise<void>;
+}
+
+export function ensureBuilt(distDir: string): void {
+  if (!existsSync(path.join(root, distDir, "BUILD_ID"))) {
+    throw new Error(`No production build in ${distDir}: run \`NEXT_DIST_DIR=${distDir} npm run build\` first.`);
+  }
+}
+
+export async function startHardStack(opts: {
+  distDir: string;
+  extraEnv?: Record<string, string>;
+  /** Runs on the seeded database before the servers start (e.g. growing it). */
+  prepare?: (dbUrl: string, dataDir: string) => Promise<void>;
+  quiet?: boolean;
+}): Promise<HardStack> {
+  ensureBuilt(opts.distDir);
+  const dataDir = mkdtempSync(path.join(os.tmpdir(), "layerwright-hard-"));
+  const ports: StackPorts = { app: await freePort(), stripe: await freePort(), resend: await freePort(), uploads: await freePort() };
+  const dbUrl = `file:${path.join(dataDir, "layerwright.db")}`;
+  await migrateDatabase(dbUrl);
+  const { db, client } = openDb(dbUrl);
+  await seed(db, { dataDir, fileBaseUrl: `http://localhost:${ports.uploads}/f`, quiet: true });
+  client.close();
+  if (opts.prepare) await opts.prepare(dbUrl, dataDir);
+  const stack: RunningStack = await startStack({ ports, dataDir, distDir: opts.distDir, quiet: opts.quiet ?? true, extraEnv: opts.extraEnv });
+  let app = stack.processes[1]!;
+  const fakes = stack.processes[0]!;
+
+  const killApp = async () => {
+    if (app.exitCode !== null || app.signalCode) return;
+    const gone = new Promise((r) => app.once("exit", r));
+    app.kill("SIGKILL");
+    await gone;
+  };
+  const restartApp = async () => {
+    app = spawn(path.join(root, "node_modules/.bin/next"), ["start", "-p", String(ports.app), "-H", "localhost"], {
+      cwd: root,
+      env: { ...process.env, ...stack.env },
+      stdio: opts.quiet === false ? "inherit" : "ignore",
+    });
+    await waitForHttp(`${stack.baseUrl}/sign-in`, 90_000);
+  };
+  return {
+    baseUrl: stack.baseUrl,
+    dataDir,
+    dbUrl,
+    ports,
+    env: stack.env,
+    distDir: opts.distDir,
+    app: () => app,
+    killApp,
+    restartApp,
+    stop: async () => {
+      for (const p of [app, fakes]) if (p.exitCode === null && !p.signalCode) p.kill("SIGTERM");
+      await Promise.all([app, fakes].map((p) => (p.exitCode === null && !p.signalCode ? new Promise((r) => p.once("exit", r)) : null)));
+      rmSync(dataDir, { recursive: true, force: true });
+    },
+  };
+}

@@ -1,0 +1,153 @@
+/**
+ * `npm run load`: autocannon against `next start` on loopback, the seeded database grown to
+ * 10,000 orders. Each target alone at 50 connections for 30 s (capped at LOAD_MAX_REQUESTS
+ * requests), then the estimate endpoint flooded while the order list is measured beside it.
+ * Prints requests/s, p50/p99 latency and errors per target. Targets (ours): zero errors and
+ * p99 < 300 ms for the list APIs; the estimator answers 503 + Retry-After when its queue is full
+ * and the others keep their latency.
+ *
+ * LOAD_DURATION (s, default 30), LOAD_CONNECTIONS (default 50), LOAD_ORDERS (default 10000),
+ * LOAD_DIST_DIR (default .next-hard; built when missing).
+ */
+import autocannon, { type Result } from "autocannon";
+import { spawnSync } from "node:child_process";
+import { createHash, randomUUID } from "node:crypto";
+import { existsSync } from "node:fs";
+import path from "node:path";
+import { createClient } from "@libsql/client";
+import { benchPattern, binaryStl } from "../../mocks/fixtures/meshes";
+import { FileStore } from "../../mocks/uploadthing/store";
+import { growOrders } from "./grow-orders";
+import { startHardStack } from "./hard-stack";
+import { Session } from "./http-client";
+import { root } from "./stack";
+
+const DURATION = Number(process.env.LOAD_DURATION ?? 30);
+const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 50);
+const ORDERS = Number(process.env.LOAD_ORDERS ?? 10_000);
+const MAX_REQUESTS = Number(process.env.LOAD_MAX_REQUESTS ?? 200_000);
+const DIST = process.env.LOAD_DIST_DIR ?? ".next-hard";
+
+export function buildIfMissing(distDir: string) {
+  if (existsSync(path.join(root, distDir, "BUILD_ID"))) return;
+  console.log(`building into ${distDir} …`);
+  const r = spawnSync("npm", ["run", "build"], { cwd: root, stdio: "inherit", env: { ...process.env, NEXT_DIST_DIR: distDir, NEXT_TELEMETRY_DISABLED: "1" } });
+  if (r.status !== 0) throw new Error("build failed");
+}
+
+/** A 200,000-triangle part stored in the upload fake and registered as the client's upload. */
+async function storeEstimateFile(dbUrl: string, dataDir: string, uploadsPort: number): Promise<string> {
+  const bytes = Buffer.from(binaryStl(benchPattern(200_000)));
+  const key = `load-${randomUUID()}`;
+  new FileStore(dataDir).save(key, bytes, {
+    name: "pattern-200k.stl",
+    type: "model/stl",
+    customId: null,
+    contentDisposition: "attachment",
+    acl: "private",
+    fileHash: createHash("md5").update(bytes).digest("hex"),
+  });
+  const db = createClient({ url: dbUrl });
+  try {
+    const user = await db.execute("SELECT u.id, m.org_id FROM users u JOIN memberships m ON m.user_id = u.id WHERE u.email = 'lead@kittering.example'");
+    const id = randomUUID();
+    await db.execute({
+      sql: "INSERT INTO uploads (id, file_key, file_name, size_bytes, url, content_type, user_id, org_id, created_at) VALUES (?, ?, ?, ?, ?, 'model/stl', ?, ?, ?)",
+      args: [id, key, "pattern-200k.stl", bytes.length, `http://localhost:${uploadsPort}/f/${key}`, String(user.rows[0]!.id), String(user.rows[0]!.org_id), Date.now()],
+    });
+    return id;
+  } finally {
+    db.close();
+  }
+}
+
+interface Line {
+  target: string;
+  result: Result;
+  /** Status codes that are the designed answer under overload, not errors. */
+  expected?: number[];
+}
+
+function summarise({ target, result, expected = [] }: Line) {
+  const codes = Object.fromEntries(Object.entries(result.statusCodeStats).map(([k, v]) => [k, v.count]));
+  const expectedCount = expected.reduce((n, c) => n + (codes[String(c)] ?? 0), 0);
+  const errors = result.errors + result.timeouts + (result.non2xx - expectedCount);
+  return {
+    target,
+    "req/s": Math.round(result.requests.average),
+    "p50 ms": result.latency.p50,
+    "p99 ms": result.latency.p99,
+    requests: result.requests.total,
+    errors,
+    codes: Object.entries(codes).map(([k, v]) => `${k}×${v}`).join(" "),
+  };
+}
+
+async function run(target: string, url: string, opts: Partial<Parameters<typeof autocannon>[0]>, connections = CONNECTIONS): Promise<Result> {
+  process.stdout.write(`  ${target}: ${connections} connections, ${DURATION} s … `);
+  const result = await autocannon({ url, connections, duration: DURATION, amount: MAX_REQUESTS, timeout: 30, ...opts });
+  console.log(`${Math.round(result.requests.average)} req/s`);
+  return result;
+}
+
+async function main() {
+  buildIfMissing(DIST);
+  console.log(`seeding and growing to ${ORDERS} orders …`);
+  let uploadId = "";
+  const stack = await startHardStack({
+    distDir: DIST,
+    prepare: async (dbUrl) => {
+      const g = await growOrders(dbUrl, ORDERS);
+      console.log(`  grew by ${g.added} orders in ${(g.ms / 1000).toFixed(1)} s`);
+    },
+  });
+  try {
+    uploadId = await storeEstimateFile(stack.dbUrl, stack.dataDir, stack.ports.uploads);
+    const lead = new Session(stack.baseUrl);
+    const production = new Session(stack.baseUrl);
+    if (!(await lead.signIn("lead@kittering.example", "demo-lead-2026")).ok) throw new Error("client sign-in failed");
+    if (!(await production.signIn("production@saltgrass.example", "demo-production-2026")).ok) throw new Error("production sign-in failed");
+    const leadHeaders = { cookie: lead.cookieHeader };
+    const prodHeaders = { cookie: production.cookieHeader };
+    const estimateOpts = { method: "POST", headers: { ...leadHeaders, "content-type": "application/json" }, body: JSON.stringify({ uploadId, options: {} }) };
+
+    // Warm each route once (first-request compilation of server chunks is not what we measure).
+    for (const [p, h] of [["/api/portal/requests", leadHeaders], ["/api/admin/board", prodHeaders], ["/portal", leadHeaders]] as const) await (await fetch(stack.baseUrl + p, { headers: h })).arrayBuffer();
+    const warm = await fetch(`${stack.baseUrl}/api/estimate`, estimateOpts);
+    console.log(`  one estimate of the 200,000-triangle part: HTTP ${warm.status}`);
+    await warm.arrayBuffer();
+
+    const lines: Line[] = [];
+    console.log("running:");
+    lines.push({ target: "GET /api/portal/requests (client list)", result: await run("client list", `${stack.baseUrl}/api/portal/requests`, { headers: leadHeaders }) });
+    lines.push({ target: "GET /api/admin/board (board)", result: await run("board", `${stack.baseUrl}/api/admin/board`, { headers: prodHeaders }) });
+    lines.push({ target: "GET /portal (page render)", result: await run("page", `${stack.baseUrl}/portal`, { headers: leadHeaders }) });
+    lines.push({ target: "POST /api/estimate (200k triangles)", result: await run("estimate", `${stack.baseUrl}/api/estimate`, estimateOpts), expected: [503] });
+
+    // Side by side: the estimator flooded, the client list measured at the same time.
+    process.stdout.write(`  estimate flood + client list together … `);
+    const [flood, beside] = await Promise.all([
+      autocannon({ url: `${stack.baseUrl}/api/estimate`, connections: CONNECTIONS, duration: DURATION, amount: MAX_REQUESTS, timeout: 30, ...estimateOpts }),
+      autocannon({ url: `${stack.baseUrl}/api/portal/requests`, connections: 10, duration: DURATION, amount: MAX_REQUESTS, timeout: 30, headers: leadHeaders }),
+    ]);
+    console.log("done");
+    lines.push({ target: "POST /api/estimate during the mix", result: flood, expected: [503] });
+    lines.push({ target: "GET /api/portal/requests during the mix (10 conn.)", result: beside });
+
+    console.log(`\nload: ${ORDERS} orders, ${CONNECTIONS} connections, ${DURATION} s each, next start on loopback`);
+    console.table(lines.map(summarise));
+    const retryAfter = await fetch(`${stack.baseUrl}/api/estimate`, estimateOpts);
+    await retryAfter.arrayBuffer();
+    const lists = lines.filter((l) => l.target.startsWith("GET /api")).map(summarise);
+    const ok = lists.every((l) => l.errors === 0 && l["p99 ms"] < 300);
+    console.log(`list APIs: ${ok ? "zero errors and p99 < 300 ms" : "TARGET MISSED (errors or p99 ≥ 300 ms)"}`);
+    process.exitCode = ok ? 0 : 1;
+  } finally {
+    await stack.stop();
+  }
+}
+
+main().catch((e: unknown) => {
+  console.error(e);
+  process.exit(1);
+});
