@@ -198,6 +198,24 @@ describe("quotes and the deposit", () => {
   });
 });
 
+describe("the balance", () => {
+  it("is payable once the order ships; a session the processor no longer has is replaced", async () => {
+    await as("buyer@bramblewake.example");
+    const { payOrder } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const [r] = await db.select().from(requests).where(eq(requests.projectName, "Cockpit liner plug"));
+    const [order] = await db.select().from(orders).where(eq(orders.requestId, r!.id));
+    const res = await payOrder({ orderId: order!.id, kind: "balance" });
+    expect(res.ok, res.ok ? "" : res.message).toBe(true);
+    if (res.ok) expect(res.data.url).toContain("/checkout/");
+    const rows = await db.select().from(payments).where(and(eq(payments.orderId, order!.id), eq(payments.kind, "balance")));
+    // The seeded pending balance pointed at a session the fake never had: it is closed, one new one opened.
+    expect(rows.map((p) => p.status).sort()).toEqual(["expired", "pending"]);
+    expect(rows.find((p) => p.status === "pending")!.amountCents).toBe(order!.balanceCents);
+    // The deposit of a shipped order is long paid.
+    expect(await payOrder({ orderId: order!.id, kind: "deposit" })).toMatchObject({ ok: false });
+  });
+});
+
 describe("file downloads", () => {
   it("serves a firm's own file, logs it, and answers 404 to another firm and to uncleared staff on controlled files", async () => {
     const { GET } = await import("../../app/api/files/[id]/route");
