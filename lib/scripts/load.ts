@@ -10,30 +10,20 @@
  * LOAD_DIST_DIR (default .next-hard; built when missing).
  */
 import autocannon, { type Result } from "autocannon";
-import { spawnSync } from "node:child_process";
 import { createHash, randomUUID } from "node:crypto";
-import { existsSync } from "node:fs";
-import path from "node:path";
 import { createClient } from "@libsql/client";
 import { benchPattern, binaryStl } from "../../mocks/fixtures/meshes";
 import { FileStore } from "../../mocks/uploadthing/store";
+import { buildIfMissingFor } from "./build-if-missing";
 import { growOrders } from "./grow-orders";
 import { startHardStack } from "./hard-stack";
 import { Session } from "./http-client";
-import { root } from "./stack";
 
 const DURATION = Number(process.env.LOAD_DURATION ?? 30);
 const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 50);
 const ORDERS = Number(process.env.LOAD_ORDERS ?? 10_000);
 const MAX_REQUESTS = Number(process.env.LOAD_MAX_REQUESTS ?? 200_000);
 const DIST = process.env.LOAD_DIST_DIR ?? ".next-hard";
-
-export function buildIfMissing(distDir: string) {
-  if (existsSync(path.join(root, distDir, "BUILD_ID"))) return;
-  console.log(`building into ${distDir} …`);
-  const r = spawnSync("npm", ["run", "build"], { cwd: root, stdio: "inherit", env: { ...process.env, NEXT_DIST_DIR: distDir, NEXT_TELEMETRY_DISABLED: "1" } });
-  if (r.status !== 0) throw new Error("build failed");
-}
 
 /** A 200,000-triangle part stored in the upload fake and registered as the client's upload. */
 async function storeEstimateFile(dbUrl: string, dataDir: string, uploadsPort: number): Promise<string> {
@@ -91,7 +81,7 @@ async function run(target: string, url: string, opts: Partial<Parameters<typeof 
 }
 
 async function main() {
-  buildIfMissing(DIST);
+  buildIfMissingFor(DIST);
   console.log(`seeding and growing to ${ORDERS} orders …`);
   let uploadId = "";
   const stack = await startHardStack({

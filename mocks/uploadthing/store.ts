@@ -19,12 +19,20 @@ function writeAtomic(file: string, data: Buffer | string): void {
   const tmp = `${file}.${process.pid}.tmp`;
   const fd = openSync(tmp, "w");
   try {
-    writeSync(fd, typeof data === "string" ? Buffer.from(data) : data);
-    fsyncSync(fd);
-  } finally {
-    closeSync(fd);
+    try {
+      const buf = typeof data === "string" ? Buffer.from(data) : data;
+      // writeSync may write less than asked (a nearly full disk); the next call then fails.
+      for (let off = 0; off < buf.length; ) off += writeSync(fd, buf, off, buf.length - off);
+      fsyncSync(fd);
+    } finally {
+      closeSync(fd);
+    }
+    renameSync(tmp, file);
+  } catch (e) {
+    // A full or failing disk must not leave a partial file behind to fill it further.
+    rmSync(tmp, { force: true });
+    throw e;
   }
-  renameSync(tmp, file);
 }
 
 /**
@@ -51,7 +59,12 @@ export class FileStore {
     const p = this.pathOf(key);
     const meta: StoredFile = { ...info, key, size: bytes.length, lastModified: Date.now(), uploadedAt: Date.now() };
     writeAtomic(p, bytes);
-    writeAtomic(`${p}.meta.json`, JSON.stringify(meta));
+    try {
+      writeAtomic(`${p}.meta.json`, JSON.stringify(meta));
+    } catch (e) {
+      rmSync(p, { force: true });
+      throw e;
+    }
     return meta;
   }
 

@@ -1,0 +1,68 @@
+/**
+ * `npm run faults`: SIGKILL the app server in the middle of stage changes, webhook payments and
+ * uploads (FAULT_ROUNDS rounds each, kill moments spread out), restart it, and check the
+ * database; then fill up and write-protect the upload store during uploads (a small tmpfs mounted
+ * over it; needs root). Prints what was killed and what was checked. FAULT_DIST_DIR (default
+ * .next-hard; built when missing).
+ */
+import { readdirSync, statSync } from "node:fs";
+import { buildIfMissingFor } from "./build-if-missing";
+import { diskFault, mountSmallStore, prepareFaultData, stageChangeFault, uploadFault, webhookFault, type CheckReport } from "./faults-core";
+import { startHardStack } from "./hard-stack";
+
+const DIST = process.env.FAULT_DIST_DIR ?? ".next-hard";
+const ROUNDS = Number(process.env.FAULT_ROUNDS ?? 3);
+
+const verdict = (c: CheckReport) => (c.integrity === "ok" && c.problems.length === 0 ? "ok" : `PROBLEMS: integrity ${c.integrity}; ${c.problems.slice(0, 5).join("; ")}`);
+
+async function main() {
+  buildIfMissingFor(DIST);
+  let failed = 0;
+  const note = (ok: boolean) => (ok ? "" : (failed++, " ✗"));
+  const stack = await startHardStack({ distDir: DIST, prepare: (url) => prepareFaultData(url, { stageOrders: 12 * ROUNDS, payOrders: 10 * ROUNDS }) });
+  try {
+    console.log(`faults: app ${stack.baseUrl}, data ${stack.dataDir}`);
+    for (let i = 0; i < ROUNDS; i++) {
+      const killAfterMs = 1500 + i * 700;
+      const s = await stageChangeFault(stack, { killAfterMs });
+      console.log(`stage changes  #${i + 1}: ${s.orders} orders moving, SIGKILL after ${s.killedAfterMs} ms (${s.movesAnswered} moves answered, ${s.check.counts.stageMoves} recorded in all), restart ${s.restartMs} ms → ${verdict(s.check)}${note(verdict(s.check) === "ok")}`);
+    }
+    for (let i = 0; i < ROUNDS; i++) {
+      const w = await webhookFault(stack, { killAfterMs: 300 + i * 150 });
+      console.log(
+        `webhooks       #${i + 1}: ${w.payments} deposits paid, SIGKILL with ${w.eventsBeforeKill} events recorded, resent after restart → all paid exactly once: ${w.paidOnce}; outcomes ${JSON.stringify(w.replayedOutcomes)} → ${verdict(w.check)}${note(w.paidOnce && verdict(w.check) === "ok")}`,
+      );
+    }
+    for (let i = 0; i < ROUNDS; i++) {
+      const u = await uploadFault(stack, { uploads: 8, killAfterMs: 600 + i * 300 });
+      console.log(`uploads        #${i + 1}: ${u.started} uploads in flight, SIGKILL (${u.completedBeforeKill} done before), ${u.rowsAfter} rows after restart → ${verdict(u.check)}${note(verdict(u.check) === "ok")}`);
+    }
+    const store = mountSmallStore(stack.dataDir, 512 + Math.ceil(seededStoreKb(stack.dataDir)));
+    if (!store) console.log("disk faults: skipped (mounting a tmpfs is not allowed here)");
+    else {
+      try {
+        for (const mode of ["full", "read-only"] as const) {
+          const d = await diskFault(stack, mode, store);
+          const ok = d.status >= 400 && d.rowsAdded === 0 && d.recoveredStatus === 200 && verdict(d.check) === "ok";
+          console.log(`upload store ${mode.padEnd(9)}: HTTP ${d.status} "${d.message.slice(0, 120)}", ${d.rowsAdded} rows added; next upload HTTP ${d.recoveredStatus} → ${verdict(d.check)}${note(ok)}`);
+        }
+      } finally {
+        store.unmount();
+      }
+    }
+  } finally {
+    await stack.stop();
+  }
+  console.log(failed ? `faults: ${failed} checks FAILED` : "faults: every check passed");
+  process.exitCode = failed ? 1 : 0;
+}
+
+function seededStoreKb(dataDir: string): number {
+  const dir = `${dataDir}/uploads`;
+  return readdirSync(dir).reduce((kb, f) => kb + statSync(`${dir}/${f}`).size / 1024 + 4, 0);
+}
+
+main().catch((e: unknown) => {
+  console.error(e);
+  process.exit(1);
+});
