@@ -62,7 +62,8 @@ describe("client portal journey", () => {
     const draftUrl = page.url();
     expect(draftUrl).toMatch(/\/portal\/requests\/[0-9a-f-]{36}$/);
     await page.reload();
-    await expect(page.getByLabel("Project name").inputValue()).resolves.toBe("Wing rib layup tool");
+    // The form's fields are filled when it hydrates.
+    await page.waitForFunction(() => (document.getElementById("projectName") as HTMLInputElement | null)?.value === "Wing rib layup tool", null, { timeout: 30_000 });
     await page.getByRole("button", { name: "3. Review & submit" }).click();
     await page.getByRole("button", { name: "Continue" }).click().catch(() => {});
     await page.getByTestId("bounding-size").waitFor({ timeout: 90_000 });
