@@ -1,5 +1,0 @@
-import { PageSkeleton } from "@/components/ui/card";
-
-export default function Loading() {
-  return <PageSkeleton />;
-}
