@@ -113,6 +113,22 @@ describe("smoke: every role lands on its own home", () => {
     await context.close();
   });
 
+  it("a staff member outside a role gets 403 from that role's page and its API alike", async () => {
+    const { context, page } = await newPage(browser);
+    await signIn(page, stack.baseUrl, "sales@saltgrass.example", DEMO_PASSWORDS.sales);
+    for (const path of ["/admin/accounts", "/admin/production", "/admin/catalogue", "/admin/staff", "/admin/audit", "/admin/outbox"]) {
+      const res = await page.goto(`${stack.baseUrl}${path}`);
+      expect(res?.status(), path).toBe(403);
+    }
+    for (const path of ["/api/admin/ledger", "/api/admin/board", "/api/admin/staff", "/api/admin/audit"]) {
+      const res = await page.request.get(`${stack.baseUrl}${path}`);
+      expect(res.status(), path).toBe(403);
+      expect(await res.text()).not.toMatch(/at .*\.(js|ts):\d+/);
+    }
+    expect((await page.goto(`${stack.baseUrl}/admin/sales`))?.status()).toBe(200);
+    await context.close();
+  });
+
   it("a client is refused /admin (403) and gets 404 for another firm's order", async () => {
     const { context, page } = await newPage(browser);
     await signIn(page, stack.baseUrl, "engineer@kittering.example", DEMO_PASSWORDS.client);
