@@ -3,7 +3,10 @@ import type { Db } from "../client";
 import { analyses, documents, fileRevisions, uploads, orders, organisations, parts, payments, requests, scheduleBlocks, stageEvents, users } from "../schema";
 import type { Tx } from "./audit";
 
-/** Orders on the production board: accepted and later, held orders included. */
+/** Stages the board shows: closed and cancelled orders stay off it (they are history). */
+const BOARD_STAGES = ["accepted", "deposit_paid", "scheduled", "printing", "cooling", "machining", "inspection", "finishing", "packed", "shipped", "delivered", "on_hold"] as const;
+
+/** Orders on the production board: accepted and later, held orders included, closed and cancelled left out. */
 export async function listBoard(db: Db) {
   return db
     .select({
@@ -24,6 +27,7 @@ export async function listBoard(db: Db) {
     .from(orders)
     .innerJoin(requests, eq(requests.id, orders.requestId))
     .innerJoin(organisations, eq(organisations.id, orders.orgId))
+    .where(inArray(requests.stage, [...BOARD_STAGES]))
     .orderBy(asc(orders.plannedStart), asc(requests.updatedAt));
 }
 

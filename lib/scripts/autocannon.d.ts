@@ -35,6 +35,11 @@ declare module "autocannon" {
     "4xx": number;
     "5xx": number;
   }
-  function autocannon(opts: Options): Promise<Result>;
+  /** The running benchmark: awaitable for its result, stoppable early. */
+  export interface Instance extends PromiseLike<Result> {
+    on(event: "response", listener: (client: unknown, statusCode: number, resBytes: number, responseTime: number) => void): this;
+    stop(): void;
+  }
+  function autocannon(opts: Options): Instance;
   export default autocannon;
 }

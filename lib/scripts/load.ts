@@ -9,7 +9,7 @@
  * LOAD_DURATION (s, default 30), LOAD_CONNECTIONS (default 50), LOAD_ORDERS (default 10000),
  * LOAD_DIST_DIR (default .next-hard; built when missing).
  */
-import autocannon, { type Result } from "autocannon";
+import autocannon, { type Options, type Result } from "autocannon";
 import { createHash, randomUUID } from "node:crypto";
 import { createClient } from "@libsql/client";
 import { benchPattern, binaryStl } from "../../mocks/fixtures/meshes";
@@ -22,7 +22,7 @@ import { Session } from "./http-client";
 const DURATION = Number(process.env.LOAD_DURATION ?? 30);
 const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 50);
 const ORDERS = Number(process.env.LOAD_ORDERS ?? 10_000);
-const MAX_REQUESTS = Number(process.env.LOAD_MAX_REQUESTS ?? 200_000);
+const MAX_REQUESTS = Number(process.env.LOAD_MAX_REQUESTS ?? 100_000);
 const DIST = process.env.LOAD_DIST_DIR ?? ".next-hard";
 
 /** A 200,000-triangle part stored in the upload fake and registered as the client's upload. */
@@ -73,9 +73,22 @@ function summarise({ target, result, expected = [] }: Line) {
   };
 }
 
-async function run(target: string, url: string, opts: Partial<Parameters<typeof autocannon>[0]>, connections = CONNECTIONS): Promise<Result> {
+/**
+ * One autocannon run bounded in time (DURATION) and in count (MAX_REQUESTS: autocannon's own
+ * `amount` would make it ignore the duration, so the count is enforced here).
+ */
+async function bounded(opts: Options): Promise<Result> {
+  const instance = autocannon({ duration: DURATION, timeout: 30, connections: CONNECTIONS, ...opts });
+  let n = 0;
+  instance.on("response", () => {
+    if (++n === MAX_REQUESTS) instance.stop();
+  });
+  return instance;
+}
+
+async function run(target: string, url: string, opts: Partial<Options>, connections = CONNECTIONS): Promise<Result> {
   process.stdout.write(`  ${target}: ${connections} connections, ${DURATION} s … `);
-  const result = await autocannon({ url, connections, duration: DURATION, amount: MAX_REQUESTS, timeout: 30, ...opts });
+  const result = await bounded({ url, connections, ...opts });
   console.log(`${Math.round(result.requests.average)} req/s`);
   return result;
 }
@@ -117,8 +130,8 @@ async function main() {
     // Side by side: the estimator flooded, the client list measured at the same time.
     process.stdout.write(`  estimate flood + client list together … `);
     const [flood, beside] = await Promise.all([
-      autocannon({ url: `${stack.baseUrl}/api/estimate`, connections: CONNECTIONS, duration: DURATION, amount: MAX_REQUESTS, timeout: 30, ...estimateOpts }),
-      autocannon({ url: `${stack.baseUrl}/api/portal/requests`, connections: 10, duration: DURATION, amount: MAX_REQUESTS, timeout: 30, headers: leadHeaders }),
+      bounded({ url: `${stack.baseUrl}/api/estimate`, ...estimateOpts }),
+      bounded({ url: `${stack.baseUrl}/api/portal/requests`, connections: 10, headers: leadHeaders }),
     ]);
     console.log("done");
     lines.push({ target: "POST /api/estimate during the mix", result: flood, expected: [503] });

@@ -2,7 +2,8 @@ import { spawnSync } from "node:child_process";
 import { existsSync } from "node:fs";
 import path from "node:path";
 
-export const E2E_DIST_DIR = ".next-e2e";
+/** E2E_DIST_DIR picks another build folder (each engineer may keep their own). */
+export const E2E_DIST_DIR = process.env.E2E_DIST_DIR || ".next-e2e";
 
 /** Build the production app once for all browser tests (E2E_SKIP_BUILD=1 reuses the last build). */
 export default function setup() {
