@@ -72,4 +72,13 @@ describe("estimate pool (worker threads)", () => {
       delete process.env.ESTIMATE_WASM_RETIRE_MB;
     }
   });
+
+  it("reads a model's triangles in a worker for the preview, in millimetres", async () => {
+    const pool = make({ size: 1 });
+    const r = await pool.read({ bytes: binaryStl(box(10, 20, 30)), fileName: "box.stl", options: { units: "in" } });
+    expect(r.format).toBe("stl-binary");
+    expect(r.positions.length).toBe(12 * 9);
+    expect(Math.max(...r.positions)).toBeCloseTo(30 * 25.4, 3);
+    await expect(pool.read({ bytes: new Uint8Array(50).fill(3), fileName: "junk.step", options: {} })).rejects.toBeInstanceOf(EstimateInputError);
+  });
 });

@@ -2,7 +2,7 @@ import { Worker } from "node:worker_threads";
 import path from "node:path";
 import { EstimateInputError } from "./errors";
 import type { AnalyseInput, ProgressFn } from "./analyse";
-import type { EstimateResult } from "./types";
+import type { EstimateResult, LengthUnit, MeshFormat } from "./types";
 
 /** The queue is full: the caller should answer 503 with `retryAfterS`. */
 export class QueueFullError extends Error {
@@ -37,11 +37,25 @@ export interface PoolOptions {
   workerPath?: string;
 }
 
+/** A read-only job: the model's triangles in millimetres, for the 3D preview. */
+export interface ReadJob {
+  bytes: Uint8Array;
+  fileName: string;
+  options: { units?: LengthUnit; toleranceMm?: number; bodies?: number[] };
+}
+
+export interface ReadJobResult {
+  positions: Float32Array;
+  format: MeshFormat;
+  units: LengthUnit;
+}
+
 interface Job {
   id: number;
-  input: AnalyseInput;
+  input?: AnalyseInput;
+  read?: ReadJob;
   onProgress?: ProgressFn;
-  resolve: (r: EstimateResult) => void;
+  resolve: (r: unknown) => void;
   reject: (e: Error) => void;
 }
 
@@ -86,9 +100,18 @@ export class EstimatePool {
   }
 
   run(input: AnalyseInput, onProgress?: ProgressFn): Promise<EstimateResult> {
+    return this.submit<EstimateResult>({ input, onProgress });
+  }
+
+  /** Read (and for STEP/IGES tessellate) a model in a worker; same queue, limits and errors as `run`. */
+  read(job: ReadJob): Promise<ReadJobResult> {
+    return this.submit<ReadJobResult>({ read: job });
+  }
+
+  private submit<T>(work: Pick<Job, "input" | "read" | "onProgress">): Promise<T> {
     if (this.closed) return Promise.reject(new Error("the estimate pool is closed"));
-    return new Promise<EstimateResult>((resolve, reject) => {
-      const job: Job = { id: this.nextId++, input, onProgress, resolve, reject };
+    return new Promise<T>((resolve, reject) => {
+      const job: Job = { id: this.nextId++, ...work, resolve: resolve as (r: unknown) => void, reject };
       const idle = this.idleSlot();
       if (idle) { this.start(idle, job); return; }
       if (this.queue.length >= this.maxQueue) {
@@ -120,7 +143,7 @@ export class EstimatePool {
     this.started += 1;
     const slot: Slot = { worker, job: null, timer: null };
     worker.unref();
-    worker.on("message", (msg: { id: number; type: string; fraction?: number; stage?: string; result?: EstimateResult; error?: { name: string; code: string; message: string }; retire?: boolean }) => {
+    worker.on("message", (msg: { id: number; type: string; fraction?: number; stage?: string; result?: unknown; error?: { name: string; code: string; message: string }; retire?: boolean }) => {
       const job = slot.job;
       if (!job || msg.id !== job.id) return;
       if (msg.type === "progress") { try { job.onProgress?.(msg.fraction ?? 0, msg.stage ?? ""); } catch { /* a failing listener must not kill the job */ } return; }
@@ -164,7 +187,8 @@ export class EstimatePool {
       job.reject(new EstimateJobError("timeout", `The analysis took longer than ${Math.round(this.timeLimitMs / 1000)} s and was stopped.`));
       this.pump();
     }, this.timeLimitMs);
-    slot.worker.postMessage({ id: job.id, input: job.input });
+    if (job.read) slot.worker.postMessage({ id: job.id, read: job.read });
+    else slot.worker.postMessage({ id: job.id, input: job.input });
   }
 
   private finish(slot: Slot): void {

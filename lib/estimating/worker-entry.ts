@@ -1,5 +1,7 @@
 import { parentPort } from "node:worker_threads";
 import { analyse, type AnalyseInput } from "./analyse";
+import { readModel } from "./read-model";
+import type { ReadJob } from "./pool";
 import { loadedOcctHeapBytes } from "./readers/step-occt";
 
 /**
@@ -18,10 +20,17 @@ const RETIRE_ABOVE_BYTES = (Number(process.env.ESTIMATE_WASM_RETIRE_MB) || 768) 
  */
 if (!parentPort) throw new Error("estimate worker must run in a worker thread");
 const port = parentPort;
-port.on("message", async (msg: { id: number; input: AnalyseInput }) => {
-  const { id, input } = msg;
+port.on("message", async (msg: { id: number; input: AnalyseInput; read?: undefined } | { id: number; read: ReadJob; input?: undefined }) => {
+  const { id } = msg;
   try {
-    const result = await analyse(input, (fraction, stage) => port.postMessage({ id, type: "progress", fraction, stage }));
+    if (msg.read) {
+      // Only the mesh, for the 3D preview: STEP/IGES tessellation must not run on the web thread either.
+      const r = await readModel(msg.read.bytes, msg.read.fileName, msg.read.options);
+      const positions = r.mesh.positions;
+      port.postMessage({ id, type: "result", result: { positions, format: r.format, units: r.units }, retire: shouldRetire() }, [positions.buffer as ArrayBuffer]);
+      return;
+    }
+    const result = await analyse(msg.input, (fraction, stage) => port.postMessage({ id, type: "progress", fraction, stage }));
     port.postMessage({ id, type: "result", result, retire: shouldRetire() });
   } catch (e) {
     const err = e as { name?: string; code?: string; message?: string };

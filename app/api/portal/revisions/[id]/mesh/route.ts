@@ -7,7 +7,7 @@ import { canOpenFiles } from "@/lib/auth/policy";
 import { withErrors } from "@/lib/auth/route";
 import { AppError } from "@/lib/errors";
 import { isEstimateInputError } from "@/lib/estimating/errors";
-import { readModel } from "@/lib/estimating/read-model";
+import { EstimateJobError, getEstimatePool, QueueFullError } from "@/lib/estimating/pool";
 import { fetchUploadedFile } from "@/lib/uploads/uploadthing";
 
 export const runtime = "nodejs";
@@ -18,7 +18,8 @@ const PREVIEW_MAX_TRIANGLES = 400_000;
 /**
  * GET /api/portal/revisions/:id/mesh?units=mm|in — the file's triangles in millimetres as raw
  * little-endian float32 (9 per triangle), for the 3D preview. Same rules as a download (firm,
- * controlled clearance) and logged as one. STEP/IGES arrive tessellated by the engine's reader.
+ * controlled clearance) and logged as one. The file is read in the estimator's worker pool;
+ * STEP/IGES arrive tessellated by the engine's reader.
  */
 export const GET = withErrors(async (req: Request, ctx: { params: Promise<{ id: string }> }) => {
   const user = await requireUser();
@@ -32,10 +33,15 @@ export const GET = withErrors(async (req: Request, ctx: { params: Promise<{ id: 
   const bytes = await fetchUploadedFile(file.fileKey, { maxBytes: MAX_MODEL_BYTES });
   let positions: Float32Array;
   try {
-    const r = await readModel(bytes, file.fileName, units === "mm" || units === "in" ? { units } : {});
-    positions = r.mesh.positions;
+    // In the estimator's workers: a large or hostile STEP file must not stall the web thread.
+    const r = await getEstimatePool().read({ bytes, fileName: file.fileName, options: units === "mm" || units === "in" ? { units } : {} });
+    positions = r.positions;
   } catch (e) {
+    if (e instanceof QueueFullError) {
+      return Response.json({ error: { code: "busy", message: e.message } }, { status: 503, headers: { "retry-after": String(e.retryAfterS) } });
+    }
     if (isEstimateInputError(e)) throw new AppError("invalid_input:file", e.message);
+    if (e instanceof EstimateJobError) throw new AppError("unavailable:preview", e.message);
     throw e;
   }
   const tris = positions.length / 9;
