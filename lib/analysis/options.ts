@@ -2,7 +2,17 @@ import type { AnalyseOptions } from "../estimating/analyse";
 
 /** Engine options for one part of one request (units, material, allowance, print mode…). */
 export function analysisOptionsFor(
-  part: { units: "mm" | "in"; unitsConfirmed: boolean; materialKey: string; allowanceMm: number; quantity: number; printMode: "solid" | "shell"; shellWalls: number; cellKey: string | null },
+  part: {
+    units: "mm" | "in";
+    unitsConfirmed: boolean;
+    materialKey: string;
+    allowanceMm: number;
+    quantity: number;
+    printMode: "solid" | "shell";
+    shellWalls: number;
+    cellKey: string | null;
+    selectedBodies?: number[] | null;
+  },
   request: { cureTempC: number | null; partCtePpmPerK: number | null },
 ): AnalyseOptions {
   return {
@@ -13,6 +23,7 @@ export function analysisOptionsFor(
     quantity: part.quantity,
     shellWalls: part.printMode === "shell" ? part.shellWalls : null,
     ...(part.cellKey ? { cellKey: part.cellKey } : {}),
+    ...(part.selectedBodies?.length ? { bodies: part.selectedBodies } : {}),
     ...(request.cureTempC !== null ? { cureTempC: request.cureTempC } : {}),
     ...(request.partCtePpmPerK !== null ? { partCtePpmPerK: request.partCtePpmPerK } : {}),
   };

@@ -57,6 +57,8 @@ export const partSchema = z.object({
   units: z.enum(["mm", "in"]),
   unitsConfirmed: z.boolean(),
   cellKey: z.string().max(60).optional().or(z.literal("")),
+  /** STEP/IGES assemblies: indices of the bodies to print; null or absent = every body. */
+  bodies: z.array(z.number().int().min(0).max(99_999)).max(5_000).nullable().optional(),
 });
 export type PartInput = z.input<typeof partSchema>;
 export type PartValues = z.output<typeof partSchema>;
@@ -107,6 +109,7 @@ export function partToRow(p: PartValues) {
     units: p.units,
     unitsConfirmed: p.unitsConfirmed,
     cellKey: p.cellKey ? p.cellKey : null,
+    selectedBodies: p.bodies?.length ? [...new Set(p.bodies)].sort((a, b) => a - b) : null,
   };
 }
 

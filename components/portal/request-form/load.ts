@@ -51,6 +51,7 @@ export async function loadDraft(db: Db, req: Request, unitsPref: "mm" | "in"): P
       units: p.units,
       unitsConfirmed: p.unitsConfirmed,
       cellKey: p.cellKey ?? "",
+      bodies: p.selectedBodies ?? null,
     })),
   };
   const files: Record<string, PartFileState> = {};

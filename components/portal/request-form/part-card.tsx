@@ -11,6 +11,7 @@ import { formatCents } from "@/lib/money";
 import { formatLength, formatSize, fToC } from "@/lib/units";
 import type { DraftInput } from "@/lib/validation/request";
 import { AnalysisStatus, useAnalysis } from "./analysis-status";
+import { BodyPicker } from "./body-picker";
 import { ModelUpload } from "./model-upload";
 import type { CatalogueForForm, PartFileState } from "./types";
 
@@ -105,6 +106,8 @@ export function PartCard({
           <strong>{formatCents(result.totalCents)}</strong>
         </div>
       ) : null}
+
+      {result?.cad && result.cad.bodies.length > 1 ? <BodyPicker index={index} bodies={result.cad.bodies} units={units} /> : null}
 
       <fieldset className="space-y-2">
         <legend className="text-sm font-medium text-ink-700">Units of the file</legend>

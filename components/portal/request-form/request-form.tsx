@@ -124,6 +124,8 @@ export function RequestForm({ initial, initialFiles, reference: initialRef, cata
       return;
     }
     setValue(`parts.${index}.unitsConfirmed`, false);
+    // A new file's bodies are not the old file's: print all of them until the client picks again.
+    setValue(`parts.${index}.bodies`, null);
     setFile(partId, { revisionId: res.data.revisionId, fileName: res.data.fileName, revision: res.data.revision, analysisId: res.data.analysisId, error: null });
   }
 

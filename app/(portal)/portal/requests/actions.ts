@@ -163,6 +163,8 @@ export async function attachPartFile(input: { requestId: string; partId: string;
       });
       // A new file needs a fresh guess at its units (a submitted request keeps the confirmed ones).
       if (req.stage === "draft") await updatePart(tx, req.id, part.id, { unitsConfirmed: false });
+      // Body choices point into the old file's bodies.
+      await updatePart(tx, req.id, part.id, { selectedBodies: null });
       await markQuotesStale(tx, req.id);
       return r;
     });
