@@ -1,4 +1,5 @@
 import { createClient, type Client } from "@libsql/client";
+import path from "node:path";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_PASSWORDS } from "../../db/seed-data";
@@ -149,4 +150,40 @@ describe("client portal journey", () => {
     expect((await page.request.get(`${stack.baseUrl}/api/portal/revisions/${fid}/mesh`)).status()).toBe(404);
     await context.close();
   }, 120_000);
+
+  it("a STEP assembly is tessellated, previewed, and the client prints only the bodies picked", async () => {
+    const { context, page } = await newPage(browser);
+    await signIn(page, stack.baseUrl, "lead@kittering.example", DEMO_PASSWORDS.client_admin);
+    await page.goto(`${stack.baseUrl}/portal/requests/new`);
+    await fillProject(page, { name: "Fixture from an assembly", neededBy: "2027-05-31", cureC: 120 });
+    await page.getByRole("button", { name: "Continue" }).click();
+    // as1-oc-214.stp: CAx Implementor Forum assembly AS1, 18 bodies (mocks/fixtures/cad/README.md).
+    await addPartWithFile(page, 0, path.resolve(import.meta.dirname, "../../mocks/fixtures/cad/as1-oc-214.stp"));
+    await waitForEstimate(page, 0);
+    const picker = page.getByTestId("body-picker-0");
+    await expect(picker.getByRole("checkbox").count()).resolves.toBe(18);
+    await expect(picker.textContent()).resolves.toContain("18 of 18 to print");
+    await picker.getByRole("checkbox").nth(0).uncheck();
+    await expect(picker.textContent()).resolves.toContain("17 of 18 to print");
+    // The draft saves the choice (autosave, a moment after the change) and the estimate runs again.
+    const requestId = new URL(page.url()).pathname.split("/").pop()!;
+    let saved: number[] | null = null;
+    for (let i = 0; i < 60 && !saved; i++) {
+      const row = await db.execute({ sql: "select selected_bodies from parts where request_id = ?", args: [requestId] });
+      const v = row.rows[0]?.selected_bodies;
+      saved = v ? (JSON.parse(String(v)) as number[]) : null;
+      if (!saved) await page.waitForTimeout(500);
+    }
+    expect(saved).toHaveLength(17);
+    expect(saved).not.toContain(0);
+    await waitForEstimate(page, 0);
+    await page.getByTestId("body-picker-0").waitFor({ timeout: 120_000 });
+    await expect(page.getByTestId("body-picker-0").textContent()).resolves.toContain("17 of 18 to print");
+    await both(page, "new-step-bodies");
+    await page.getByRole("button", { name: "3. Review & submit" }).click();
+    await page.getByTestId("bounding-size").waitFor({ timeout: 90_000 });
+    await expect(page.locator("canvas").count()).resolves.toBeGreaterThan(0);
+    await both(page, "new-step-review");
+    await context.close();
+  }, 180_000);
 });
