@@ -17,6 +17,9 @@ import { magicLinkSchema, safeCallbackPath, signInSchema, signUpSchema } from "@
 
 type FormResult = ActionResult<undefined> | null;
 
+/** The form's fields; anything else posted to the action (no form at all) counts as empty. */
+const formEntries = (formData: unknown) => (formData instanceof FormData ? Object.fromEntries(formData) : {});
+
 function fieldErrorsOf(error: { issues: { path: PropertyKey[]; message: string }[] }) {
   const out: Record<string, string[]> = {};
   for (const issue of error.issues) {
@@ -27,7 +30,7 @@ function fieldErrorsOf(error: { issues: { path: PropertyKey[]; message: string }
 }
 
 export async function signInWithPassword(_prev: FormResult, formData: FormData): Promise<FormResult> {
-  const parsed = signInSchema.safeParse(Object.fromEntries(formData));
+  const parsed = signInSchema.safeParse(formEntries(formData));
   if (!parsed.success) {
     return { ok: false, code: "invalid_input", message: "Check the highlighted fields.", fieldErrors: fieldErrorsOf(parsed.error) };
   }
@@ -52,7 +55,7 @@ export async function signInWithPassword(_prev: FormResult, formData: FormData):
 }
 
 export async function requestMagicLink(_prev: FormResult, formData: FormData): Promise<FormResult> {
-  const parsed = magicLinkSchema.safeParse(Object.fromEntries(formData));
+  const parsed = magicLinkSchema.safeParse(formEntries(formData));
   if (!parsed.success) {
     return { ok: false, code: "invalid_input", message: "Check the highlighted fields.", fieldErrors: fieldErrorsOf(parsed.error) };
   }
@@ -67,7 +70,7 @@ export async function requestMagicLink(_prev: FormResult, formData: FormData): P
 }
 
 export async function signUp(_prev: FormResult, formData: FormData): Promise<FormResult> {
-  const parsed = signUpSchema.safeParse(Object.fromEntries(formData));
+  const parsed = signUpSchema.safeParse(formEntries(formData));
   if (!parsed.success) {
     return { ok: false, code: "invalid_input", message: "Check the highlighted fields.", fieldErrors: fieldErrorsOf(parsed.error) };
   }

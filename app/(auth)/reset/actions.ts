@@ -23,8 +23,10 @@ async function clientAddress(): Promise<string> {
   return h.get("x-forwarded-for")?.split(",")[0]?.trim() || h.get("x-real-ip") || "local";
 }
 
+const field = (formData: unknown, name: string) => (formData instanceof FormData ? formData.get(name) : undefined);
+
 export async function requestPasswordResetAction(_prev: FormResult, formData: FormData): Promise<FormResult> {
-  const parsed = resetRequestSchema.safeParse({ email: formData.get("email") });
+  const parsed = resetRequestSchema.safeParse({ email: field(formData, "email") });
   if (!parsed.success) return { ok: false, code: "invalid_input", message: "Check the highlighted fields.", fieldErrors: fieldErrorsOf(parsed.error) };
   const outcome = await requestPasswordReset(getDb(), {
     email: parsed.data.email,
@@ -46,7 +48,7 @@ export async function requestPasswordResetAction(_prev: FormResult, formData: Fo
 }
 
 export async function resetPasswordAction(_prev: FormResult, formData: FormData): Promise<FormResult> {
-  const parsed = resetPasswordSchema.safeParse({ token: formData.get("token"), password: formData.get("password"), confirm: formData.get("confirm") });
+  const parsed = resetPasswordSchema.safeParse({ token: field(formData, "token"), password: field(formData, "password"), confirm: field(formData, "confirm") });
   if (!parsed.success) {
     const fieldErrors = fieldErrorsOf(parsed.error);
     if (fieldErrors.token) return { ok: false, code: "invalid_input", message: fieldErrors.token[0]! };

@@ -60,6 +60,7 @@ export async function inviteMember(raw: { email: string; role: string }): Promis
 
 export async function removeMember(raw: { userId: string }): Promise<ActionResult> {
   try {
+    if (!raw || typeof raw !== "object") throw new AppError("invalid_input", "The request was not valid.");
     const { user, orgId } = await leadOfFirm();
     const db = getDb();
     const member = await getMember(db, orgId, String(raw.userId));

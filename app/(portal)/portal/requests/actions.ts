@@ -133,6 +133,7 @@ const REVISABLE = new Set(["draft", "submitted", "quoted"]);
 
 export async function attachPartFile(input: { requestId: string; partId: string; uploadId: string }): Promise<ActionResult<AttachedFile>> {
   try {
+    if (!input || typeof input !== "object") throw new AppError("invalid_input", "The request was not valid.");
     const user = await requirePermission("request:edit_draft");
     const db0 = getDb();
     const found = await getRequest(db0, String(input.requestId));

@@ -81,6 +81,7 @@ export async function acceptQuote(input: AcceptQuoteInput): Promise<ActionResult
 /** Open (or reopen) the Checkout Session for an order's deposit or balance. */
 export async function payOrder(input: { orderId: string; kind: "deposit" | "balance" }): Promise<ActionResult<CheckoutResult>> {
   try {
+    if (!input || typeof input !== "object") throw new AppError("invalid_input", "The request was not valid.");
     const user = await requirePermission("payment:pay");
     if (input.kind !== "deposit" && input.kind !== "balance") throw new AppError("invalid_input", "Unknown payment kind.");
     const db = getDb();

@@ -1,0 +1,188 @@
+/**
+ * Security headers and the pages working under them (no CSP violation while the 3D viewer, the
+ * charts, an upload to the upload service's origin and the outbox's sandboxed e-mail frame run),
+ * session cookie flags, sign-in throttling by HTTP, and the password reset journey.
+ */
+import { createClient, type Client } from "@libsql/client";
+import type { Browser, Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { Session } from "../../lib/scripts/http-client";
+import { launchBrowser, newPage, signIn, startStack, type TestStack } from "./harness";
+import { addPartWithFile, fillProject, MOLD_STL, waitForEstimate } from "./portal-journey";
+
+let stack: TestStack;
+let browser: Browser;
+let db: Client;
+
+beforeAll(async () => {
+  stack = await startStack();
+  browser = await launchBrowser();
+  db = createClient({ url: stack.dbUrl });
+}, 240_000);
+
+afterAll(async () => {
+  db?.close();
+  await browser?.close();
+  await stack?.stop();
+});
+
+/** Collect CSP violations from the console and from the DOM event, per page. */
+async function watchCsp(page: Page): Promise<() => Promise<string[]>> {
+  const seen: string[] = [];
+  page.on("console", (m) => {
+    if (/Content Security Policy|Refused to (load|connect|execute|apply|frame)/i.test(m.text())) seen.push(m.text());
+  });
+  await page.addInitScript(() => {
+    document.addEventListener("securitypolicyviolation", (e) => {
+      const w = window as unknown as { __csp?: string[] };
+      (w.__csp ??= []).push(`${e.violatedDirective} ${e.blockedURI}`);
+    });
+  });
+  return async () => [...seen, ...((await page.evaluate(() => (window as unknown as { __csp?: string[] }).__csp ?? []).catch(() => [])) as string[])];
+}
+
+async function latestEmailTo(address: string, subject: RegExp): Promise<string> {
+  for (let i = 0; i < 60; i++) {
+    const r = await db.execute({ sql: "SELECT subject, html FROM email_outbox WHERE to_addresses LIKE ? ORDER BY created_at DESC", args: [`%${address}%`] });
+    const row = r.rows.find((x) => subject.test(String(x.subject)));
+    if (row) return String(row.html);
+    await new Promise((res) => setTimeout(res, 250));
+  }
+  throw new Error(`no e-mail to ${address} matching ${subject}`);
+}
+
+describe("security headers", () => {
+  it("every answer carries the CSP, frame-ancestors 'none', nosniff, a referrer and a permissions policy", async () => {
+    for (const p of ["/", "/sign-in", "/api/auth/csrf", "/portal"]) {
+      const res = await fetch(stack.baseUrl + p, { redirect: "manual" });
+      await res.arrayBuffer();
+      const csp = res.headers.get("content-security-policy") ?? "";
+      expect(csp, p).toMatch(/default-src 'self'/);
+      expect(csp, p).toMatch(/frame-ancestors 'none'/);
+      expect(csp, p).toMatch(/object-src 'none'/);
+      expect(csp, p).toMatch(/connect-src 'self' [^;]*http:\/\/127\.0\.0\.1:\*/);
+      expect(res.headers.get("x-content-type-options"), p).toBe("nosniff");
+      expect(res.headers.get("referrer-policy"), p).toBe("strict-origin-when-cross-origin");
+      expect(res.headers.get("permissions-policy"), p).toMatch(/camera=\(\)/);
+      expect(res.headers.get("x-powered-by"), p).toBeNull();
+    }
+  });
+
+  it("client pages work with no CSP violation: list, 3D viewer and layer chart, a new request with an upload to the upload service", async () => {
+    const { context, page } = await newPage(browser);
+    const violations = await watchCsp(page);
+    await page.goto(stack.baseUrl);
+    await page.goto(`${stack.baseUrl}/sign-in`);
+    await signIn(page, stack.baseUrl, "lead@kittering.example", "demo-lead-2026");
+    await page.getByRole("table").first().waitFor({ timeout: 30_000 });
+    const withAnalysis = await db.execute(
+      "SELECT r.id FROM requests r JOIN organisations o ON o.id = r.org_id JOIN parts p ON p.request_id = r.id JOIN analyses a ON a.revision_id = p.current_revision_id WHERE o.name LIKE 'Kittering%' AND a.status = 'done' LIMIT 1",
+    );
+    await page.goto(`${stack.baseUrl}/portal/requests/${String(withAnalysis.rows[0]!.id)}`);
+    await page.getByTestId("part-viewer").first().locator("canvas").waitFor({ timeout: 60_000 });
+    await page.locator(".recharts-surface").first().waitFor({ timeout: 30_000 });
+
+    await page.goto(`${stack.baseUrl}/portal/requests/new`);
+    await fillProject(page, { name: "Header check tool", neededBy: "2027-06-30", cureC: 120 });
+    await page.getByRole("button", { name: "Continue" }).click();
+    await addPartWithFile(page, 0, MOLD_STL.file);
+    await waitForEstimate(page, 0);
+    expect(await violations()).toEqual([]);
+    await context.close();
+  });
+
+  it("staff pages work with no CSP violation: board, ledger, reports and an e-mail in the outbox's sandboxed frame", async () => {
+    const { context, page } = await newPage(browser);
+    const violations = await watchCsp(page);
+    await signIn(page, stack.baseUrl, "admin@saltgrass.example", "demo-admin-2026");
+    const mail = await db.execute("SELECT id FROM email_outbox ORDER BY created_at DESC LIMIT 1");
+    for (const p of ["/admin", "/admin/production", "/admin/accounts", "/admin/production/report", "/admin/sales", "/admin/audit", `/admin/outbox/${String(mail.rows[0]?.id ?? "")}`]) {
+      const res = await page.goto(stack.baseUrl + p);
+      expect(res?.status(), p).toBeLessThan(400);
+      await page.waitForLoadState("networkidle");
+    }
+    const frame = page.locator('iframe[title="Rendered e-mail"]');
+    await frame.waitFor();
+    expect(await frame.getAttribute("sandbox")).toBe("");
+    expect(await violations()).toEqual([]);
+    await context.close();
+  });
+});
+
+describe("sessions and sign-in throttling by HTTP", () => {
+  it("the session cookie is HttpOnly, SameSite=Lax, path / (and not Secure over plain http)", async () => {
+    const s = new Session(stack.baseUrl);
+    const r = await s.signIn("sales@saltgrass.example", "demo-sales-2026");
+    expect(r.ok).toBe(true);
+    const cookie = r.setCookies.find((c) => c.startsWith("authjs.session-token="))!;
+    expect(cookie).toMatch(/;\s*HttpOnly/i);
+    expect(cookie).toMatch(/;\s*SameSite=Lax/i);
+    expect(cookie).toMatch(/;\s*Path=\//i);
+    expect(cookie).not.toMatch(/;\s*Secure/i);
+  });
+
+  it("five wrong passwords lock the e-mail: the right one is then refused too, and says so", async () => {
+    const s = new Session(stack.baseUrl);
+    const addr = { "x-forwarded-for": "198.51.100.77" };
+    for (let i = 0; i < 5; i++) {
+      const r = await s.signIn("lab@hollinsridge.example", `wrong-password-${i}`, addr);
+      expect(r.ok).toBe(false);
+      expect(r.location).toMatch(/error=CredentialsSignin/);
+    }
+    const locked = await s.signIn("lab@hollinsridge.example", "demo-lead-2026", addr);
+    expect(locked.ok).toBe(false);
+    expect(locked.location).toMatch(/code=locked/);
+    const row = await db.execute("SELECT failures, locked_until FROM sign_in_attempts WHERE key = 'email:lab@hollinsridge.example'");
+    expect(Number(row.rows[0]!.failures)).toBe(5);
+    expect(Number(row.rows[0]!.locked_until)).toBeGreaterThan(Date.now());
+  });
+});
+
+describe("password reset in the browser", () => {
+  it("from the sign-in form: link by e-mail, new password, sign in with it; the link then no longer works", async () => {
+    const { context, page } = await newPage(browser);
+    const violations = await watchCsp(page);
+    await page.goto(`${stack.baseUrl}/sign-in`);
+    await page.getByRole("link", { name: "Forgot your password?" }).click();
+    await page.waitForURL(/\/reset$/);
+    await page.getByLabel("E-mail").fill("buyer@bramblewake.example");
+    await page.getByRole("button", { name: "E-mail me a reset link" }).click();
+    await page.waitForURL(/\/reset\/sent/);
+    const html = await latestEmailTo("buyer@bramblewake.example", /Reset your Layerwright password/);
+    const link = html.match(/href="([^"]*\/reset\/new\?token=[^"]*)"/)?.[1]?.replaceAll("&amp;", "&");
+    expect(link).toBeTruthy();
+    const token = new URL(link!).searchParams.get("token")!;
+    const stored = await db.execute({ sql: "SELECT count(*) AS n FROM password_reset_tokens WHERE token_hash = ?", args: [token] });
+    expect(Number(stored.rows[0]!.n)).toBe(0);
+
+    await page.goto(link!);
+    await page.getByLabel("New password", { exact: true }).fill("short");
+    await page.getByLabel("New password again").fill("short");
+    await page.getByRole("button", { name: "Set new password" }).click();
+    await expect(page.getByText("Use at least 10 characters.").waitFor()).resolves.toBeUndefined();
+    await page.getByLabel("New password", { exact: true }).fill("hull-plugs-2027");
+    await page.getByLabel("New password again").fill("hull-plugs-2027");
+    await page.getByRole("button", { name: "Set new password" }).click();
+    await page.waitForURL(/\/reset\/done/);
+    await signIn(page, stack.baseUrl, "buyer@bramblewake.example", "hull-plugs-2027");
+    expect(new URL(page.url()).pathname).toBe("/portal");
+
+    await page.goto(link!);
+    await expect(page.getByText(/expired or has already been used/).waitFor()).resolves.toBeUndefined();
+    expect(await violations()).toEqual([]);
+    await context.close();
+  });
+
+  it("an unknown e-mail gets the same page and no message", async () => {
+    const { context, page } = await newPage(browser);
+    const before = await db.execute("SELECT count(*) AS n FROM email_outbox");
+    await page.goto(`${stack.baseUrl}/reset`);
+    await page.getByLabel("E-mail").fill("nobody@nowhere.example");
+    await page.getByRole("button", { name: "E-mail me a reset link" }).click();
+    await page.waitForURL(/\/reset\/sent/);
+    await new Promise((r) => setTimeout(r, 1000));
+    const after = await db.execute("SELECT count(*) AS n FROM email_outbox");
+    expect(Number(after.rows[0]!.n)).toBe(Number(before.rows[0]!.n));
+    await context.close();
+  });
+});
