@@ -1,4 +1,4 @@
-import { and, desc, eq, max } from "drizzle-orm";
+import { and, desc, eq, max, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { documents, fileRevisions, parts, requests, uploads } from "../schema";
 import type { Tx } from "./audit";
@@ -52,7 +52,17 @@ export async function listRevisionsForPart(db: Db | Tx, partId: string) {
  */
 export async function findStoredFile(db: Db, id: string) {
   const [rev] = await db
-    .select({ fileKey: fileRevisions.fileKey, fileName: fileRevisions.fileName, sizeBytes: fileRevisions.sizeBytes, requestId: requests.id, orgId: requests.orgId, createdById: requests.createdById, isControlled: requests.isControlled })
+    .select({
+      fileKey: fileRevisions.fileKey,
+      fileName: fileRevisions.fileName,
+      sizeBytes: fileRevisions.sizeBytes,
+      requestId: requests.id,
+      orgId: requests.orgId,
+      createdById: requests.createdById,
+      isControlled: requests.isControlled,
+      // Bodies the client chose to print, when this is the part's current file.
+      selectedBodies: sql<string | null>`case when ${parts.currentRevisionId} = ${fileRevisions.id} then ${parts.selectedBodies} end`,
+    })
     .from(fileRevisions)
     .innerJoin(parts, eq(parts.id, fileRevisions.partId))
     .innerJoin(requests, eq(requests.id, parts.requestId))

@@ -34,7 +34,8 @@ export const GET = withErrors(async (req: Request, ctx: { params: Promise<{ id: 
   let positions: Float32Array;
   try {
     // In the estimator's workers: a large or hostile STEP file must not stall the web thread.
-    const r = await getEstimatePool().read({ bytes, fileName: file.fileName, options: units === "mm" || units === "in" ? { units } : {} });
+    const bodies = file.selectedBodies ? (JSON.parse(file.selectedBodies) as number[]) : undefined;
+    const r = await getEstimatePool().read({ bytes, fileName: file.fileName, options: { ...(units === "mm" || units === "in" ? { units } : {}), ...(bodies?.length ? { bodies } : {}) } });
     positions = r.positions;
   } catch (e) {
     if (e instanceof QueueFullError) {
