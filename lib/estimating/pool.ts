@@ -94,6 +94,19 @@ export class EstimatePool {
     return this.started;
   }
 
+  /**
+   * True when a job run now would be refused: every worker busy and the queue full. Callers
+   * check it before costly preparation (fetching the file), so a refusal stays cheap.
+   */
+  get isFull(): boolean {
+    return this.slots.length >= this.size && this.slots.every((s) => s.job) && this.queue.length >= this.maxQueue;
+  }
+
+  /** Seconds a refused caller should wait before trying again. */
+  get retryAfterS(): number {
+    return Math.max(1, Math.ceil(this.timeLimitMs / 1000 / 4));
+  }
+
   /** Jobs waiting plus running. */
   get load(): { running: number; queued: number } {
     return { running: this.slots.filter((s) => s.job).length, queued: this.queue.length };
@@ -115,7 +128,7 @@ export class EstimatePool {
       const idle = this.idleSlot();
       if (idle) { this.start(idle, job); return; }
       if (this.queue.length >= this.maxQueue) {
-        reject(new QueueFullError(Math.max(1, Math.ceil(this.timeLimitMs / 1000 / 4))));
+        reject(new QueueFullError(this.retryAfterS));
         return;
       }
       this.queue.push(job);

@@ -53,6 +53,11 @@ export const POST = withErrors(async (req: Request) => {
     (upload.userId === user.id || isStaff(user.role) || (upload.orgId !== null && canSee(user, { orgId: upload.orgId, createdById: user.role === "client" ? upload.userId : undefined })));
   if (!upload || !visible) throw new AppError("not_found:file", "That file was not found.");
 
+  // Refuse at once when the estimator is saturated, before fetching and checking the file.
+  const pool = getEstimatePool();
+  if (pool.isFull) {
+    return NextResponse.json({ error: { code: "busy", message: new QueueFullError(pool.retryAfterS).message } }, { status: 503, headers: { "retry-after": String(pool.retryAfterS) } });
+  }
   const bytes = await fetchUploadedFile(upload.fileKey, { maxBytes: MAX_MODEL_BYTES });
   const check = checkModelUpload(bytes, upload.fileName);
   if (!check.ok) return NextResponse.json({ error: { code: "file:type", message: check.message } }, { status: 422 });
@@ -60,7 +65,7 @@ export const POST = withErrors(async (req: Request) => {
   if (!catalogue) throw new AppError("unavailable", "The catalogue is not set up yet.");
 
   try {
-    const result = await getEstimatePool().run({ bytes, fileName: upload.fileName, options: body.options, catalogue, now: new Date() });
+    const result = await pool.run({ bytes, fileName: upload.fileName, options: body.options, catalogue, now: new Date() });
     return NextResponse.json(result, { headers: { "cache-control": "no-store" } });
   } catch (e) {
     if (e instanceof QueueFullError) {
