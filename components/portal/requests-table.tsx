@@ -75,6 +75,10 @@ export function RequestsTable({ showAuthor }: { showAuthor: boolean }) {
               {row.original.partCount} part{row.original.partCount === 1 ? "" : "s"}
               {showAuthor && row.original.createdByName ? ` · ${row.original.createdByName}` : ""}
             </div>
+            {/* On a phone the stage column is off to the side; show the stage here too. */}
+            <div className="mt-1 sm:hidden">
+              <StageBadge stage={row.original.stage} />
+            </div>
           </div>
         ),
       },
