@@ -136,9 +136,9 @@ export interface StageFaultFigures {
 }
 
 /** Production moves orders forward stage by stage, many at once; the server is killed midway. */
-export async function stageChangeFault(stack: HardStack, opts: { killAfterMs: number }): Promise<StageFaultFigures> {
+export async function stageChangeFault(stack: HardStack, opts: { killAfterMs: number; orders?: number }): Promise<StageFaultFigures> {
   const db = createClient({ url: stack.dbUrl });
-  const orders = (await db.execute("SELECT o.id FROM orders o JOIN requests r ON r.id = o.request_id WHERE r.stage = 'printing' AND r.reference LIKE 'LW-H%'")).rows.map((r) => String(r.id));
+  const orders = (await db.execute("SELECT o.id FROM orders o JOIN requests r ON r.id = o.request_id WHERE r.stage = 'printing' AND r.reference LIKE 'LW-H%' ORDER BY r.reference LIMIT ?", [opts.orders ?? 1000])).rows.map((r) => String(r.id));
   db.close();
   const action = listActions(stack.distDir).find((a) => a.name === "moveStage" && a.file.includes("admin/production"));
   if (!action) throw new Error("moveStage action not found in the build");
@@ -191,12 +191,13 @@ async function fakeEvents(stack: HardStack) {
  * is killed midway, so some events are left unacknowledged. After the restart the fake resends
  * them; every payment must be recorded exactly once, and a second full replay changes nothing.
  */
-export async function webhookFault(stack: HardStack, opts: { killAfterMs: number }): Promise<WebhookFaultFigures> {
+export async function webhookFault(stack: HardStack, opts: { killAfterMs: number; payments?: number }): Promise<WebhookFaultFigures> {
   const since = Date.now();
   const db = createClient({ url: stack.dbUrl });
   const stripe = stripeFor(stack);
-  const targets = (await db.execute("SELECT o.id AS order_id, o.org_id, o.deposit_cents, o.currency FROM orders o JOIN requests r ON r.id = o.request_id WHERE r.stage = 'accepted' AND r.reference LIKE 'LW-H%'")).rows;
+  const targets = (await db.execute("SELECT o.id AS order_id, o.org_id, o.deposit_cents, o.currency FROM orders o JOIN requests r ON r.id = o.request_id WHERE r.stage = 'accepted' AND r.reference LIKE 'LW-H%' ORDER BY r.reference LIMIT ?", [opts.payments ?? 1000])).rows;
   const sessions: string[] = [];
+  const eventsAtStart = Number((await db.execute("SELECT count(*) AS n FROM webhook_events")).rows[0]!.n);
   for (const t of targets) {
     const paymentId = crypto.randomUUID();
     await db.execute({
@@ -248,7 +249,7 @@ export async function webhookFault(stack: HardStack, opts: { killAfterMs: number
   if (!paidOnce) check.problems.push(`payments paid ${paidRows.rows[0]!.n}/${sessions.length}, deposit_paid moves ${movedRows.rows[0]!.n}, events ${before.rows[0]!.n} → ${after.rows[0]!.n} after the replay`);
   return {
     payments: sessions.length,
-    eventsBeforeKill: Number(eventsBeforeKill),
+    eventsBeforeKill: Number(eventsBeforeKill) - eventsAtStart,
     processed: Number(after.rows[0]!.n),
     paidOnce,
     replayedOutcomes: Object.fromEntries(outcomes.rows.map((r) => [String(r.outcome), Number(r.n)])),

@@ -24,13 +24,13 @@ async function main() {
     console.log(`faults: app ${stack.baseUrl}, data ${stack.dataDir}`);
     for (let i = 0; i < ROUNDS; i++) {
       const killAfterMs = 1500 + i * 700;
-      const s = await stageChangeFault(stack, { killAfterMs });
+      const s = await stageChangeFault(stack, { killAfterMs, orders: 12 });
       console.log(`stage changes  #${i + 1}: ${s.orders} orders moving, SIGKILL after ${s.killedAfterMs} ms (${s.movesAnswered} moves answered, ${s.check.counts.stageMoves} recorded in all), restart ${s.restartMs} ms → ${verdict(s.check)}${note(verdict(s.check) === "ok")}`);
     }
     for (let i = 0; i < ROUNDS; i++) {
-      const w = await webhookFault(stack, { killAfterMs: 300 + i * 150 });
+      const w = await webhookFault(stack, { killAfterMs: 300 + i * 150, payments: 10 });
       console.log(
-        `webhooks       #${i + 1}: ${w.payments} deposits paid, SIGKILL with ${w.eventsBeforeKill} events recorded, resent after restart → all paid exactly once: ${w.paidOnce}; outcomes ${JSON.stringify(w.replayedOutcomes)} → ${verdict(w.check)}${note(w.paidOnce && verdict(w.check) === "ok")}`,
+        `webhooks       #${i + 1}: ${w.payments} deposits paid, SIGKILL when ${w.eventsBeforeKill} of their events were applied, the rest resent after the restart → all paid exactly once: ${w.paidOnce}; outcomes ${JSON.stringify(w.replayedOutcomes)} → ${verdict(w.check)}${note(w.paidOnce && verdict(w.check) === "ok")}`,
       );
     }
     for (let i = 0; i < ROUNDS; i++) {
