@@ -1,3 +1,5 @@
+import { readlinkSync } from "node:fs";
+import { setPriority } from "node:os";
 import { parentPort } from "node:worker_threads";
 import { analyse, type AnalyseInput } from "./analyse";
 import { readModel } from "./read-model";
@@ -19,6 +21,7 @@ const RETIRE_ABOVE_BYTES = (Number(process.env.ESTIMATE_WASM_RETIRE_MB) || 768) 
  * `retire: true` when the worker should be replaced before its next job.
  */
 if (!parentPort) throw new Error("estimate worker must run in a worker thread");
+lowerThreadPriority();
 const port = parentPort;
 port.on("message", async (msg: { id: number; input: AnalyseInput; read?: undefined } | { id: number; read: ReadJob; input?: undefined }) => {
   const { id } = msg;
@@ -41,4 +44,19 @@ port.on("message", async (msg: { id: number; input: AnalyseInput; read?: undefin
 function shouldRetire(): boolean {
   const heap = loadedOcctHeapBytes();
   return heap !== null && heap > RETIRE_ABOVE_BYTES;
+}
+
+/**
+ * Run the analysis at the lowest CPU priority, so web requests on the main thread are served
+ * first when the cores are busy. Linux keeps a nice value per thread: /proc/thread-self names
+ * this thread's id, which setpriority(2) accepts. Elsewhere the worker keeps normal priority.
+ */
+function lowerThreadPriority(): void {
+  if (process.env.ESTIMATE_WORKER_NICE === "0") return;
+  try {
+    const tid = Number(readlinkSync("/proc/thread-self").split("/").pop());
+    if (Number.isInteger(tid) && tid > 0) setPriority(tid, Number(process.env.ESTIMATE_WORKER_NICE ?? 19));
+  } catch {
+    // Not Linux, or not allowed: normal priority.
+  }
 }
