@@ -1,17 +1,9 @@
-import Link from "next/link";
+import { AuthNotice } from "@/components/auth/auth-notice";
 
 export default function CheckEmailPage() {
   return (
-    <>
-      <h1 className="text-2xl font-semibold text-ink-900">Check your e-mail</h1>
-      <p className="mt-3 text-ink-600">
-        If an account exists for that address, we have sent it a sign-in link. The link works once and expires in 15 minutes.
-      </p>
-      <p className="mt-6 text-sm">
-        <Link href="/sign-in" className="font-medium text-kiln-700 underline">
-          Back to sign in
-        </Link>
-      </p>
-    </>
+    <AuthNotice title="Check your e-mail">
+      If an account exists for that address, we have sent it a sign-in link. The link works once and expires in 15 minutes.
+    </AuthNotice>
   );
 }

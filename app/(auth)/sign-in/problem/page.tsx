@@ -1,4 +1,4 @@
-import Link from "next/link";
+import { AuthNotice } from "@/components/auth/auth-notice";
 
 const MESSAGES: Record<string, string> = {
   Verification: "This sign-in link has expired or has already been used. Ask for a new one.",
@@ -10,16 +10,8 @@ export default async function SignInProblemPage({ searchParams }: { searchParams
   const { error } = await searchParams;
   const message = (error && MESSAGES[error]) ?? "Signing in did not work. Please try again.";
   return (
-    <>
-      <h1 className="text-2xl font-semibold text-ink-900">We could not sign you in</h1>
-      <p className="mt-3 text-ink-600" role="alert">
-        {message}
-      </p>
-      <p className="mt-6 text-sm">
-        <Link href="/sign-in" className="font-medium text-kiln-700 underline">
-          Back to sign in
-        </Link>
-      </p>
-    </>
+    <AuthNotice title="We could not sign you in" role="alert">
+      {message}
+    </AuthNotice>
   );
 }
