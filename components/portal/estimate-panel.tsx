@@ -1,5 +1,6 @@
 import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
+import { CostLines, lineQuantity } from "./cost-lines";
 import type { EstimateResult } from "@/lib/estimating/types";
 import { formatCents } from "@/lib/money";
 import { formatHours, formatLength, formatMass, formatSize, formatTemp, formatVolume, type UnitsPref } from "@/lib/units";
@@ -95,43 +96,16 @@ export function EstimatePanel({ r, units, cureTempC }: { r: EstimateResult; unit
         </p>
       ) : null}
 
-      <div className="overflow-x-auto">
-        <table className="min-w-full text-sm">
-          <caption className="sr-only">Estimated cost lines</caption>
-          <thead className="text-left text-xs uppercase tracking-wide text-ink-500">
-            <tr>
-              <th className="py-1 pr-3">Line (estimate)</th>
-              <th className="py-1 pr-3 text-right">Qty</th>
-              <th className="py-1 text-right">Amount</th>
-            </tr>
-          </thead>
-          <tbody className="divide-y divide-paper-200">
-            {r.lines.map((l) => (
-              <tr key={l.key}>
-                <td className="py-1.5 pr-3">{l.label}</td>
-                <td className="figures py-1.5 pr-3 text-right text-ink-500">
-                  {Math.round(l.quantity * 100) / 100} {l.unit}
-                </td>
-                <td className="figures py-1.5 text-right">{formatCents(l.amountCents)}</td>
-              </tr>
-            ))}
-          </tbody>
-          <tfoot className="text-sm">
-            <tr>
-              <td className="pt-2" colSpan={2}>Margin</td>
-              <td className="figures pt-2 text-right">{formatCents(r.marginCents)}</td>
-            </tr>
-            <tr>
-              <td colSpan={2}>Tax</td>
-              <td className="figures text-right">{formatCents(r.taxCents)}</td>
-            </tr>
-            <tr className="font-semibold">
-              <td colSpan={2}>Estimated total</td>
-              <td className="figures text-right">{formatCents(r.totalCents)}</td>
-            </tr>
-          </tfoot>
-        </table>
-      </div>
+      <CostLines
+        heading="Line (estimate)"
+        caption="Estimated cost lines"
+        lines={r.lines.map((l) => ({ key: l.key, label: l.label, quantity: lineQuantity(l.quantity, l.unit), amountCents: l.amountCents }))}
+        totals={[
+          { label: "Margin", cents: r.marginCents },
+          { label: "Tax", cents: r.taxCents },
+          { label: "Estimated total", cents: r.totalCents, tone: "total" },
+        ]}
+      />
       {r.cautions.length ? (
         <ul className="list-disc space-y-1 pl-5 text-xs text-ink-500">
           {r.cautions.map((c) => (

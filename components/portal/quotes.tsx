@@ -7,6 +7,7 @@ import { Button } from "@/components/ui/button";
 import { Card, CardTitle, EmptyState } from "@/components/ui/card";
 import { Field, FormMessage, Input } from "@/components/ui/input";
 import { formatCents } from "@/lib/money";
+import { CostLines, lineQuantity } from "./cost-lines";
 import { FigureKind } from "./estimate-panel";
 import { day, quoteChanges, type QuoteView } from "./quote-changes";
 
@@ -95,44 +96,17 @@ export function QuotesSection({ quotes, canAccept, defaultPo, now }: { quotes: Q
                 </ul>
               </div>
             ) : null}
-            <div className="overflow-x-auto">
-              <table className="min-w-full text-sm">
-                <thead className="text-left text-xs uppercase tracking-wide text-ink-500">
-                  <tr>
-                    <th className="py-1 pr-3">Line (quote)</th>
-                    <th className="py-1 pr-3 text-right">Qty</th>
-                    <th className="py-1 text-right">Amount</th>
-                  </tr>
-                </thead>
-                <tbody className="divide-y divide-paper-200">
-                  {q.lines.map((l) => (
-                    <tr key={l.id}>
-                      <td className="py-1.5 pr-3">{l.description}</td>
-                      <td className="figures py-1.5 pr-3 text-right text-ink-500">{Math.round(l.quantity * 100) / 100}</td>
-                      <td className="figures py-1.5 text-right">{formatCents(l.amountCents, q.currency)}</td>
-                    </tr>
-                  ))}
-                </tbody>
-                <tfoot>
-                  <tr>
-                    <td colSpan={2} className="pt-2">Margin</td>
-                    <td className="figures pt-2 text-right">{formatCents(q.marginCents, q.currency)}</td>
-                  </tr>
-                  <tr>
-                    <td colSpan={2}>Tax</td>
-                    <td className="figures text-right">{formatCents(q.taxCents, q.currency)}</td>
-                  </tr>
-                  <tr className="font-semibold">
-                    <td colSpan={2}>Quoted total</td>
-                    <td className="figures text-right">{formatCents(q.totalCents, q.currency)}</td>
-                  </tr>
-                  <tr className="text-ink-500">
-                    <td colSpan={2}>Deposit on acceptance</td>
-                    <td className="figures text-right">{formatCents(q.depositCents, q.currency)}</td>
-                  </tr>
-                </tfoot>
-              </table>
-            </div>
+            <CostLines
+              heading="Line (quote)"
+              currency={q.currency}
+              lines={q.lines.map((l) => ({ key: l.id, label: l.description, quantity: lineQuantity(l.quantity), amountCents: l.amountCents }))}
+              totals={[
+                { label: "Margin", cents: q.marginCents },
+                { label: "Tax", cents: q.taxCents },
+                { label: "Quoted total", cents: q.totalCents, tone: "total" },
+                { label: "Deposit on acceptance", cents: q.depositCents, tone: "muted" },
+              ]}
+            />
             {q.shipDate ? <p className="text-sm text-ink-600">Quoted ship date: {day(q.shipDate)}</p> : null}
             {q.notes ? <p className="text-sm text-ink-600">{q.notes}</p> : null}
             {canAccept && q === latestIssued && !expired && !q.isStale ? <AcceptForm quote={q} defaultPo={defaultPo} /> : null}
