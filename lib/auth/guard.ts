@@ -3,8 +3,8 @@ import { getDb } from "@/db/client";
 import { getSessionUser } from "@/db/queries/auth";
 import type { Role } from "@/db/schema/common";
 import { AppError } from "@/lib/errors";
-import { auth } from "./config";
 import { canOpenFiles, canSee, hasPermission, type Permission, type PolicyResource, type PolicyUser } from "./policy";
+import { sessionUserId } from "./session";
 
 export interface CurrentUser extends PolicyUser {
   name: string | null;
@@ -17,8 +17,7 @@ export interface CurrentUser extends PolicyUser {
  * the request). Returns null when signed out or disabled.
  */
 export const getCurrentUser = cache(async (): Promise<CurrentUser | null> => {
-  const session = await auth();
-  const id = session?.user?.id;
+  const id = await sessionUserId();
   if (!id) return null;
   const row = await getSessionUser(getDb(), id);
   if (!row || row.disabledAt) return null;
