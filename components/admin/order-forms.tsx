@@ -7,6 +7,7 @@ import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input, Select, Textarea } from "@/components/ui/input";
 import { stageText } from "./format";
 import { ReportUpload } from "./report-upload";
+import { ConfirmMove, type MoveContext } from "./stage-confirm";
 
 type Msg = { tone: "ok" | "error"; text: string } | null;
 
@@ -52,26 +53,44 @@ export function ScheduleForm({ orderId, cells, defaultCell, defaultStart }: { or
   );
 }
 
-export function StageForm({ orderId, options }: { orderId: string; options: { stage: string; ok: boolean; reason?: string }[] }) {
+export function StageForm({ orderId, options, context }: { orderId: string; options: { stage: string; ok: boolean; reason?: string }[]; context: MoveContext }) {
   const allowed = options.filter((o) => o.ok);
   const [to, setTo] = useState(allowed[0]?.stage ?? "");
   const [note, setNote] = useState("");
-  const { msg, pending, run } = useSubmit();
+  const [confirming, setConfirming] = useState(false);
+  const [noteError, setNoteError] = useState<string | undefined>();
+  const { msg, errors, pending, run } = useSubmit();
   if (allowed.length === 0) return <p className="text-sm text-ink-500">No stage change is open to you from here.</p>;
+  const guarded = to === "on_hold" || to === "cancelled" ? to : null;
+  const send = () => run(() => moveStage({ orderId, to, note: note || undefined, ...(guarded ? { confirm: guarded } : {}) }), `Moved to ${stageText(to)}.`);
+  const submit = () => {
+    if (!guarded) return send();
+    if (guarded === "cancelled" && note.trim().length < 3) return setNoteError("Give the reason for cancelling; the client sees it on their timeline.");
+    setNoteError(undefined);
+    setConfirming(true);
+  };
   return (
-    <form className="space-y-3" onSubmit={(e) => (e.preventDefault(), run(() => moveStage({ orderId, to, note: note || undefined }), `Moved to ${stageText(to)}.`))}>
+    <form className="space-y-3" onSubmit={(e) => (e.preventDefault(), submit())}>
       <div className="grid gap-3 sm:grid-cols-2">
         <Field label="Move to" htmlFor="to">
-          <Select id="to" value={to} onChange={(e) => setTo(e.target.value)}>
+          <Select id="to" value={to} disabled={confirming} onChange={(e) => (setTo(e.target.value), setNoteError(undefined))}>
             {allowed.map((o) => <option key={o.stage} value={o.stage}>{stageText(o.stage)}</option>)}
           </Select>
         </Field>
-        <Field label="Note (optional)" htmlFor="note">
-          <Input id="note" value={note} onChange={(e) => setNote(e.target.value)} />
+        <Field label={guarded === "cancelled" ? "Reason (the client sees it)" : guarded === "on_hold" ? "Note to the client (optional)" : "Note (optional)"} htmlFor="note" error={noteError ?? errors.note?.[0]}>
+          <Input id="note" value={note} disabled={confirming} aria-invalid={Boolean(noteError ?? errors.note)} onChange={(e) => setNote(e.target.value)} />
         </Field>
       </div>
-      <FormMessage tone={msg?.tone}>{msg?.text}</FormMessage>
-      <Button type="submit" disabled={pending}>Move stage</Button>
+      {confirming && guarded ? (
+        <ConfirmMove to={guarded} ctx={context} pending={pending} onBack={() => setConfirming(false)} onConfirm={() => (send(), setConfirming(false))} />
+      ) : (
+        <>
+          <FormMessage tone={msg?.tone}>{msg?.text}</FormMessage>
+          <Button type="submit" variant={guarded === "cancelled" ? "danger" : "primary"} disabled={pending}>
+            {guarded === "cancelled" ? "Cancel order…" : guarded === "on_hold" ? "Put on hold…" : "Move stage"}
+          </Button>
+        </>
+      )}
     </form>
   );
 }

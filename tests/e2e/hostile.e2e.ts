@@ -214,6 +214,23 @@ describe("server actions", () => {
     expect(failures).toEqual([]);
   });
 
+  it("a replayed or scripted hold or cancel without its confirmation is refused (the final pass checks nothing was written)", async () => {
+    const moveStage = actions.find((a) => a.name === "moveStage" && a.file.includes("admin/production"))!;
+    const orderId = String((await db.execute("SELECT o.id FROM orders o JOIN requests r ON r.id = o.request_id WHERE r.stage = 'scheduled' LIMIT 1")).rows[0]!.id);
+    for (const args of [
+      { orderId, to: "on_hold", note: "replayed" },
+      { orderId, to: "cancelled", note: "replayed without the confirmation" },
+      { orderId, to: "cancelled", note: "confirmation for another move", confirm: "on_hold" },
+      { orderId, to: "cancelled", note: "confirmed but", confirm: "yes" },
+    ]) {
+      const r = await admin.callAction(moveStage, [args]);
+      expect(r.result, JSON.stringify(args)).toMatchObject({ ok: false, code: "invalid_input:confirmation" });
+      expect((r.result as { message: string }).message).toMatch(/Nothing was changed/);
+    }
+    const r = await admin.callAction(moveStage, [{ orderId, to: "cancelled", confirm: "cancelled" }]);
+    expect(r.result).toMatchObject({ ok: false, code: "invalid_input", fieldErrors: { note: [expect.stringMatching(/reason/)] } });
+  });
+
   it("the auth forms refuse garbage with a 4xx or { ok: false } and write nothing", async () => {
     const failures: string[] = [];
     for (const a of actions.filter((x) => AUTH_FORMS.has(x.name) && x.name !== "signOutAction")) {

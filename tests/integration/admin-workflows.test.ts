@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { openDb, type Db } from "../../db/client";
 import { seed } from "../../db/seed";
 import { processorObjectsFor } from "../../db/seed-processor";
-import { analyses, auditLog, orders, parts, payments, quotes, rateCards, refunds, requests, scheduleBlocks } from "../../db/schema";
+import { analyses, auditLog, orders, parts, payments, quotes, rateCards, refunds, requests, scheduleBlocks, stageEvents } from "../../db/schema";
 import { STAGES, type Stage } from "../../db/schema/common";
 import { resetEnvCache } from "../../lib/env";
 import { checkTransition, roleMayMove } from "../../lib/orders/stages";
@@ -180,6 +180,69 @@ describe("production: schedule, conflicts, and the stage machine through moveSta
     as("sales");
     const o = await orderIn("printing");
     expect(await moveStage({ orderId: o.id, to: "cooling" })).toMatchObject({ ok: false, code: "forbidden" });
+  });
+});
+
+describe("production: hold and cancel need the confirmation step", () => {
+  const stageEventsOf = async (requestId: string) => (await db.select().from(stageEvents).where(eq(stageEvents.requestId, requestId))).length;
+
+  it("a hold or cancel without the confirmation (a replayed or scripted call) is refused and writes nothing", async () => {
+    const { moveStage } = await import("@/app/admin/production/actions");
+    as("production");
+    const o = await orderIn("printing");
+    const [events, audits] = [await stageEventsOf(o.requestId), await count(auditLog)];
+    for (const call of [
+      { orderId: o.id, to: "on_hold" },
+      { orderId: o.id, to: "on_hold", confirm: "cancelled" },
+      { orderId: o.id, to: "cancelled", note: "Client withdrew the programme" },
+      { orderId: o.id, to: "cancelled", note: "Client withdrew the programme", confirm: "on_hold" },
+    ]) {
+      const r = await moveStage(call);
+      expect(r, JSON.stringify(call)).toMatchObject({ ok: false, code: "invalid_input:confirmation" });
+      expect(r.ok ? "" : r.message).toMatch(/^Confirm the (hold|cancellation) first\. Nothing was changed\.$/);
+    }
+    expect(await stageOf(o.requestId)).toBe("printing");
+    expect(await stageEventsOf(o.requestId)).toBe(events);
+    expect(await count(auditLog)).toBe(audits);
+  });
+
+  it("a confirmed cancel still needs a reason", async () => {
+    const { moveStage } = await import("@/app/admin/production/actions");
+    as("production");
+    const o = await orderIn("deposit_paid");
+    for (const note of [undefined, "", "  "]) {
+      const r = await moveStage({ orderId: o.id, to: "cancelled", confirm: "cancelled", note });
+      expect(r).toMatchObject({ ok: false, code: "invalid_input", fieldErrors: { note: ["Give the reason for cancelling; the client sees it on their timeline."] } });
+    }
+    expect(await stageOf(o.requestId)).toBe("deposit_paid");
+  });
+
+  it("a confirmed hold keeps the cell booked and returns to where it was", async () => {
+    const { moveStage } = await import("@/app/admin/production/actions");
+    as("production");
+    const o = await orderIn("printing");
+    const blocks = (await db.select().from(scheduleBlocks).where(eq(scheduleBlocks.orderId, o.id))).length;
+    expect(await moveStage({ orderId: o.id, to: "on_hold", confirm: "on_hold", note: "Waiting for the client's revised flange" })).toMatchObject({ ok: true, data: { from: "printing", to: "on_hold" } });
+    expect(await stageOf(o.requestId)).toBe("on_hold");
+    expect((await db.select().from(scheduleBlocks).where(eq(scheduleBlocks.orderId, o.id))).length).toBe(blocks);
+    expect(await moveStage({ orderId: o.id, to: "printing" })).toMatchObject({ ok: true, data: { to: "printing" } });
+  });
+
+  it("a confirmed cancel with a reason cancels, frees the cell's time and leaves payments to accounts", async () => {
+    const { moveStage } = await import("@/app/admin/production/actions");
+    as("production");
+    const o = await orderIn("scheduled");
+    const paysBefore = await db.select().from(payments).where(eq(payments.orderId, o.id));
+    expect((await db.select().from(scheduleBlocks).where(eq(scheduleBlocks.orderId, o.id))).length).toBeGreaterThan(0);
+    const r = await moveStage({ orderId: o.id, to: "cancelled", confirm: "cancelled", note: "Programme cancelled by the client" });
+    expect(r).toMatchObject({ ok: true, data: { from: "scheduled", to: "cancelled" } });
+    expect(await stageOf(o.requestId)).toBe("cancelled");
+    expect(await db.select().from(scheduleBlocks).where(eq(scheduleBlocks.orderId, o.id))).toHaveLength(0);
+    expect(await db.select().from(payments).where(eq(payments.orderId, o.id))).toEqual(paysBefore);
+    const [ev] = await db.select().from(stageEvents).where(and(eq(stageEvents.requestId, o.requestId), eq(stageEvents.toStage, "cancelled")));
+    expect(ev?.note).toBe("Programme cancelled by the client");
+    const released = await db.select().from(auditLog).where(and(eq(auditLog.action, "order.release_cell"), eq(auditLog.entityId, o.id)));
+    expect(released).toHaveLength(1);
   });
 });
 

@@ -6,13 +6,14 @@ import { writeAudit } from "@/db/queries/audit";
 import { getCurrentCell } from "@/db/queries/admin-catalogue";
 import { getCurrentRateCard } from "@/db/queries/catalogue";
 import { attachInspectionReport, ensureBalancePayment, getOrderForProduction, listCellBlocks, saveSchedule, updateActuals } from "@/db/queries/orders";
+import { releaseCellBlocks } from "@/db/queries/schedule-blocks";
 import { transitionStage } from "@/db/queries/stages";
 import { requirePermission } from "@/lib/auth/guard";
 import { notifyBalanceDue, notifyScheduled, notifyShipped } from "@/lib/email/notify";
 import { AppError, toActionError, type ActionResult } from "@/lib/errors";
 import { roleMayMove } from "@/lib/orders/stages";
 import { findConflicts, jobDurations, planBlocks } from "@/lib/scheduling/blocks";
-import { actualsSchema, moveStageSchema, scheduleSchema } from "@/lib/validation/admin-production";
+import { actualsSchema, isConfirmedMove, moveStageSchema, scheduleSchema } from "@/lib/validation/admin-production";
 
 const fmt = (d: Date) => d.toISOString().slice(0, 16).replace("T", " ") + " UTC";
 const num = (v: unknown) => (typeof v === "number" && Number.isFinite(v) ? v : 0);
@@ -87,12 +88,20 @@ export async function scheduleOrder(raw: { orderId: string; cellKey: string; sta
 
 /**
  * Move an order along the stage machine. Scheduling has its own form (it needs the blocks);
- * shipping needs the carrier and tracking number and makes the balance invoice.
+ * shipping needs the carrier and tracking number and makes the balance invoice. A hold or a
+ * cancel needs `confirm` (the form's "are you sure" step), a cancel also a reason; a cancel
+ * frees the order's time on its cell. Payments are left to accounts (refunds are theirs).
  */
-export async function moveStage(raw: { orderId: string; to: string; note?: string }): Promise<ActionResult<{ from: string; to: string }>> {
+export async function moveStage(raw: { orderId: string; to: string; note?: string; confirm?: string }): Promise<ActionResult<{ from: string; to: string }>> {
   try {
     const parsed = moveStageSchema.safeParse(raw);
-    if (!parsed.success) invalid(parsed.error);
+    if (!parsed.success) {
+      const unconfirmed = parsed.error.issues.find((i) => i.path[0] === "confirm");
+      if (unconfirmed && isConfirmedMove(String((raw as { to?: unknown } | null)?.to))) {
+        throw new AppError("invalid_input:confirmation", `${unconfirmed.message} Nothing was changed.`, parsed.error.flatten().fieldErrors as Record<string, string[]>);
+      }
+      invalid(parsed.error);
+    }
     const input = parsed.data;
     const user = await requirePermission("production:record");
     const db = getDb();
@@ -106,6 +115,10 @@ export async function moveStage(raw: { orderId: string; to: string; note?: strin
     }
     const moved = await db.transaction(async (tx) => {
       const r = await transitionStage(tx, { requestId: order.request.id, to: input.to, actorId: user.id, note: input.note, expectedFrom: from });
+      if (input.to === "cancelled") {
+        const released = await releaseCellBlocks(tx, order.order.id);
+        if (released) await writeAudit(tx, { actorId: user.id, action: "order.release_cell", entityType: "order", entityId: order.order.id, orgId: order.order.orgId, before: { cellKey: order.order.cellKey, blocks: released }, after: { blocks: 0 } });
+      }
       if (input.to === "shipped") {
         const balanceId = await ensureBalancePayment(tx, order.order, user.id);
         await writeAudit(tx, { actorId: user.id, action: "order.ship", entityType: "order", entityId: order.order.id, orgId: order.order.orgId, after: { carrier: order.order.carrier, trackingNumber: order.order.trackingNumber, balancePaymentId: balanceId } });

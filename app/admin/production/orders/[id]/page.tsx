@@ -38,6 +38,12 @@ export default async function ProductionOrderPage({ params }: { params: Promise<
   })();
   const canSchedule = hasPermission(user, "production:schedule") && (stage === "deposit_paid" || stage === "scheduled");
   const canRecord = hasPermission(user, "production:record");
+  const moveContext = {
+    from: stage,
+    paidCents: o.payments.filter((p) => p.status === "paid" || p.status === "partially_refunded").reduce((sum, p) => sum + p.amountCents, 0),
+    currency: o.order.currency,
+    bookedCell: o.blocks.length ? (cells.find((c) => c.key === o.order.cellKey)?.params.name ?? o.order.cellKey) : null,
+  };
 
   return (
     <>
@@ -70,7 +76,7 @@ export default async function ProductionOrderPage({ params }: { params: Promise<
           </Card>
           <Card>
             <CardTitle>Stage</CardTitle>
-            <div className="mt-2">{canRecord ? <StageForm orderId={id} options={options} /> : <p className="text-sm text-ink-500">Your role views the board only.</p>}</div>
+            <div className="mt-2">{canRecord ? <StageForm orderId={id} options={options} context={moveContext} /> : <p className="text-sm text-ink-500">Your role views the board only.</p>}</div>
             {stage === "packed" ? <p className="mt-2 text-xs text-ink-500">Shipping needs the carrier and tracking number below; it sends the client the tracking and the balance invoice.</p> : null}
           </Card>
           <Alert tone="warn" title="Handling cautions">
