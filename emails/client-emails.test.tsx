@@ -8,6 +8,7 @@ import QuoteReadyEmail from "./quote-ready";
 import RequestReceivedEmail from "./request-received";
 import ScheduledEmail from "./scheduled";
 import ShippedEmail from "./shipped";
+import StaffMessageEmail from "./staff-message";
 
 type Template = FC<never> & { PreviewProps: object };
 const text = async (t: Template, props: object = t.PreviewProps) => (await render(createElement(t as unknown as FC<object>, props), { plainText: true })).replace(/\s+/g, " ");
@@ -21,9 +22,18 @@ describe("client e-mail templates render their preview props", () => {
     ["shipped", ShippedEmail, ["HF-88213-04", "340 kg", "lifting procedures"]],
     ["balance-due", BalanceDueEmail, ["balance of $9,552.50"]],
     ["member-invite", MemberInviteEmail, ["Kittering Aerostructures", "one-time link"]],
+    ["staff-message", StaffMessageEmail, ["Wren Halloway at Saltgrass Additive Works wrote", "140 mm to spare", "Open the conversation"]],
   ] as const)("%s", async (_name, t, expected) => {
     const out = await text(t as unknown as Template);
     for (const e of expected) expect(out).toContain(e);
+  });
+
+  it("staff-message for a controlled request says only that there is a message", async () => {
+    const t = StaffMessageEmail as unknown as Template;
+    const out = await text(t, { ...StaffMessageEmail.PreviewProps, isControlled: true, body: null });
+    expect(out).toContain("posted a new message on your request LW-2026-0042");
+    expect(out).not.toContain("140 mm");
+    expect(out).not.toContain(StaffMessageEmail.PreviewProps.projectName);
   });
 
   it("the sales copy of request-received reads as a notice to the bureau", async () => {

@@ -15,7 +15,7 @@ export interface ThreadMessage {
   authorName: string | null;
 }
 
-export function MessageThread({ requestId, messages }: { requestId: string; messages: ThreadMessage[] }) {
+export function MessageThread({ requestId, messages, isControlled = false }: { requestId: string; messages: ThreadMessage[]; isControlled?: boolean }) {
   const router = useRouter();
   const [body, setBody] = useState("");
   const [error, setError] = useState<string | null>(null);
@@ -50,6 +50,11 @@ export function MessageThread({ requestId, messages }: { requestId: string; mess
           Message to the client
         </label>
         <Textarea id="staff-message" placeholder="Write to the client…" value={body} onChange={(e) => setBody(e.target.value)} />
+        <p className="text-xs text-ink-500">
+          {isControlled
+            ? "The client is e-mailed that there is a new message, with a link; the text stays out of e-mail (controlled request)."
+            : "The client is e-mailed a copy with a link back to the request."}
+        </p>
         <FormMessage>{error}</FormMessage>
         <Button type="submit" variant="secondary" disabled={pending || !body.trim()}>
           Send message

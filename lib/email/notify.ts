@@ -3,6 +3,7 @@ import { getDb, type Db } from "@/db/client";
 import { listCurrentCells } from "@/db/queries/catalogue";
 import { getQuoteWithRequest } from "@/db/queries/client-quotes";
 import { getOrderWithRequest, getPayment } from "@/db/queries/payments";
+import { getMessageWithAuthor, listThreadClientEmails } from "@/db/queries/messages";
 import { getRequestContacts } from "@/db/queries/requests";
 import BalanceDueEmail from "@/emails/balance-due";
 import DepositReceivedEmail from "@/emails/deposit-received";
@@ -10,6 +11,7 @@ import QuoteReadyEmail from "@/emails/quote-ready";
 import RequestReceivedEmail from "@/emails/request-received";
 import ScheduledEmail from "@/emails/scheduled";
 import ShippedEmail from "@/emails/shipped";
+import StaffMessageEmail from "@/emails/staff-message";
 import { env } from "@/lib/env";
 import { formatCents } from "@/lib/money";
 import { formatMass } from "@/lib/units";
@@ -170,5 +172,36 @@ export async function notifyBalanceDue(orderId: string, db: Db = getDb()) {
     }),
     tags: [{ name: "template", value: "balance-due" }],
     idempotencyKey: `balance-due/${orderId}`,
+  });
+}
+
+/** Longest message body copied into the notice (characters); the rest is read on the request page. */
+export const MESSAGE_EXCERPT_CHARS = 2_000;
+
+/**
+ * A staff message on a request's thread, to the clients on it (the creator and every client who
+ * posted there). A controlled request's notice carries no body: only that there is a new message.
+ */
+export async function notifyStaffMessage(messageId: string, db: Db = getDb()) {
+  const m = await getMessageWithAuthor(db, messageId);
+  if (!m || !m.isFromStaff) throw new Error(`notify: staff message ${messageId} not found`);
+  const c = await contactsOrThrow(db, m.requestId);
+  const to = await listThreadClientEmails(db, m.requestId);
+  if (to.length === 0) return;
+  const body = c.isControlled ? null : m.body.slice(0, MESSAGE_EXCERPT_CHARS);
+  await sendEmail({
+    to,
+    subject: `New message on ${c.reference}`,
+    react: createElement(StaffMessageEmail, {
+      reference: c.reference,
+      projectName: c.projectName,
+      authorName: m.authorName ?? "Our sales team",
+      body,
+      isTruncated: body !== null && m.body.length > MESSAGE_EXCERPT_CHARS,
+      isControlled: c.isControlled,
+      url: requestUrl(c.id),
+    }),
+    tags: [{ name: "template", value: "staff-message" }],
+    idempotencyKey: `staff-message/${messageId}`,
   });
 }

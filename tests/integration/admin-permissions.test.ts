@@ -19,6 +19,7 @@ vi.mock("@/lib/email/notify", () => ({
   notifyScheduled: vi.fn(async () => undefined),
   notifyShipped: vi.fn(async () => undefined),
   notifyBalanceDue: vi.fn(async () => undefined),
+  notifyStaffMessage: vi.fn(async () => undefined),
 }));
 vi.mock("@/lib/email/send", () => ({ sendEmail: vi.fn(async () => ({ id: "test" })) }));
 

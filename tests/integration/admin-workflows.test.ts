@@ -26,6 +26,7 @@ const notify = vi.hoisted(() => ({
   notifyScheduled: vi.fn(async (_id: string) => undefined),
   notifyShipped: vi.fn(async (_id: string) => undefined),
   notifyBalanceDue: vi.fn(async (_id: string) => undefined),
+  notifyStaffMessage: vi.fn(async (_id: string) => undefined),
 }));
 vi.mock("@/lib/email/notify", () => notify);
 

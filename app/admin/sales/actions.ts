@@ -7,7 +7,7 @@ import { getCurrentRateCard } from "@/db/queries/catalogue";
 import { createDraftQuote, createStaffMessage, getQuote, getRequestForSales, hasOrder, markIssued, updateDraftQuote } from "@/db/queries/quotes";
 import { transitionStage } from "@/db/queries/stages";
 import { requirePermission } from "@/lib/auth/guard";
-import { notifyQuoteReady } from "@/lib/email/notify";
+import { notifyQuoteReady, notifyStaffMessage } from "@/lib/email/notify";
 import { AppError, toActionError, type ActionResult } from "@/lib/errors";
 import { checkLines, quoteTotals, validUntil } from "@/lib/quoting/lines";
 import { saveQuoteSchema, staffMessageSchema, type SaveQuoteInput } from "@/lib/validation/admin-quotes";
@@ -114,6 +114,8 @@ export async function postStaffMessage(raw: { requestId: string; body: string })
       await writeAudit(tx, { actorId: user.id, action: "message.post", entityType: "request", entityId: parsed.data.requestId, orgId: sales.request.orgId, after: { messageId: row.id, length: parsed.data.body.length } });
       return row;
     });
+    // The clients on the thread hear of it by e-mail; a failed send does not undo the message.
+    await notifyStaffMessage(m.id).catch((e: unknown) => console.error("staff message e-mail failed", e));
     revalidatePath(`/admin/sales/requests/${parsed.data.requestId}`);
     return { ok: true, data: { id: m.id } };
   } catch (e) {

@@ -90,7 +90,7 @@ export default async function SalesRequestPage({ params }: { params: Promise<{ i
           <Card>
             <CardTitle>Messages</CardTitle>
             <div className="mt-2">
-              <MessageThread requestId={id} messages={messages.map((m) => ({ ...m, createdAt: m.createdAt.toISOString() }))} />
+              <MessageThread requestId={id} isControlled={request.isControlled} messages={messages.map((m) => ({ ...m, createdAt: m.createdAt.toISOString() }))} />
             </div>
           </Card>
         </aside>
