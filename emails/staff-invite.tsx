@@ -4,7 +4,10 @@ import { buttonStyle, EmailShell, paragraph } from "./_components/shell";
 export interface StaffInviteEmailProps {
   role: string;
   invitedBy: string;
+  /** The accept page, with the one-time token. */
   url: string;
+  /** When the link stops working, as a date. */
+  expiresText: string;
 }
 
 const ROLE_TEXT: Record<string, string> = {
@@ -20,10 +23,14 @@ export default function StaffInviteEmail(p: StaffInviteEmailProps) {
       <Text style={paragraph}>
         {p.invitedBy} has made you a staff account at Saltgrass Additive Works, with the {ROLE_TEXT[p.role] ?? p.role} role.
       </Text>
-      <Text style={paragraph}>Open the sign-in page and ask for an e-mail link with this address; no password is needed.</Text>
+      <Text style={paragraph}>
+        Accept the invitation to set your name and a password. The link works once, until {p.expiresText}; after that, ask
+        your bureau&rsquo;s admin for a new one.
+      </Text>
       <Button href={p.url} style={buttonStyle}>
-        Sign in
+        Accept the invitation
       </Button>
+      <Text style={paragraph}>You can also sign in with an e-mail link sent to this address.</Text>
     </EmailShell>
   );
 }
@@ -31,5 +38,6 @@ export default function StaffInviteEmail(p: StaffInviteEmailProps) {
 StaffInviteEmail.PreviewProps = {
   role: "production",
   invitedBy: "Wren Halloway",
-  url: "http://localhost:3000/sign-in",
+  url: "http://localhost:3000/invite/accept?token=preview-token-preview-token-preview-token-0",
+  expiresText: "8 December 2026",
 } satisfies StaffInviteEmailProps;

@@ -20,7 +20,7 @@ const ROLES = ["sales", "production", "accounts", "admin"];
 
 /** Staff, their roles and clearance; invite by e-mail. The server keeps one admin at least. */
 export function StaffTable({ selfId }: { selfId: string }) {
-  const { data, error, isLoading, reload } = useApi<{ rows: StaffRow[]; invitations: { id: string; email: string; role: string; expiresAt: string }[] }>("/api/admin/staff");
+  const { data, error, isLoading, reload } = useApi<{ rows: StaffRow[]; invitations: { id: string; email: string; role: string; expiresAt: string; isExpired: boolean }[] }>("/api/admin/staff");
   const [msg, setMsg] = useState<{ tone: "ok" | "error"; text: string } | null>(null);
   const [pending, start] = useTransition();
   const change = (userId: string, patch: { role?: string; isControlledCleared?: boolean; disabled?: boolean }) =>
@@ -49,7 +49,9 @@ export function StaffTable({ selfId }: { selfId: string }) {
       <DataTable label="Staff" columns={columns} data={data?.rows} isLoading={isLoading} error={error} onRetry={reload} getRowId={(r) => r.id} searchPlaceholder="Search staff" filters={[{ columnId: "role", label: "Role", options: ROLES.map((r) => ({ value: r, label: r })) }]} empty={{ title: "No staff yet" }} />
       <InviteForm onDone={reload} />
       {data?.invitations.length ? (
-        <p className="text-sm text-ink-500">Invited, not yet signed in: {data.invitations.map((i) => `${i.email} (${i.role})`).join(", ")}</p>
+        <p className="text-sm text-ink-500">
+          Invited, not yet accepted: {data.invitations.map((i) => `${i.email} (${i.role}${i.isExpired ? ", link expired" : ""})`).join(", ")}. Invite an address again to send a fresh link.
+        </p>
       ) : null}
     </div>
   );
@@ -70,7 +72,7 @@ function InviteForm({ onDone }: { onDone: () => void }) {
           const r = await inviteStaff({ email, role });
           if (!r.ok) return setErrors(r.fieldErrors ?? {}), setMsg({ tone: "error", text: r.message });
           setErrors({});
-          setMsg({ tone: "ok", text: `${email} is invited; they sign in with an e-mail link.` });
+          setMsg({ tone: "ok", text: r.data.isResent ? `A fresh invitation went to ${email}; the earlier link no longer works.` : `${email} is invited; the e-mail links to a page where they set their name and password (for 7 days).` });
           setEmail("");
           onDone();
         });

@@ -1,57 +1,61 @@
 "use server";
 
-import { createHash, randomBytes } from "node:crypto";
 import { createElement } from "react";
 import { revalidatePath } from "next/cache";
 import { getDb } from "@/db/client";
 import { writeAudit } from "@/db/queries/audit";
 import { countOtherActiveAdmins, createStaffInvitation, findUserByEmail, getStaffUser, updateStaffUser } from "@/db/queries/staff";
+import { getUnacceptedStaffAccount, revokeOpenStaffInvitations } from "@/db/queries/staff-invitations";
 import { users } from "@/db/schema";
 import StaffInviteEmail from "@/emails/staff-invite";
 import { requirePermission } from "@/lib/auth/guard";
+import { INVITE_TTL_MS, invitationUrl, newInvitationToken } from "@/lib/auth/staff-invitation";
 import { sendEmail } from "@/lib/email/send";
 import { env } from "@/lib/env";
 import { AppError, toActionError, type ActionResult } from "@/lib/errors";
 import { inviteStaffSchema, updateStaffSchema } from "@/lib/validation/admin-staff";
 
-const INVITE_DAYS = 7;
+const dayText = (d: Date) => new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" }).format(d);
 
 /**
  * Invite a staff member: the account is made with the role and no password, and the e-mail
- * tells them to sign in with an e-mail link (the sign-in page sends links to existing accounts).
+ * links to the accept page, where they set their name and password (the link works once, for
+ * 7 days). Inviting an address whose invitation was never accepted sends a fresh link and
+ * revokes the old one; the account keeps its role.
  */
-export async function inviteStaff(raw: { email: string; role: string }): Promise<ActionResult<{ userId: string }>> {
+export async function inviteStaff(raw: { email: string; role: string }): Promise<ActionResult<{ userId: string; isResent: boolean }>> {
   try {
     const parsed = inviteStaffSchema.safeParse(raw);
     if (!parsed.success) throw new AppError("invalid_input", "Check the highlighted fields.", parsed.error.flatten().fieldErrors as Record<string, string[]>);
     const user = await requirePermission("admin:staff");
     const db = getDb();
-    const existing = await findUserByEmail(db, parsed.data.email);
-    if (existing) {
+    const { email } = parsed.data;
+    const existing = await findUserByEmail(db, email);
+    const unaccepted = existing ? await getUnacceptedStaffAccount(db, email) : null;
+    if (existing && !unaccepted) {
       throw new AppError("conflict:email", existing.role === "client" || existing.role === "client_admin" ? "That address belongs to a client account." : "That person is already on the staff.", { email: ["Already has an account."] });
     }
-    const token = randomBytes(24).toString("base64url");
+    const role = unaccepted ? (unaccepted.role as typeof parsed.data.role) : parsed.data.role;
+    const { token, tokenHash } = newInvitationToken();
+    const now = new Date();
+    const expiresAt = new Date(now.getTime() + INVITE_TTL_MS);
     const userId = await db.transaction(async (tx) => {
-      const [row] = await tx.insert(users).values({ email: parsed.data.email, role: parsed.data.role }).returning({ id: users.id });
-      await createStaffInvitation(tx, {
-        email: parsed.data.email,
-        role: parsed.data.role,
-        tokenHash: createHash("sha256").update(token).digest("hex"),
-        invitedById: user.id,
-        expiresAt: new Date(Date.now() + INVITE_DAYS * 86_400_000),
-      });
-      await writeAudit(tx, { actorId: user.id, action: "staff.invite", entityType: "user", entityId: row!.id, after: { email: parsed.data.email, role: parsed.data.role } });
-      return row!.id;
+      let id = unaccepted?.id;
+      if (id) await revokeOpenStaffInvitations(tx, email, now);
+      else id = (await tx.insert(users).values({ email, role }).returning({ id: users.id }))[0]!.id;
+      await createStaffInvitation(tx, { email, role, tokenHash, invitedById: user.id, expiresAt });
+      await writeAudit(tx, { actorId: user.id, action: unaccepted ? "staff.reinvite" : "staff.invite", entityType: "user", entityId: id, after: { email, role, expiresAt } });
+      return id;
     });
     await sendEmail({
-      to: parsed.data.email,
+      to: email,
       subject: "You are invited to the Layerwright back office",
-      react: createElement(StaffInviteEmail, { role: parsed.data.role, invitedBy: user.name ?? user.email, url: `${env().APP_URL}/sign-in` }),
+      react: createElement(StaffInviteEmail, { role, invitedBy: user.name ?? user.email, url: invitationUrl(env().APP_URL, token), expiresText: dayText(expiresAt) }),
       tags: [{ name: "template", value: "staff-invite" }],
-      idempotencyKey: `staff-invite/${userId}`,
+      idempotencyKey: `staff-invite/${tokenHash}`,
     }).catch((e: unknown) => console.error("staff invite e-mail failed", e));
     revalidatePath("/admin/staff");
-    return { ok: true, data: { userId } };
+    return { ok: true, data: { userId, isResent: Boolean(unaccepted) } };
   } catch (e) {
     return toActionError(e);
   }

@@ -10,5 +10,6 @@ export const GET = withErrors(async () => {
   await requirePermission("admin:staff");
   const db = getDb();
   const [rows, invitations] = await Promise.all([listStaff(db), listPendingStaffInvitations(db)]);
-  return NextResponse.json({ rows, invitations });
+  const now = Date.now();
+  return NextResponse.json({ rows, invitations: invitations.map((i) => ({ ...i, isExpired: i.expiresAt.getTime() <= now })) });
 });

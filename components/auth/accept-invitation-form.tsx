@@ -1,0 +1,32 @@
+"use client";
+
+import { useActionState } from "react";
+import { acceptInvitationAction } from "@/app/(auth)/invite/actions";
+import { Button } from "@/components/ui/button";
+import { Field, FormMessage, Input } from "@/components/ui/input";
+
+export function AcceptInvitationForm({ token, email }: { token: string; email: string }) {
+  const [state, action, pending] = useActionState(acceptInvitationAction, null);
+  const errors = state && !state.ok ? state.fieldErrors : undefined;
+  return (
+    <form action={action} className="space-y-4" noValidate>
+      <input type="hidden" name="token" value={token} />
+      <Field label="E-mail" htmlFor="email" hint="You sign in with this address.">
+        <Input id="email" type="email" value={email} readOnly autoComplete="username" className="bg-paper-100 text-ink-600" />
+      </Field>
+      <Field label="Your name" htmlFor="name" error={errors?.name?.[0]} hint="Shown to clients beside your messages.">
+        <Input id="name" name="name" autoComplete="name" aria-invalid={Boolean(errors?.name)} />
+      </Field>
+      <Field label="Password" htmlFor="password" error={errors?.password?.[0]} hint="At least 10 characters, with a digit.">
+        <Input id="password" name="password" type="password" autoComplete="new-password" aria-invalid={Boolean(errors?.password)} />
+      </Field>
+      <Field label="Password again" htmlFor="confirm" error={errors?.confirm?.[0]}>
+        <Input id="confirm" name="confirm" type="password" autoComplete="new-password" aria-invalid={Boolean(errors?.confirm)} />
+      </Field>
+      <FormMessage>{state && !state.ok && !errors ? state.message : undefined}</FormMessage>
+      <Button type="submit" className="w-full" disabled={pending}>
+        {pending ? "Saving…" : "Accept and set password"}
+      </Button>
+    </form>
+  );
+}
