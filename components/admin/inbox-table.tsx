@@ -4,7 +4,7 @@ import Link from "next/link";
 import { DataTable, type ColumnDef } from "@/components/data-table";
 import { Badge } from "@/components/ui/badge";
 import { dateText } from "./format";
-import { useApi } from "./use-api";
+import { useServerTable } from "./use-server-table";
 
 interface InboxRow {
   id: string;
@@ -51,16 +51,12 @@ const columns: ColumnDef<InboxRow, unknown>[] = [
 
 /** Requests waiting for a quote; the server sends them nearest-due first, then oldest. */
 export function InboxTable() {
-  const { data, error, isLoading, reload } = useApi<{ rows: InboxRow[] }>("/api/admin/inbox");
+  const { table } = useServerTable<InboxRow, { rows: InboxRow[] }>("/api/admin/inbox");
   return (
     <DataTable
       label="Sales inbox"
       columns={columns}
-      data={data?.rows}
-      isLoading={isLoading}
-      error={error}
-      onRetry={reload}
-      getRowId={(r) => r.id}
+      {...table}
       searchPlaceholder="Search reference, project, firm"
       empty={{ title: "The inbox is empty", body: "Submitted requests appear here, nearest due date first." }}
     />

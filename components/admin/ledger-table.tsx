@@ -2,14 +2,14 @@
 
 import Link from "next/link";
 import { useState } from "react";
-import { DataTable, type ColumnDef, type ColumnFiltersState, type SortingState } from "@/components/data-table";
+import { DataTable, type ColumnDef } from "@/components/data-table";
 import { buttonClass } from "@/components/ui/button";
 import { Field, Input } from "@/components/ui/input";
 import { formatCents } from "@/lib/money";
 import { dateText } from "./format";
 import { Pager } from "./pager";
 import { StatusBadge } from "./stage-badge";
-import { useApi } from "./use-api";
+import { useServerTable } from "./use-server-table";
 
 interface LedgerRow {
   id: string;
@@ -43,27 +43,18 @@ const today = () => new Date().toISOString().slice(0, 10);
 
 /** Every payment; sorted, filtered and paged on the server; CSV export of the chosen dates. */
 export function LedgerTable() {
-  const [sorting, setSorting] = useState<SortingState>([{ id: "createdAt", desc: true }]);
-  const [filters, setFilters] = useState<ColumnFiltersState>([]);
-  const [search, setSearch] = useState("");
-  const [page, setPage] = useState(1);
   const [from, setFrom] = useState(monthAgo);
   const [to, setTo] = useState(today);
-  const get = (id: string) => filters.find((f) => f.id === id)?.value as string | undefined;
-  const params = new URLSearchParams({ page: String(page), from, to });
-  if (get("status")) params.set("status", get("status")!);
-  if (get("kind")) params.set("kind", get("kind")!);
-  if (search) params.set("q", search);
-  if (sorting[0]) {
-    params.set("sort", sorting[0].id);
-    params.set("dir", sorting[0].desc ? "desc" : "asc");
-  }
-  const { data, error, isLoading, reload } = useApi<{ rows: LedgerRow[]; total: number; page: number; pageSize: number }>(from && to ? `/api/admin/ledger?${params}` : null);
+  const { table, pager, firstPage } = useServerTable<LedgerRow, { rows: LedgerRow[]; total: number; page: number; pageSize: number }>("/api/admin/ledger", {
+    server: { initialSorting: [{ id: "createdAt", desc: true }], filterParams: ["status", "kind"] },
+    params: { from, to },
+    enabled: Boolean(from && to),
+  });
   return (
     <div className="space-y-3">
       <div className="flex flex-wrap items-end gap-3">
-        <Field label="From" htmlFor="ledger-from"><Input id="ledger-from" type="date" value={from} onChange={(e) => (setFrom(e.target.value), setPage(1))} /></Field>
-        <Field label="To" htmlFor="ledger-to"><Input id="ledger-to" type="date" value={to} onChange={(e) => (setTo(e.target.value), setPage(1))} /></Field>
+        <Field label="From" htmlFor="ledger-from"><Input id="ledger-from" type="date" value={from} onChange={(e) => (setFrom(e.target.value), firstPage())} /></Field>
+        <Field label="To" htmlFor="ledger-to"><Input id="ledger-to" type="date" value={to} onChange={(e) => (setTo(e.target.value), firstPage())} /></Field>
         <a className={buttonClass("secondary")} href={`/api/admin/ledger/export?from=${from}&to=${to}`} download>
           Export CSV
         </a>
@@ -71,20 +62,15 @@ export function LedgerTable() {
       <DataTable
         label="Ledger"
         columns={columns}
-        data={data?.rows}
-        isLoading={isLoading}
-        error={error}
-        onRetry={reload}
-        getRowId={(r) => r.id}
+        {...table}
         filters={[
           { columnId: "status", label: "Status", options: ["pending", "paid", "partially_refunded", "refunded", "failed", "expired"].map((v) => ({ value: v, label: v.replace("_", " ") })) },
           { columnId: "kind", label: "Kind", options: [{ value: "deposit", label: "deposit" }, { value: "balance", label: "balance" }] },
         ]}
-        manual={{ sorting, onSortingChange: (u) => (setSorting(u), setPage(1)), columnFilters: filters, onColumnFiltersChange: (u) => (setFilters(u), setPage(1)), search, onSearchChange: (v) => (setSearch(v), setPage(1)) }}
         searchPlaceholder="Search order, firm, payment intent"
         empty={{ title: "No payments in these dates", body: "Deposits and balances appear here as clients pay." }}
       />
-      {data ? <Pager page={data.page} pageSize={data.pageSize} total={data.total} onPage={setPage} /> : null}
+      {pager ? <Pager {...pager} /> : null}
     </div>
   );
 }

@@ -1,14 +1,13 @@
 "use client";
 
 import Link from "next/link";
-import { useState } from "react";
-import { DataTable, type ColumnDef, type SortingState, type ColumnFiltersState } from "@/components/data-table";
+import { DataTable, type ColumnDef } from "@/components/data-table";
 import { Card } from "@/components/ui/card";
 import { formatCents } from "@/lib/money";
 import { dateText, hoursText } from "./format";
 import { Pager } from "./pager";
 import { StatusBadge } from "./stage-badge";
-import { useApi } from "./use-api";
+import { useServerTable } from "./use-server-table";
 
 interface QuoteRow {
   id: string;
@@ -47,17 +46,10 @@ const STATUSES = ["draft", "issued", "accepted", "expired", "declined", "superse
 
 /** Quotes by status, sorted and paged on the server, with the win rate and turnaround above. */
 export function QuotesTable() {
-  const [sorting, setSorting] = useState<SortingState>([{ id: "createdAt", desc: true }]);
-  const [filters, setFilters] = useState<ColumnFiltersState>([]);
-  const [search, setSearch] = useState("");
-  const [page, setPage] = useState(1);
-  const status = filters.find((f) => f.id === "status")?.value as string | undefined;
-  const params = new URLSearchParams({ page: String(page), ...(status ? { status } : {}), ...(search ? { q: search } : {}) });
-  if (sorting[0]) {
-    params.set("sort", sorting[0].id);
-    params.set("dir", sorting[0].desc ? "desc" : "asc");
-  }
-  const { data, error, isLoading, reload } = useApi<QuotesAnswer>(`/api/admin/quotes?${params}`);
+  const { data, table, pager, filterValue } = useServerTable<QuoteRow, QuotesAnswer>("/api/admin/quotes", {
+    server: { initialSorting: [{ id: "createdAt", desc: true }], filterParams: ["status"] },
+  });
+  const status = filterValue("status");
   const s = data?.stats;
   return (
     <div className="space-y-4">
@@ -81,24 +73,12 @@ export function QuotesTable() {
       <DataTable
         label="Quotes"
         columns={columns}
-        data={data?.rows}
-        isLoading={isLoading}
-        error={error}
-        onRetry={reload}
-        getRowId={(r) => r.id}
+        {...table}
         filters={[{ columnId: "status", label: "Status", options: STATUSES.map((v) => ({ value: v, label: v })) }]}
-        manual={{
-          sorting,
-          onSortingChange: (u) => (setSorting(u), setPage(1)),
-          columnFilters: filters,
-          onColumnFiltersChange: (u) => (setFilters(u), setPage(1)),
-          search,
-          onSearchChange: (v) => (setSearch(v), setPage(1)),
-        }}
         searchPlaceholder="Search reference, project, firm"
         empty={{ title: "No quotes yet", body: "Quotes appear here once a request is priced." }}
       />
-      {data ? <Pager page={data.page} pageSize={data.pageSize} total={data.total} onPage={setPage} /> : null}
+      {pager ? <Pager {...pager} /> : null}
     </div>
   );
 }
