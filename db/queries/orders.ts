@@ -1,34 +1,43 @@
-import { and, asc, desc, eq, gt, inArray, lt, sql } from "drizzle-orm";
+import { and, asc, count, desc, eq, gt, inArray, lt, sql } from "drizzle-orm";
 import type { Db } from "../client";
+import type { Stage } from "../schema/common";
 import { analyses, documents, fileRevisions, uploads, orders, organisations, parts, payments, requests, scheduleBlocks, stageEvents, users } from "../schema";
 import type { Tx } from "./audit";
 
-/** Stages the board shows: closed and cancelled orders stay off it (they are history). */
-const BOARD_STAGES = ["accepted", "deposit_paid", "scheduled", "printing", "cooling", "machining", "inspection", "finishing", "packed", "shipped", "delivered", "on_hold"] as const;
+/** One board card: what the card shows, nothing more. */
+const boardCard = {
+  orderId: orders.id,
+  reference: requests.reference,
+  projectName: requests.projectName,
+  firmName: organisations.name,
+  stage: requests.stage,
+  heldFromStage: requests.heldFromStage,
+  isControlled: requests.isControlled,
+  plannedShip: orders.plannedShip,
+};
 
-/** Orders on the production board: accepted and later, held orders included, closed and cancelled left out. */
-export async function listBoard(db: Db) {
+/** Cards of one board column (its stages), nearest planned start first, a page at a time. */
+export async function listBoardColumn(db: Db, stages: readonly Stage[], page: { limit: number; offset: number }) {
   return db
-    .select({
-      orderId: orders.id,
-      requestId: requests.id,
-      reference: requests.reference,
-      projectName: requests.projectName,
-      firmName: organisations.name,
-      stage: requests.stage,
-      heldFromStage: requests.heldFromStage,
-      isControlled: requests.isControlled,
-      cellKey: orders.cellKey,
-      plannedStart: orders.plannedStart,
-      plannedShip: orders.plannedShip,
-      neededBy: requests.neededBy,
-      updatedAt: requests.updatedAt,
-    })
-    .from(orders)
-    .innerJoin(requests, eq(requests.id, orders.requestId))
+    .select(boardCard)
+    .from(requests)
+    .innerJoin(orders, eq(orders.requestId, requests.id))
     .innerJoin(organisations, eq(organisations.id, orders.orgId))
-    .where(inArray(requests.stage, [...BOARD_STAGES]))
-    .orderBy(asc(orders.plannedStart), asc(requests.updatedAt));
+    .where(inArray(requests.stage, [...stages]))
+    .orderBy(asc(orders.plannedStart), asc(requests.updatedAt), asc(requests.id))
+    .limit(page.limit)
+    .offset(page.offset);
+}
+
+/** How many orders with an order record sit in each of these stages. */
+export async function countOrdersByStage(db: Db, stages: readonly Stage[]): Promise<Partial<Record<Stage, number>>> {
+  const rows = await db
+    .select({ stage: requests.stage, n: count() })
+    .from(requests)
+    .innerJoin(orders, eq(orders.requestId, requests.id))
+    .where(inArray(requests.stage, [...stages]))
+    .groupBy(requests.stage);
+  return Object.fromEntries(rows.map((r) => [r.stage, r.n]));
 }
 
 /** One order with what production needs: parts and their estimates, blocks, stage history, payments. */
