@@ -4,14 +4,14 @@
  * loopback ports, with the app server killable and restartable on its own.
  */
 import { spawn, type ChildProcess } from "node:child_process";
-import { existsSync, mkdtempSync, rmSync } from "node:fs";
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { openDb } from "../../db/client";
 import { seed } from "../../db/seed";
 import { freePort, waitForHttp } from "./free-port";
 import { migrateDatabase } from "./migrate";
-import { root, startStack, type RunningStack, type StackPorts } from "./stack";
+import { appArgs, root, startStack, type RunningStack, type StackPorts } from "./stack";
 
 export interface HardStack {
   baseUrl: string;
@@ -27,6 +27,47 @@ export interface HardStack {
   /** Start `next start` again on the same port and data. */
   restartApp: () => Promise<void>;
   stop: () => Promise<void>;
+}
+
+/** Direct children of a process (Linux /proc): the app server's cluster workers. */
+export function childPids(parent: number): number[] {
+  const pids: number[] = [];
+  for (const name of readdirSync("/proc")) {
+    if (!/^\d+$/.test(name)) continue;
+    try {
+      // /proc/PID/stat: "pid (comm) state ppid …"; comm may hold spaces, so read after the last ")".
+      const stat = readFileSync(`/proc/${name}/stat`, "utf8");
+      const ppid = Number(stat.slice(stat.lastIndexOf(")") + 2).split(" ")[1]);
+      if (ppid === parent) pids.push(Number(name));
+    } catch {
+      // gone meanwhile
+    }
+  }
+  return pids;
+}
+
+async function waitUntilGone(pids: number[], timeoutMs = 10_000): Promise<void> {
+  const until = Date.now() + timeoutMs;
+  for (const pid of pids) {
+    while (Date.now() < until) {
+      try {
+        process.kill(pid, 0);
+      } catch {
+        break;
+      }
+      // A killed child of a killed parent is reaped by init; until then it answers signal 0 as a zombie.
+      const state = (() => {
+        try {
+          const stat = readFileSync(`/proc/${pid}/stat`, "utf8");
+          return stat.slice(stat.lastIndexOf(")") + 2, stat.lastIndexOf(")") + 3);
+        } catch {
+          return "gone";
+        }
+      })();
+      if (state === "Z" || state === "gone") break;
+      await new Promise((r) => setTimeout(r, 20));
+    }
+  }
 }
 
 export function ensureBuilt(distDir: string): void {
@@ -58,11 +99,15 @@ export async function startHardStack(opts: {
   const killApp = async () => {
     if (app.exitCode !== null || app.signalCode) return;
     const gone = new Promise((r) => app.once("exit", r));
+    // The cluster's workers first, so none of them gets to shut down cleanly, then the primary.
+    const workers = childPids(app.pid!);
+    for (const pid of workers) process.kill(pid, "SIGKILL");
     app.kill("SIGKILL");
     await gone;
+    await waitUntilGone(workers);
   };
   const restartApp = async () => {
-    app = spawn(path.join(root, "node_modules/.bin/next"), ["start", "-p", String(ports.app), "-H", "localhost"], {
+    app = spawn(process.execPath, appArgs(ports.app, "localhost"), {
       cwd: root,
       env: { ...process.env, ...stack.env },
       stdio: opts.quiet === false ? "inherit" : "ignore",

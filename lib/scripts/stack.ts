@@ -1,5 +1,6 @@
 /**
- * Start the whole product on this machine: the local fakes (mocks/start.ts) and `next start`,
+ * Start the whole product on this machine: the local fakes (mocks/start.ts) and `next start`
+ * (clustered by lib/scripts/serve.mjs),
  * with every SDK pointed at the fakes. Used by `npm run demo` and by the browser tests.
  */
 import { spawn, type ChildProcess } from "node:child_process";
@@ -55,6 +56,14 @@ export function stackEnv(ports: StackPorts, dataDir: string, extra: Record<strin
   };
 }
 
+/**
+ * The app server's command line: `next start` in one process per core (lib/scripts/serve.mjs,
+ * WEB_CONCURRENCY to choose), as `npm start` runs it.
+ */
+export function appArgs(port: number, host: string): string[] {
+  return [path.join(root, "lib/scripts/serve.mjs"), "-p", String(port), "-H", host];
+}
+
 export interface RunningStack {
   baseUrl: string;
   env: Record<string, string>;
@@ -99,7 +108,7 @@ export async function startStack(opts: {
   const env = stackEnv(opts.ports, opts.dataDir, { NEXT_DIST_DIR: opts.distDir ?? ".next", ...(opts.extraEnv ?? {}) }, host);
   const quiet = opts.quiet ?? false;
   const fakes = run(path.join(root, "node_modules/.bin/tsx"), ["mocks/start.ts"], env, "local fakes", quiet);
-  const app = run(path.join(root, "node_modules/.bin/next"), ["start", "-p", String(opts.ports.app), "-H", host], env, "next start", quiet);
+  const app = run(process.execPath, appArgs(opts.ports.app, host), env, "next start", quiet);
   const processes = [fakes, app];
   const stop = async () => {
     for (const p of processes) if (p.exitCode === null) p.kill("SIGTERM");
