@@ -14,10 +14,13 @@ export class QueueFullError extends Error {
   }
 }
 
-/** A job ran past its time limit (its worker was terminated) or its worker died (e.g. out of memory). */
+/**
+ * A job ran past its time limit (its worker was terminated), its worker died (e.g. out of
+ * memory), or the worker could not fetch the file from storage.
+ */
 export class EstimateJobError extends Error {
-  readonly code: "timeout" | "worker-failed";
-  constructor(code: "timeout" | "worker-failed", message: string) {
+  readonly code: "timeout" | "worker-failed" | "storage";
+  constructor(code: "timeout" | "worker-failed" | "storage", message: string) {
     super(message);
     this.name = "EstimateJobError";
     this.code = code;
@@ -35,6 +38,8 @@ export interface PoolOptions {
   maxOldGenerationSizeMb?: number;
   /** Bundled worker file; default $ESTIMATE_WORKER_PATH or <cwd>/.worker/estimate-worker.mjs. */
   workerPath?: string;
+  /** Jobs one owner (e.g. a user) may have reserved, waiting or running at once (default 2). */
+  maxPerOwner?: number;
 }
 
 /** A read-only job: the model's triangles in millimetres, for the 3D preview. */
@@ -50,9 +55,37 @@ export interface ReadJobResult {
   units: LengthUnit;
 }
 
+/**
+ * A stored file the worker fetches itself (a short-lived signed URL), so the request thread never
+ * holds or copies the model's bytes. `check` runs the upload content check before the analysis.
+ */
+export interface RemoteFile {
+  url: string;
+  maxBytes: number;
+  timeoutMs?: number;
+}
+
+/** The analysis input with the file either in hand (`bytes`) or still in storage (`remote`). */
+export type JobInput = AnalyseInput | (Omit<AnalyseInput, "bytes"> & { remote: RemoteFile });
+
+/**
+ * Room in the pool held for one caller while it prepares its job (signs a URL, loads the
+ * catalogue), so that two callers can't both see room and both be let in. `run` uses it up;
+ * `release` gives it back unused. Either may be called once; further calls do nothing.
+ */
+export interface Reservation {
+  run(input: JobInput, onProgress?: ProgressFn): Promise<EstimateResult>;
+  release(): void;
+}
+
+/** Why `tryReserve` said no: the whole pool is busy, or this owner already has its share. */
+export type Refusal = { reason: "full" | "owner"; retryAfterS: number };
+
 interface Job {
   id: number;
-  input?: AnalyseInput;
+  input?: JobInput;
+  /** Counted against this owner's in-flight limit until the job settles. */
+  owner?: string;
   read?: ReadJob;
   onProgress?: ProgressFn;
   resolve: (r: unknown) => void;
@@ -80,6 +113,9 @@ export class EstimatePool {
   private nextId = 1;
   private closed = false;
   private started = 0;
+  private reserved = 0;
+  private readonly maxPerOwner: number;
+  private readonly perOwner = new Map<string, number>();
 
   constructor(opts: PoolOptions = {}) {
     this.size = Math.max(1, Math.min(8, opts.size ?? 1));
@@ -87,6 +123,7 @@ export class EstimatePool {
     this.timeLimitMs = opts.timeLimitMs ?? 60_000;
     this.heapMb = opts.maxOldGenerationSizeMb ?? 1024;
     this.workerPath = opts.workerPath ?? defaultWorkerPath();
+    this.maxPerOwner = Math.max(1, opts.maxPerOwner ?? 2);
   }
 
   /** Workers started so far (a retired or crashed worker is replaced by a new one). */
@@ -99,7 +136,45 @@ export class EstimatePool {
    * check it before costly preparation (fetching the file), so a refusal stays cheap.
    */
   get isFull(): boolean {
-    return this.slots.length >= this.size && this.slots.every((s) => s.job) && this.queue.length >= this.maxQueue;
+    return this.inFlight >= this.size + this.maxQueue;
+  }
+
+  /** Jobs running, waiting, and reserved by callers still preparing theirs. */
+  private get inFlight(): number {
+    return this.slots.filter((s) => s.job).length + this.queue.length + this.reserved;
+  }
+
+  /**
+   * Hold room for one job, or say why not. Synchronous, so the check and the hold are one step:
+   * a caller that gets a reservation will not be refused by `run` later.
+   */
+  tryReserve(owner?: string): Reservation | Refusal {
+    if (this.closed || this.isFull) return { reason: "full", retryAfterS: this.retryAfterS };
+    if (owner !== undefined && (this.perOwner.get(owner) ?? 0) >= this.maxPerOwner) return { reason: "owner", retryAfterS: this.retryAfterS };
+    this.reserved += 1;
+    if (owner !== undefined) this.perOwner.set(owner, (this.perOwner.get(owner) ?? 0) + 1);
+    let held = true;
+    const letGo = () => {
+      if (!held) return false;
+      held = false;
+      this.reserved -= 1;
+      return true;
+    };
+    return {
+      run: (input, onProgress) => {
+        if (!letGo()) return Promise.reject(new Error("this reservation was already used"));
+        return this.submit<EstimateResult>({ input, onProgress, owner }, true);
+      },
+      release: () => {
+        if (letGo() && owner !== undefined) this.ownerDone(owner);
+      },
+    };
+  }
+
+  private ownerDone(owner: string): void {
+    const n = (this.perOwner.get(owner) ?? 1) - 1;
+    if (n <= 0) this.perOwner.delete(owner);
+    else this.perOwner.set(owner, n);
   }
 
   /** Seconds a refused caller should wait before trying again. */
@@ -112,7 +187,7 @@ export class EstimatePool {
     return { running: this.slots.filter((s) => s.job).length, queued: this.queue.length };
   }
 
-  run(input: AnalyseInput, onProgress?: ProgressFn): Promise<EstimateResult> {
+  run(input: JobInput, onProgress?: ProgressFn): Promise<EstimateResult> {
     return this.submit<EstimateResult>({ input, onProgress });
   }
 
@@ -121,16 +196,31 @@ export class EstimatePool {
     return this.submit<ReadJobResult>({ read: job });
   }
 
-  private submit<T>(work: Pick<Job, "input" | "read" | "onProgress">): Promise<T> {
-    if (this.closed) return Promise.reject(new Error("the estimate pool is closed"));
+  /** `reserved`: room was already held by a reservation, so the queue bound was checked then. */
+  private submit<T>(work: Pick<Job, "input" | "read" | "onProgress" | "owner">, reserved = false): Promise<T> {
+    const { owner } = work;
+    const settle = () => {
+      if (owner !== undefined) this.ownerDone(owner);
+    };
+    if (this.closed) {
+      settle();
+      return Promise.reject(new Error("the estimate pool is closed"));
+    }
     return new Promise<T>((resolve, reject) => {
-      const job: Job = { id: this.nextId++, ...work, resolve: resolve as (r: unknown) => void, reject };
-      const idle = this.idleSlot();
-      if (idle) { this.start(idle, job); return; }
-      if (this.queue.length >= this.maxQueue) {
-        reject(new QueueFullError(this.retryAfterS));
+      const job: Job = {
+        id: this.nextId++,
+        ...work,
+        resolve: (r) => { settle(); (resolve as (r: unknown) => void)(r); },
+        reject: (e) => { settle(); reject(e); },
+      };
+      // Reserved work had its room counted when it was reserved; other work must find room now
+      // (held reservations included, so nobody is let in over them).
+      if (!reserved && this.isFull) {
+        job.reject(new QueueFullError(this.retryAfterS));
         return;
       }
+      const idle = this.idleSlot();
+      if (idle) { this.start(idle, job); return; }
       this.queue.push(job);
     });
   }
@@ -169,7 +259,13 @@ export class EstimatePool {
       if (msg.type === "result") job.resolve(msg.result!);
       else {
         const e = msg.error!;
-        job.reject(e.name === "EstimateInputError" ? new EstimateInputError(e.code, e.message) : new EstimateJobError("worker-failed", e.message));
+        job.reject(
+          e.name === "EstimateInputError"
+            ? new EstimateInputError(e.code, e.message)
+            : e.name === "ModelFetchError"
+              ? new EstimateJobError("storage", e.message)
+              : new EstimateJobError("worker-failed", e.message),
+        );
       }
       this.pump();
     });

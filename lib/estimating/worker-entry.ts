@@ -1,9 +1,12 @@
 import { readlinkSync } from "node:fs";
 import { setPriority } from "node:os";
 import { parentPort } from "node:worker_threads";
+import { checkModelUpload } from "../analysis/sniff";
 import { analyse, type AnalyseInput } from "./analyse";
+import { EstimateInputError } from "./errors";
+import { fetchModelBytes } from "./fetch-model";
 import { readModel } from "./read-model";
-import type { ReadJob } from "./pool";
+import type { JobInput, ReadJob } from "./pool";
 import { loadedOcctHeapBytes } from "./readers/step-occt";
 
 /**
@@ -16,14 +19,14 @@ const RETIRE_ABOVE_BYTES = (Number(process.env.ESTIMATE_WASM_RETIRE_MB) || 768) 
 /**
  * Worker-thread entry of the estimate pool. Bundled on its own by lib/scripts/build-worker.ts into
  * .worker/estimate-worker.mjs (the app's bundler never sees it). Messages:
- * in  { id, input }; out { id, type: "progress", fraction, stage } | { id, type: "result", result }
+ * in  { id, input } (input.bytes, or input.remote: a signed URL fetched here) | { id, read }; out { id, type: "progress", fraction, stage } | { id, type: "result", result }
  * | { id, type: "error", error: { name, code, message } }; each result or error may carry
  * `retire: true` when the worker should be replaced before its next job.
  */
 if (!parentPort) throw new Error("estimate worker must run in a worker thread");
 lowerThreadPriority();
 const port = parentPort;
-port.on("message", async (msg: { id: number; input: AnalyseInput; read?: undefined } | { id: number; read: ReadJob; input?: undefined }) => {
+port.on("message", async (msg: { id: number; input: JobInput; read?: undefined } | { id: number; read: ReadJob; input?: undefined }) => {
   const { id } = msg;
   try {
     if (msg.read) {
@@ -33,13 +36,23 @@ port.on("message", async (msg: { id: number; input: AnalyseInput; read?: undefin
       port.postMessage({ id, type: "result", result: { positions, format: r.format, units: r.units }, retire: shouldRetire() }, [positions.buffer as ArrayBuffer]);
       return;
     }
-    const result = await analyse(msg.input, (fraction, stage) => port.postMessage({ id, type: "progress", fraction, stage }));
+    const input = "remote" in msg.input ? await fetched(msg.input) : msg.input;
+    const result = await analyse(input, (fraction, stage) => port.postMessage({ id, type: "progress", fraction, stage }));
     port.postMessage({ id, type: "result", result, retire: shouldRetire() });
   } catch (e) {
     const err = e as { name?: string; code?: string; message?: string };
     port.postMessage({ id, type: "error", error: { name: err?.name ?? "Error", code: err?.code ?? "internal", message: err?.message ?? String(e) }, retire: shouldRetire() });
   }
 });
+
+/** A stored file fetched here, off the request thread, and given the upload content check. */
+async function fetched(input: Extract<JobInput, { remote: unknown }>): Promise<AnalyseInput> {
+  const { remote, ...rest } = input;
+  const bytes = await fetchModelBytes(remote.url, { maxBytes: remote.maxBytes, timeoutMs: remote.timeoutMs });
+  const check = checkModelUpload(bytes, rest.fileName);
+  if (!check.ok) throw new EstimateInputError("file:type", check.message);
+  return { ...rest, bytes };
+}
 
 function shouldRetire(): boolean {
   const heap = loadedOcctHeapBytes();

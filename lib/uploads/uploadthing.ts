@@ -98,14 +98,23 @@ export function fileKeyOf(urlOrKey: string, s: UploadthingSettings = uploadthing
 }
 
 /**
+ * A short-lived signed URL of a stored file, for server-side readers (the estimate worker fetches
+ * by it). Only keys or URLs of our own storage are accepted; never given to browsers.
+ */
+export async function signedFileUrl(urlOrKey: string, opts: { expiresInS?: number; utApi?: UTApi } = {}): Promise<string> {
+  const key = fileKeyOf(urlOrKey);
+  const { ufsUrl } = await (opts.utApi ?? getUtApi()).generateSignedURL(key, { expiresIn: opts.expiresInS ?? 60 });
+  return ufsUrl;
+}
+
+/**
  * Read a stored file's bytes on the server (for the analysis and the authorized download route;
  * browsers never get the storage URL). Reads through a short-lived signed URL, so private files
  * work too; refuses other hosts and anything over `maxBytes`.
  */
 export async function fetchUploadedFile(urlOrKey: string, opts: { maxBytes?: number; utApi?: UTApi } = {}): Promise<Uint8Array> {
   const maxBytes = opts.maxBytes ?? 256 * 1024 * 1024;
-  const key = fileKeyOf(urlOrKey);
-  const { ufsUrl } = await (opts.utApi ?? getUtApi()).generateSignedURL(key, { expiresIn: 60 });
+  const ufsUrl = await signedFileUrl(urlOrKey, { utApi: opts.utApi });
   const res = await fetch(ufsUrl, { signal: AbortSignal.timeout(60_000) }).catch((e: unknown) => {
     throw new UploadFetchError(`File storage unreachable: ${(e as Error).message}`, null);
   });

@@ -1,3 +1,4 @@
+import { sql } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { Db } from "../../db/client";
 import { BOARD_COLUMNS, BOARD_PAGE } from "../../lib/orders/board";
@@ -26,8 +27,8 @@ beforeAll(async () => {
   dbRef.db = db;
   // 8,000 orders of which ~1.5 % are delivered: the "Shipped" column then needs several pages.
   await growOrders(t.url, 8_000);
-  const rows = await db.$client.execute("SELECT r.stage, count(*) AS n FROM requests r JOIN orders o ON o.request_id = r.id GROUP BY r.stage");
-  expected = new Map(rows.rows.map((r) => [String(r.stage), Number(r.n)]));
+  const rows = await db.all<{ stage: string; n: number }>(sql`SELECT r.stage, count(*) AS n FROM requests r JOIN orders o ON o.request_id = r.id GROUP BY r.stage`);
+  expected = new Map(rows.map((r) => [r.stage, Number(r.n)]));
   session.current = { user: { id: await userIdOf(db, USER_BY_ROLE.production) } };
   route = await import("../../app/api/admin/board/route");
 }, 180_000);

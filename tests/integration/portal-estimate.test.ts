@@ -2,6 +2,8 @@ import { eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { Db } from "../../db/client";
 import { readFileSync } from "node:fs";
+import { createServer, type Server } from "node:http";
+import type { AddressInfo } from "node:net";
 import { fileRevisions, parts, requests, uploads, users } from "../../db/schema";
 import { binaryStl, box } from "../../mocks/fixtures/meshes";
 import { createTestDb, type TestDb } from "../helpers/test-db";
@@ -13,13 +15,18 @@ vi.mock("@/lib/auth/session", () => ({ sessionUserId: async () => session.curren
 const dbRef = vi.hoisted(() => ({ db: null as unknown }));
 vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
 const files = vi.hoisted(() => new Map<string, Uint8Array>());
-vi.mock("@/lib/uploads/uploadthing", () => ({ fetchUploadedFile: async (key: string) => files.get(key)! }));
+// Storage: the route hands the worker a signed URL; here it points at a small local file server.
+const storage = vi.hoisted(() => ({ base: "" }));
+vi.mock("@/lib/uploads/uploadthing", () => ({
+  fetchUploadedFile: async (key: string) => files.get(key)!,
+  signedFileUrl: async (key: string) => `${storage.base}/${key}`,
+}));
 const poolMode = vi.hoisted(() => ({ full: false }));
 vi.mock("@/lib/estimating/pool", async (importOriginal) => {
   const real = await importOriginal<typeof PoolModule>();
   return {
     ...real,
-    getEstimatePool: () => (poolMode.full ? { run: () => Promise.reject(new real.QueueFullError(7)) } : real.getEstimatePool()),
+    getEstimatePool: () => (poolMode.full ? { tryReserve: () => ({ reason: "full", retryAfterS: 7 }) } : real.getEstimatePool()),
   };
 });
 
@@ -27,8 +34,16 @@ let t: TestDb;
 let db: Db;
 let uploadId: string;
 let POST: (req: Request) => Promise<Response>;
+let server: Server;
 
 beforeAll(async () => {
+  server = createServer((req, res) => {
+    const body = files.get((req.url ?? "").slice(1));
+    if (!body) return void res.writeHead(404).end();
+    res.writeHead(200, { "content-length": body.length }).end(Buffer.from(body));
+  });
+  await new Promise<void>((r) => server.listen(0, "127.0.0.1", r));
+  storage.base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
   t = await createTestDb({ seeded: true });
   db = t.db;
   dbRef.db = db;
@@ -39,7 +54,10 @@ beforeAll(async () => {
   uploadId = up!.id;
   ({ POST } = await import("../../app/api/estimate/route"));
 }, 120_000);
-afterAll(() => t?.close());
+afterAll(async () => {
+  t?.close();
+  await new Promise((r) => server?.close(r));
+});
 
 const call = (body: unknown) => POST(new Request("http://localhost/api/estimate", { method: "POST", body: JSON.stringify(body), headers: { "content-type": "application/json" } }));
 
@@ -59,6 +77,29 @@ describe("POST /api/estimate", () => {
     expect(res.status).toBe(503);
     expect(res.headers.get("retry-after")).toBe("7");
   });
+
+  it("lets one user have two estimates in flight, answering a third with 429 and Retry-After", async () => {
+    const [first, second, third] = await Promise.all([call({ uploadId }), call({ uploadId }), call({ uploadId })]);
+    expect([first.status, second.status].sort()).toEqual([200, 200]);
+    expect(third.status).toBe(429);
+    expect(Number(third.headers.get("retry-after"))).toBeGreaterThan(0);
+    expect(((await third.json()) as { error: { code: string } }).error.code).toBe("busy:yours");
+    // Shares come back when the jobs end.
+    expect((await call({ uploadId })).status).toBe(200);
+  }, 60_000);
+
+  it("tells a missing stored file apart from a bad one", async () => {
+    const me = session.current!.user.id;
+    const [gone] = await db.insert(uploads).values({ fileKey: "kgone", fileName: "gone.stl", sizeBytes: 1, url: "http://127.0.0.1:1/f/kgone", userId: me, purpose: "model" }).returning({ id: uploads.id });
+    const missing = await call({ uploadId: gone!.id });
+    expect(missing.status).toBe(502);
+    expect(((await missing.json()) as { error: { code: string } }).error.code).toBe("job:storage");
+    files.set("kpdf", new TextEncoder().encode("%PDF-1.7\n" + "x".repeat(2000)));
+    const [pdf] = await db.insert(uploads).values({ fileKey: "kpdf", fileName: "drawing.stl", sizeBytes: 1, url: "http://127.0.0.1:1/f/kpdf", userId: me, purpose: "model" }).returning({ id: uploads.id });
+    const bad = await call({ uploadId: pdf!.id });
+    expect(bad.status).toBe(422);
+    expect(((await bad.json()) as { error: { code: string } }).error.code).toBe("file:type");
+  }, 60_000);
 
   it("refuses unknown options, strangers' uploads and the signed-out", async () => {
     expect((await call({ uploadId, options: { evil: true } })).status).toBe(400);

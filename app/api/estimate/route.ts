@@ -4,14 +4,13 @@ import { getDb } from "@/db/client";
 import { loadCatalogue } from "@/db/queries/catalogue";
 import { getUpload } from "@/db/queries/files";
 import { MAX_MODEL_BYTES } from "@/lib/analysis/run";
-import { checkModelUpload } from "@/lib/analysis/sniff";
 import { requireUser } from "@/lib/auth/guard";
 import { withErrors } from "@/lib/auth/route";
 import { canSee, isStaff } from "@/lib/auth/policy";
 import { AppError } from "@/lib/errors";
 import { isEstimateInputError } from "@/lib/estimating/errors";
 import { EstimateJobError, getEstimatePool, QueueFullError } from "@/lib/estimating/pool";
-import { fetchUploadedFile } from "@/lib/uploads/uploadthing";
+import { signedFileUrl } from "@/lib/uploads/uploadthing";
 
 export const runtime = "nodejs";
 
@@ -38,8 +37,9 @@ const bodySchema = z.object({
 
 /**
  * POST { uploadId, options } → the engine's JSON for that uploaded file. Signed in; the upload
- * must be the caller's own (or their firm's; staff: any). Runs in the worker pool; a full queue
- * answers 503 with Retry-After.
+ * must be the caller's own (or their firm's; staff: any). Runs in the worker pool, which also
+ * fetches the file; a full queue answers 503 and a user's third job in flight 429, both with
+ * Retry-After.
  */
 export const POST = withErrors(async (req: Request) => {
   const user = await requireUser();
@@ -53,26 +53,34 @@ export const POST = withErrors(async (req: Request) => {
     (upload.userId === user.id || isStaff(user.role) || (upload.orgId !== null && canSee(user, { orgId: upload.orgId, createdById: user.role === "client" ? upload.userId : undefined })));
   if (!upload || !visible) throw new AppError("not_found:file", "That file was not found.");
 
-  // Refuse at once when the estimator is saturated, before fetching and checking the file.
+  // Hold room in the estimator before any costly step, or refuse at once: 503 when it is busy,
+  // 429 when this user already has their share of jobs in flight.
   const pool = getEstimatePool();
-  if (pool.isFull) {
-    return NextResponse.json({ error: { code: "busy", message: new QueueFullError(pool.retryAfterS).message } }, { status: 503, headers: { "retry-after": String(pool.retryAfterS) } });
+  const ticket = pool.tryReserve(user.id);
+  if ("reason" in ticket) {
+    const status = ticket.reason === "owner" ? 429 : 503;
+    const message = ticket.reason === "owner" ? "You already have estimates running; wait for one to finish." : new QueueFullError(ticket.retryAfterS).message;
+    return NextResponse.json({ error: { code: ticket.reason === "owner" ? "busy:yours" : "busy", message } }, { status, headers: { "retry-after": String(ticket.retryAfterS) } });
   }
-  const bytes = await fetchUploadedFile(upload.fileKey, { maxBytes: MAX_MODEL_BYTES });
-  const check = checkModelUpload(bytes, upload.fileName);
-  if (!check.ok) return NextResponse.json({ error: { code: "file:type", message: check.message } }, { status: 422 });
-  const catalogue = await loadCatalogue(db);
-  if (!catalogue) throw new AppError("unavailable", "The catalogue is not set up yet.");
-
   try {
-    const result = await pool.run({ bytes, fileName: upload.fileName, options: body.options, catalogue, now: new Date() });
+    const catalogue = await loadCatalogue(db);
+    if (!catalogue) throw new AppError("unavailable", "The catalogue is not set up yet.");
+    // The worker fetches the file itself by a signed URL (valid while the job may wait its turn)
+    // and checks its content, so this thread never holds the model's bytes.
+    const url = await signedFileUrl(upload.fileKey, { expiresInS: 600 });
+    const result = await ticket.run({ remote: { url, maxBytes: MAX_MODEL_BYTES }, fileName: upload.fileName, options: body.options, catalogue, now: new Date() });
     return NextResponse.json(result, { headers: { "cache-control": "no-store" } });
   } catch (e) {
     if (e instanceof QueueFullError) {
       return NextResponse.json({ error: { code: "busy", message: e.message } }, { status: 503, headers: { "retry-after": String(e.retryAfterS) } });
     }
     if (isEstimateInputError(e)) return NextResponse.json({ error: { code: e.code, message: e.message } }, { status: 422 });
-    if (e instanceof EstimateJobError) return NextResponse.json({ error: { code: `job:${e.code}`, message: e.message } }, { status: e.code === "timeout" ? 504 : 500 });
+    if (e instanceof EstimateJobError) {
+      const status = e.code === "timeout" ? 504 : e.code === "storage" ? 502 : 500;
+      return NextResponse.json({ error: { code: `job:${e.code}`, message: e.message } }, { status });
+    }
     throw e;
+  } finally {
+    ticket.release();
   }
 });
