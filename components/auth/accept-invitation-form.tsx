@@ -11,9 +11,12 @@ export function AcceptInvitationForm({ token, email }: { token: string; email: s
   return (
     <form action={action} className="space-y-4" noValidate>
       <input type="hidden" name="token" value={token} />
-      <Field label="E-mail" htmlFor="email" hint="You sign in with this address.">
-        <Input id="email" type="email" value={email} readOnly autoComplete="username" className="bg-paper-100 text-ink-600" />
-      </Field>
+      <div className="rounded bg-paper-100 px-3 py-2 text-sm">
+        <p className="text-xs text-ink-500">You sign in with</p>
+        <p className="break-all font-medium text-ink-800">{email}</p>
+        {/* For password managers: the account the new password belongs to. */}
+        <input type="email" name="username" value={email} autoComplete="username" readOnly hidden />
+      </div>
       <Field label="Your name" htmlFor="name" error={errors?.name?.[0]} hint="Shown to clients beside your messages.">
         <Input id="name" name="name" autoComplete="name" aria-invalid={Boolean(errors?.name)} />
       </Field>

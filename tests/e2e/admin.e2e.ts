@@ -1,7 +1,8 @@
+import { createClient } from "@libsql/client";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_PASSWORDS } from "../../db/seed-data";
-import { launchBrowser, newPage, shot, signIn, startStack, type TestStack } from "./harness";
+import { launchBrowser, newPage, PHONE, shot, signIn, startStack, type TestStack } from "./harness";
 
 /** Browser journeys of the back office, one per staff role, on the seeded demo. */
 let stack: TestStack;
@@ -87,6 +88,108 @@ describe("back office journeys", () => {
     });
     expect(csv.split("\r\n")[0]).toMatch(/^date_utc,entry,kind,order_reference/);
     expect(csv).toMatch(/,refund,.*-100\.00/);
+    await page.context().close();
+  }, 120_000);
+});
+
+/** One value from the stack's database (the e2e stack runs on its own throwaway file). */
+async function sqlValue(sql: string, args: (string | number)[] = []): Promise<string> {
+  const db = createClient({ url: stack.dbUrl });
+  try {
+    return String((await db.execute({ sql, args })).rows[0]?.[0] ?? "");
+  } finally {
+    db.close();
+  }
+}
+
+describe("confirmation steps, notices and invitations", () => {
+  it("production puts an order on hold only after the are-you-sure step, at desktop and phone width", async () => {
+    const orderId = await sqlValue("SELECT o.id FROM orders o JOIN requests r ON r.id = o.request_id WHERE r.stage = 'printing' LIMIT 1");
+    for (const [viewport, name] of [[undefined, "desktop"], [PHONE, "phone"]] as const) {
+      const { page } = await newPage(browser, viewport);
+      await signIn(page, stack.baseUrl, "production@saltgrass.example", DEMO_PASSWORDS.production);
+      await page.goto(`${stack.baseUrl}/admin/production/orders/${orderId}`);
+      await page.getByLabel("Move to").selectOption("on_hold");
+      await page.getByLabel("Note to the client (optional)").fill("Waiting for the revised flange drawing");
+      await page.getByRole("button", { name: "Put on hold…" }).click();
+      const dialog = page.getByRole("alertdialog", { name: "Put this order on hold?" });
+      await dialog.getByText(/The client sees “On hold”/).waitFor();
+      await dialog.getByText(/stays booked/).waitFor();
+      await shot(page, `admin-e2e-hold-confirm-${name}`);
+      expect(await sqlValue("SELECT stage FROM requests r JOIN orders o ON o.request_id = r.id WHERE o.id = ?", [orderId])).toBe("printing");
+      if (name === "desktop") {
+        await dialog.getByRole("button", { name: "Go back" }).click();
+        expect(await page.getByRole("alertdialog").count()).toBe(0);
+      } else {
+        await dialog.getByRole("button", { name: "Yes, put it on hold" }).click();
+        await page.getByText("Moved to on hold.").waitFor();
+        expect(await sqlValue("SELECT stage FROM requests r JOIN orders o ON o.request_id = r.id WHERE o.id = ?", [orderId])).toBe("on_hold");
+      }
+      await page.context().close();
+    }
+  }, 120_000);
+
+  it("a staff message reaches the client as an e-mail notice, shown in the outbox", async () => {
+    const requestId = await sqlValue("SELECT id FROM requests WHERE stage IN ('submitted', 'quoted') AND is_controlled = 0 ORDER BY stage DESC LIMIT 1");
+    const sales = await open("sales@saltgrass.example", DEMO_PASSWORDS.sales);
+    await sales.goto(`${stack.baseUrl}/admin/sales/requests/${requestId}`);
+    await sales.getByLabel("Message to the client").fill("Thanks for the revised file: the flange now fits the Long Bed with 140 mm to spare.\n\nCould you confirm the 3 mm finish allowance on the sealing face?");
+    await sales.getByRole("button", { name: "Send message" }).click();
+    await sales.getByText("the flange now fits the Long Bed", { exact: false }).first().waitFor();
+    await sales.context().close();
+    let mailId = "";
+    for (let i = 0; i < 50 && !mailId; i++) {
+      mailId = await sqlValue("SELECT id FROM email_outbox WHERE subject LIKE 'New message on %' ORDER BY created_at DESC LIMIT 1");
+      if (!mailId) await new Promise((r) => setTimeout(r, 200));
+    }
+    expect(mailId).not.toBe("");
+    for (const [viewport, name] of [[undefined, "desktop"], [PHONE, "phone"]] as const) {
+      const { page } = await newPage(browser, viewport);
+      await signIn(page, stack.baseUrl, "admin@saltgrass.example", DEMO_PASSWORDS.admin);
+      await page.goto(`${stack.baseUrl}/admin/outbox/${mailId}`);
+      await page.frameLocator('iframe[title="Rendered e-mail"]').locator("p", { hasText: "140 mm to spare" }).waitFor();
+      await shot(page, `admin-e2e-staff-message-mail-${name}`);
+      await page.context().close();
+    }
+  }, 120_000);
+
+  it("an invited staff member accepts, sets a password and signs in with it; the used link then says so", async () => {
+    const admin = await open("admin@saltgrass.example", DEMO_PASSWORDS.admin);
+    await admin.goto(`${stack.baseUrl}/admin/staff`);
+    await admin.locator("#invite-email").fill("new.planner@saltgrass.example");
+    await admin.locator("#invite-role").selectOption("production");
+    await admin.getByRole("button", { name: "Invite" }).click();
+    await admin.getByText(/is invited; the e-mail links to a page/).waitFor();
+    await admin.context().close();
+    let html = "";
+    for (let i = 0; i < 50 && !html; i++) {
+      html = await sqlValue("SELECT html FROM email_outbox WHERE subject = 'You are invited to the Layerwright back office' AND to_addresses LIKE '%new.planner@%' LIMIT 1");
+      if (!html) await new Promise((r) => setTimeout(r, 200));
+    }
+    const link = /href="([^"]*\/invite\/accept\?token=[A-Za-z0-9_-]{43})"/.exec(html)?.[1];
+    expect(link, "accept link in the invitation e-mail").toBeTruthy();
+    const sent = new URL(link!);
+    const acceptUrl = `${stack.baseUrl}${sent.pathname}${sent.search}`;
+
+    const { page: phone } = await newPage(browser, PHONE);
+    await phone.goto(acceptUrl);
+    await phone.getByRole("heading", { name: "Join the back office" }).waitFor();
+    await shot(phone, "auth-e2e-invite-accept-phone");
+    await phone.context().close();
+
+    const { page } = await newPage(browser);
+    await page.goto(acceptUrl);
+    await shot(page, "auth-e2e-invite-accept-desktop");
+    await page.getByLabel("Your name").fill("Ansel Brook");
+    await page.getByLabel("Password", { exact: true }).fill("cell-planner-2031");
+    await page.getByLabel("Password again").fill("cell-planner-2031");
+    await page.getByRole("button", { name: "Accept and set password" }).click();
+    await page.waitForURL(/\/invite\/done$/);
+    await signIn(page, stack.baseUrl, "new.planner@saltgrass.example", "cell-planner-2031");
+    expect(new URL(page.url()).pathname).toMatch(/^\/admin/);
+    await page.goto(acceptUrl);
+    await page.getByRole("heading", { name: "This invitation no longer works" }).waitFor();
+    await shot(page, "auth-e2e-invite-used-desktop");
     await page.context().close();
   }, 120_000);
 });
