@@ -4,11 +4,12 @@ import { createAnalysis, getAnalysis, updateAnalysis } from "../../db/queries/pa
 import type { AnalyseOptions } from "../estimating/analyse";
 import { isEstimateInputError } from "../estimating/errors";
 import { EstimateJobError, getEstimatePool, QueueFullError, type EstimatePool } from "../estimating/pool";
-import { fetchUploadedFile } from "../uploads/uploadthing";
+import { signedFileUrl } from "../uploads/uploadthing";
 
 export interface RunDeps {
   pool?: Pick<EstimatePool, "run">;
-  fetchBytes?: (fileKey: string) => Promise<Uint8Array>;
+  /** A URL the worker can fetch the file by (default: a signed storage URL valid 10 minutes). */
+  fileUrl?: (fileKey: string) => Promise<string>;
   now?: () => Date;
   /** Waits between retries when the pool's queue is full, ms (tests pass 0). */
   retryDelayMs?: (retryAfterS: number) => number;
@@ -40,7 +41,7 @@ export async function startAnalysis(
 
 async function runAnalysis(db: Db, analysisId: string, input: { fileKey: string; fileName: string; options: AnalyseOptions }, deps: RunDeps) {
   const pool = deps.pool ?? getEstimatePool();
-  const fetchBytes = deps.fetchBytes ?? ((k: string) => fetchUploadedFile(k, { maxBytes: MAX_MODEL_BYTES }));
+  const fileUrl = deps.fileUrl ?? ((k: string) => signedFileUrl(k, { expiresInS: 600 }));
   const now = deps.now ?? (() => new Date());
   const fail = (code: string, message: string) =>
     updateAnalysis(db, analysisId, { status: "failed", errorCode: code, errorMessage: message, finishedAt: now() });
@@ -49,7 +50,8 @@ async function runAnalysis(db: Db, analysisId: string, input: { fileKey: string;
     await updateAnalysis(db, analysisId, { status: "running", progress: 0.02, stageLabel: "Fetching the file" });
     const cat = await loadCatalogue(db);
     if (!cat) return await fail("catalogue:missing", "The bureau's catalogue is not set up yet; our staff have been told.");
-    const bytes = await fetchBytes(input.fileKey);
+    // The worker fetches the file itself, off the request thread.
+    const remote = { url: await fileUrl(input.fileKey), maxBytes: MAX_MODEL_BYTES };
 
     // Progress writes are throttled: at most one every 400 ms, and never backwards.
     let lastWrite = 0;
@@ -66,7 +68,7 @@ async function runAnalysis(db: Db, analysisId: string, input: { fileKey: string;
     let result;
     for (let attempt = 0; ; attempt++) {
       try {
-        result = await pool.run({ bytes, fileName: input.fileName, options: input.options, catalogue: cat, now: now() }, onProgress);
+        result = await pool.run({ remote, fileName: input.fileName, options: input.options, catalogue: cat, now: now() }, onProgress);
         break;
       } catch (e) {
         if (e instanceof QueueFullError && attempt < 5) {

@@ -20,6 +20,8 @@ export interface HardStack {
   ports: StackPorts;
   env: Record<string, string>;
   distDir: string;
+  /** Server processes answering (the cluster's workers; 1 when the app runs unclustered). */
+  readonly processes: number;
   /** The app server's process (changes on restart). */
   app: () => ChildProcess;
   /** SIGKILL the app server (no shutdown hooks run) and wait for it to be gone. */
@@ -121,6 +123,9 @@ export async function startHardStack(opts: {
     ports,
     env: stack.env,
     distDir: opts.distDir,
+    get processes() {
+      return Math.max(1, childPids(app.pid!).length);
+    },
     app: () => app,
     killApp,
     restartApp,

@@ -1,4 +1,6 @@
 import { and, eq } from "drizzle-orm";
+import { createServer, type Server } from "node:http";
+import type { AddressInfo } from "node:net";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { Db } from "../../db/client";
 import { analyses, auditLog, fileRevisions, orders, parts, payments, quotes, requests, uploads, users } from "../../db/schema";
@@ -17,12 +19,15 @@ vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<obj
 vi.mock("next/cache", () => ({ revalidatePath: () => {} }));
 // Stored files: the test's own bytes by key (the upload fake is covered by its own tests).
 const files = vi.hoisted(() => new Map<string, Uint8Array>());
+// The analysis worker fetches by URL: a small local server hands out the same bytes.
+const storage = vi.hoisted(() => ({ base: "" }));
 vi.mock("@/lib/uploads/uploadthing", () => ({
   fetchUploadedFile: async (key: string) => {
     const b = files.get(key);
     if (!b) throw new Error("not stored");
     return b;
   },
+  signedFileUrl: async (key: string) => `${storage.base}/${key}`,
 }));
 // E-mails are covered by the webhook test; here they only must not fail the flow.
 vi.mock("@/lib/email/notify", () => ({ notifyRequestReceived: async () => {}, notifyDepositReceived: async () => {} }));
@@ -36,7 +41,16 @@ const as = async (email: string) => {
   return u!.id;
 };
 
+let fileServer: Server;
+
 beforeAll(async () => {
+  fileServer = createServer((req, res) => {
+    const body = files.get((req.url ?? "").slice(1));
+    if (!body) return void res.writeHead(404).end();
+    res.writeHead(200, { "content-length": body.length }).end(Buffer.from(body));
+  });
+  await new Promise<void>((r) => fileServer.listen(0, "127.0.0.1", r));
+  storage.base = `http://127.0.0.1:${(fileServer.address() as AddressInfo).port}`;
   t = await createTestDb({ seeded: true, now: new Date() });
   db = t.db;
   dbRef.db = db;
@@ -51,6 +65,7 @@ beforeAll(async () => {
 afterAll(async () => {
   await stripe?.close();
   t?.close();
+  await new Promise((r) => fileServer?.close(r));
 });
 
 const project = { projectName: "Rib tool", neededBy: "2027-05-01", cureProcess: "oven" as const, cureTemp: 120, cureTempUnit: "C" as const, isControlled: false, notes: "" };
