@@ -1,6 +1,7 @@
 import { sql } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { Db } from "../../db/client";
+import type * as BoardRoute from "../../app/api/admin/board/route";
 import { BOARD_COLUMNS, BOARD_PAGE } from "../../lib/orders/board";
 import { growOrders } from "../../lib/scripts/grow-orders";
 import { createTestDb, type TestDb } from "../helpers/test-db";
@@ -17,7 +18,7 @@ interface Column { key: string; total: number; offset: number; cards: Card[] }
 
 let t: TestDb;
 let db: Db;
-let route: typeof import("../../app/api/admin/board/route");
+let route: typeof BoardRoute;
 /** Orders per stage straight from the tables, to check the API's counts against. */
 let expected: Map<string, number>;
 
