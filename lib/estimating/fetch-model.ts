@@ -13,9 +13,17 @@ export class ModelFetchError extends Error {
 }
 
 export async function fetchModelBytes(url: string, opts: { maxBytes: number; timeoutMs?: number }): Promise<Uint8Array> {
-  const res = await fetch(url, { signal: AbortSignal.timeout(opts.timeoutMs ?? 60_000) }).catch((e: unknown) => {
-    throw new ModelFetchError(`File storage unreachable: ${(e as Error).message}`, null);
-  });
+  const signal = AbortSignal.timeout(opts.timeoutMs ?? 60_000);
+  // A kept-alive connection the storage closed meanwhile fails at once; a GET is safe to repeat,
+  // so one network failure (not a timeout) is retried on a fresh connection.
+  const res = await fetch(url, { signal })
+    .catch((e: unknown) => {
+      if (signal.aborted) throw e;
+      return fetch(url, { signal });
+    })
+    .catch((e: unknown) => {
+      throw new ModelFetchError(`File storage unreachable: ${(e as Error).message}`, null);
+    });
   if (res.status === 404) throw new ModelFetchError("The stored file was not found.", 404);
   if (!res.ok || !res.body) throw new ModelFetchError(`File storage answered ${res.status}.`, res.status);
   const declared = Number(res.headers.get("content-length") ?? "0");

@@ -140,3 +140,31 @@ describe("remote files: the worker fetches and checks the file itself", () => {
     expect((big as Error).message).toMatch(/larger than 100 bytes/);
   });
 });
+
+describe("fetching a stored file", () => {
+  it("retries once when the storage drops the connection, then reports it", async () => {
+    const { fetchModelBytes, ModelFetchError } = await import("./fetch-model");
+    let calls = 0;
+    const body = Buffer.from(binaryStl(box(1000, 500, 400)));
+    const server = createServer((req, res) => {
+      calls += 1;
+      // The first request of each pair is cut off without an answer.
+      if (calls % 2 === 1) return void req.socket.destroy();
+      res.writeHead(200, { "content-length": body.length }).end(body);
+    });
+    await new Promise<void>((r) => server.listen(0, "127.0.0.1", r));
+    const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}/part.stl`;
+    try {
+      const bytes = await fetchModelBytes(url, { maxBytes: 1e6 });
+      expect(bytes.length).toBe(body.length);
+      expect(calls).toBe(2);
+      server.removeAllListeners("request");
+      server.on("request", (req) => req.socket.destroy());
+      const e = await fetchModelBytes(url, { maxBytes: 1e6 }).catch((x: unknown) => x);
+      expect(e).toBeInstanceOf(ModelFetchError);
+      expect((e as Error).message).toMatch(/unreachable/);
+    } finally {
+      await new Promise((r) => server.close(r));
+    }
+  });
+});
