@@ -1,7 +1,7 @@
 import { and, asc, count, desc, eq, gt, inArray, lt, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import type { Stage } from "../schema/common";
-import { analyses, documents, fileRevisions, uploads, orders, organisations, parts, payments, requests, scheduleBlocks, stageEvents, users } from "../schema";
+import { analyses, changeCounters, documents, fileRevisions, uploads, orders, organisations, parts, payments, requests, scheduleBlocks, stageEvents, users } from "../schema";
 import type { Tx } from "./audit";
 
 /** One board card: what the card shows, nothing more. */
@@ -27,6 +27,12 @@ export async function listBoardColumn(db: Db, stages: readonly Stage[], page: { 
     .orderBy(asc(orders.plannedStart), asc(requests.updatedAt), asc(requests.id))
     .limit(page.limit)
     .offset(page.offset);
+}
+
+/** The database's count of changes to what the board shows (raised by triggers; see the schema). */
+export async function boardVersion(db: Db): Promise<number> {
+  const [row] = await db.select({ n: changeCounters.n }).from(changeCounters).where(eq(changeCounters.name, "board"));
+  return row?.n ?? 0;
 }
 
 /** How many orders with an order record sit in each of these stages. */

@@ -7,3 +7,4 @@ export * from "./quotes";
 export * from "./orders";
 export * from "./payments";
 export * from "./records";
+export * from "./change-counters";

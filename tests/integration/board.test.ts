@@ -1,6 +1,8 @@
-import { sql } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { Db } from "../../db/client";
+import { boardVersion } from "../../db/queries/orders";
+import { orders, organisations, requests } from "../../db/schema";
 import type * as BoardRoute from "../../app/api/admin/board/route";
 import { BOARD_COLUMNS, BOARD_PAGE } from "../../lib/orders/board";
 import { growOrders } from "../../lib/scripts/grow-orders";
@@ -73,6 +75,34 @@ describe("production board API", () => {
     }
     expect(seen).toHaveLength(first.total);
     expect(new Set(seen).size).toBe(first.total);
+  });
+
+  it("serves a repeated answer from memory but never after a change to what it shows", async () => {
+    const before = await boardVersion(db);
+    const first = (await board()).body;
+    expect(await boardVersion(db)).toBe(before); // reading changes nothing
+    expect((await board()).body).toEqual(first);
+    // Move one card from "Waiting" to "On hold" behind the API's back, as another process would.
+    const waiting = first.columns.find((c) => c.key === "waiting")!;
+    const moved = waiting.cards[0]!;
+    await db.update(requests).set({ stage: "on_hold", heldFromStage: moved.stage as "accepted" }).where(eq(requests.reference, moved.reference));
+    expect(await boardVersion(db)).toBeGreaterThan(before);
+    const after = (await board()).body;
+    expect(after.columns.find((c) => c.key === "waiting")!.total).toBe(waiting.total - 1);
+    expect(after.columns.find((c) => c.key === "on-hold")!.total).toBe(first.columns.find((c) => c.key === "on-hold")!.total + 1);
+    expect(after.columns.flatMap((c) => c.cards).find((c) => c.orderId === moved.orderId)?.stage).toBe("on_hold");
+  });
+
+  it("raises the board's counter for what the board shows, not for other edits", async () => {
+    const v0 = await boardVersion(db);
+    const [one] = await db.select({ id: requests.id }).from(requests).limit(1);
+    await db.update(requests).set({ notes: "a note the board does not show" }).where(eq(requests.id, one!.id));
+    expect(await boardVersion(db)).toBe(v0);
+    await db.update(orders).set({ plannedShip: new Date("2027-02-01T00:00:00Z") }).where(eq(orders.requestId, one!.id));
+    const [hasOrder] = await db.select({ id: orders.id }).from(orders).where(eq(orders.requestId, one!.id));
+    expect(await boardVersion(db)).toBe(hasOrder ? v0 + 1 : v0);
+    await db.update(organisations).set({ name: sql`${organisations.name}` });
+    expect(await boardVersion(db)).toBeGreaterThan(v0);
   });
 
   it("refuses an unknown column, a page too big and unknown parameters", async () => {

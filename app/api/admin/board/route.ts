@@ -1,10 +1,11 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { getDb } from "@/db/client";
-import { countOrdersByStage, listBoardColumn } from "@/db/queries/orders";
+import { boardVersion, countOrdersByStage, listBoardColumn } from "@/db/queries/orders";
 import { requirePermission } from "@/lib/auth/guard";
 import { withErrors } from "@/lib/auth/route";
 import { BOARD_COLUMNS, BOARD_PAGE, BOARD_PAGE_MAX, boardColumn } from "@/lib/orders/board";
+import { VersionedCache } from "@/lib/orders/board-cache";
 
 export const dynamic = "force-dynamic";
 
@@ -19,26 +20,38 @@ const querySchema = z
 /**
  * GET /api/admin/board → every column with its count and first `limit` cards (default 20).
  * GET /api/admin/board?column=shipped&offset=20&limit=20 → the next cards of one column.
+ * The permission is checked on every request; only the built answer is reused, while the
+ * database says nothing on the board has changed.
  */
 export const GET = withErrors(async (req: Request) => {
   await requirePermission("production:board");
   const q = querySchema.parse(Object.fromEntries(new URL(req.url).searchParams));
+  const db = getDb();
+  // Read first: a change landing while the answer is built raises it, and the next request rebuilds.
+  const version = await boardVersion(db);
+  const key = `${q.column ?? "*"}:${q.offset}:${q.limit}`;
+  const body = answers.get(key, version) ?? (await buildBoard(q));
+  answers.set(key, version, body);
+  return new NextResponse(body, { headers: { "content-type": "application/json", "cache-control": "no-store" } });
+});
+
+/** Answers by query, valid while the board's change counter is unchanged (board-cache.ts). */
+const answers = new VersionedCache<string>();
+
+async function buildBoard(q: z.infer<typeof querySchema>): Promise<string> {
   const db = getDb();
   const columns = q.column ? [boardColumn(q.column)!] : BOARD_COLUMNS;
   const [counts, cards] = await Promise.all([
     countOrdersByStage(db, columns.flatMap((c) => c.stages)),
     Promise.all(columns.map((c) => listBoardColumn(db, c.stages, { limit: q.limit, offset: q.offset }))),
   ]);
-  return NextResponse.json(
-    {
-      columns: columns.map((c, i) => ({
-        key: c.key,
-        title: c.title,
-        total: c.stages.reduce((n, s) => n + (counts[s] ?? 0), 0),
-        offset: q.offset,
-        cards: cards[i]!,
-      })),
-    },
-    { headers: { "cache-control": "no-store" } },
-  );
-});
+  return JSON.stringify({
+    columns: columns.map((c, i) => ({
+      key: c.key,
+      title: c.title,
+      total: c.stages.reduce((n, s) => n + (counts[s] ?? 0), 0),
+      offset: q.offset,
+      cards: cards[i]!,
+    })),
+  });
+}
