@@ -135,7 +135,8 @@ async function main() {
     if (!(await production.signIn("production@saltgrass.example", "demo-production-2026")).ok) throw new Error("production sign-in failed");
     const leadHeaders = { cookie: lead.cookieHeader };
     const prodHeaders = { cookie: production.cookieHeader };
-    const estimateOpts = { method: "POST", headers: { ...leadHeaders, "content-type": "application/json" }, body: JSON.stringify({ uploadId, options: {} }) };
+    // The client waits past the estimator's own 60 s time limit, so a slow job is its answer, not a client timeout.
+    const estimateOpts = { method: "POST", timeout: 75, headers: { ...leadHeaders, "content-type": "application/json" }, body: JSON.stringify({ uploadId, options: {} }) } as const;
 
     // Warm each route in every server process (first-request loading of server chunks is not
     // what we measure; connections are handed to the processes in turn).
