@@ -28,7 +28,9 @@ export async function fetchModelBytes(url: string, opts: { maxBytes: number; tim
   if (!res.ok || !res.body) throw new ModelFetchError(`File storage answered ${res.status}.`, res.status);
   const declared = Number(res.headers.get("content-length") ?? "0");
   if (declared > opts.maxBytes) throw new ModelFetchError(`The stored file is larger than ${opts.maxBytes} bytes.`, 413);
-  if (declared > 0) {
+  // A compressed body's length says nothing of the bytes fetch hands over once decoded.
+  const encoded = (res.headers.get("content-encoding") ?? "identity") !== "identity";
+  if (declared > 0 && !encoded) {
     // Known length: one buffer, filled in place.
     const out = new Uint8Array(declared);
     let size = 0;

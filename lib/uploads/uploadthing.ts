@@ -1,4 +1,5 @@
 import { UTApi } from "uploadthing/server";
+import { fetchModelBytes, ModelFetchError } from "../estimating/fetch-model";
 import { env, type Env } from "../env";
 import { LOCAL_UPLOADTHING_TOKEN, parseUploadthingToken } from "./token";
 
@@ -115,25 +116,10 @@ export async function signedFileUrl(urlOrKey: string, opts: { expiresInS?: numbe
 export async function fetchUploadedFile(urlOrKey: string, opts: { maxBytes?: number; utApi?: UTApi } = {}): Promise<Uint8Array> {
   const maxBytes = opts.maxBytes ?? 256 * 1024 * 1024;
   const ufsUrl = await signedFileUrl(urlOrKey, { utApi: opts.utApi });
-  const res = await fetch(ufsUrl, { signal: AbortSignal.timeout(60_000) }).catch((e: unknown) => {
-    throw new UploadFetchError(`File storage unreachable: ${(e as Error).message}`, null);
-  });
-  if (res.status === 404) throw new UploadFetchError("The stored file was not found", 404);
-  if (!res.ok || !res.body) throw new UploadFetchError(`File storage answered ${res.status}`, res.status);
-  const declared = Number(res.headers.get("content-length") ?? "0");
-  if (declared > maxBytes) throw new UploadFetchError(`The stored file is larger than ${maxBytes} bytes`, 413);
-  const chunks: Uint8Array[] = [];
-  let size = 0;
-  for await (const chunk of res.body as unknown as AsyncIterable<Uint8Array>) {
-    size += chunk.length;
-    if (size > maxBytes) throw new UploadFetchError(`The stored file is larger than ${maxBytes} bytes`, 413);
-    chunks.push(chunk);
+  try {
+    return await fetchModelBytes(ufsUrl, { maxBytes });
+  } catch (e) {
+    if (e instanceof ModelFetchError) throw new UploadFetchError(e.message, e.status);
+    throw e;
   }
-  const out = new Uint8Array(size);
-  let at = 0;
-  for (const c of chunks) {
-    out.set(c, at);
-    at += c.length;
-  }
-  return out;
 }

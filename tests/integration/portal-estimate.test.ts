@@ -2,10 +2,9 @@ import { eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { Db } from "../../db/client";
 import { readFileSync } from "node:fs";
-import { createServer, type Server } from "node:http";
-import type { AddressInfo } from "node:net";
 import { fileRevisions, parts, requests, uploads, users } from "../../db/schema";
 import { binaryStl, box } from "../../mocks/fixtures/meshes";
+import { startFileServer } from "../helpers/file-server";
 import { createTestDb, type TestDb } from "../helpers/test-db";
 import type * as PoolModule from "../../lib/estimating/pool";
 
@@ -34,16 +33,11 @@ let t: TestDb;
 let db: Db;
 let uploadId: string;
 let POST: (req: Request) => Promise<Response>;
-let server: Server;
+let server: Awaited<ReturnType<typeof startFileServer>>;
 
 beforeAll(async () => {
-  server = createServer((req, res) => {
-    const body = files.get((req.url ?? "").slice(1));
-    if (!body) return void res.writeHead(404).end();
-    res.writeHead(200, { "content-length": body.length }).end(Buffer.from(body));
-  });
-  await new Promise<void>((r) => server.listen(0, "127.0.0.1", r));
-  storage.base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  server = await startFileServer(files);
+  storage.base = server.base;
   t = await createTestDb({ seeded: true });
   db = t.db;
   dbRef.db = db;
@@ -56,7 +50,7 @@ beforeAll(async () => {
 }, 120_000);
 afterAll(async () => {
   t?.close();
-  await new Promise((r) => server?.close(r));
+  await server?.close();
 });
 
 const call = (body: unknown) => POST(new Request("http://localhost/api/estimate", { method: "POST", body: JSON.stringify(body), headers: { "content-type": "application/json" } }));

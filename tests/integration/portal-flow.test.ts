@@ -1,6 +1,4 @@
 import { and, eq } from "drizzle-orm";
-import { createServer, type Server } from "node:http";
-import type { AddressInfo } from "node:net";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { Db } from "../../db/client";
 import { analyses, auditLog, fileRevisions, orders, parts, payments, quotes, requests, uploads, users } from "../../db/schema";
@@ -8,6 +6,7 @@ import { binaryStl, box } from "../../mocks/fixtures/meshes";
 import { startStripeFake, type StripeFake } from "../../mocks/stripe/server";
 import { resetEnvCache } from "../../lib/env";
 import { resetStripeClient } from "../../lib/payments/stripe";
+import { startFileServer } from "../helpers/file-server";
 import { createTestDb, type TestDb } from "../helpers/test-db";
 
 // The guard reads the session through Auth.js; here the session is whatever the test says.
@@ -41,16 +40,11 @@ const as = async (email: string) => {
   return u!.id;
 };
 
-let fileServer: Server;
+let fileServer: Awaited<ReturnType<typeof startFileServer>>;
 
 beforeAll(async () => {
-  fileServer = createServer((req, res) => {
-    const body = files.get((req.url ?? "").slice(1));
-    if (!body) return void res.writeHead(404).end();
-    res.writeHead(200, { "content-length": body.length }).end(Buffer.from(body));
-  });
-  await new Promise<void>((r) => fileServer.listen(0, "127.0.0.1", r));
-  storage.base = `http://127.0.0.1:${(fileServer.address() as AddressInfo).port}`;
+  fileServer = await startFileServer(files);
+  storage.base = fileServer.base;
   t = await createTestDb({ seeded: true, now: new Date() });
   db = t.db;
   dbRef.db = db;
@@ -65,7 +59,7 @@ beforeAll(async () => {
 afterAll(async () => {
   await stripe?.close();
   t?.close();
-  await new Promise((r) => fileServer?.close(r));
+  await fileServer?.close();
 });
 
 const project = { projectName: "Rib tool", neededBy: "2027-05-01", cureProcess: "oven" as const, cureTemp: 120, cureTempUnit: "C" as const, isControlled: false, notes: "" };
