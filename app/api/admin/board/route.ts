@@ -30,8 +30,11 @@ export const GET = withErrors(async (req: Request) => {
   // Read first: a change landing while the answer is built raises it, and the next request rebuilds.
   const version = await boardVersion(db);
   const key = `${q.column ?? "*"}:${q.offset}:${q.limit}`;
-  const body = answers.get(key, version) ?? (await buildBoard(q));
-  answers.set(key, version, body);
+  let body = answers.get(key, version);
+  if (body === undefined) {
+    body = await buildBoard(q);
+    answers.set(key, version, body);
+  }
   return new NextResponse(body, { headers: { "content-type": "application/json", "cache-control": "no-store" } });
 });
 
