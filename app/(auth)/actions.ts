@@ -14,20 +14,13 @@ import { sendEmail } from "@/lib/email/send";
 import { env } from "@/lib/env";
 import type { ActionResult } from "@/lib/errors";
 import { magicLinkSchema, safeCallbackPath, signInSchema, signUpSchema } from "@/lib/validation/auth";
+import { fieldErrorsOf } from "@/lib/validation/form";
 
 type FormResult = ActionResult<undefined> | null;
 
 /** The form's fields; anything else posted to the action (no form at all) counts as empty. */
 const formEntries = (formData: unknown) => (formData instanceof FormData ? Object.fromEntries(formData) : {});
 
-function fieldErrorsOf(error: { issues: { path: PropertyKey[]; message: string }[] }) {
-  const out: Record<string, string[]> = {};
-  for (const issue of error.issues) {
-    const key = String(issue.path[0] ?? "form");
-    (out[key] ??= []).push(issue.message);
-  }
-  return out;
-}
 
 export async function signInWithPassword(_prev: FormResult, formData: FormData): Promise<FormResult> {
   const parsed = signInSchema.safeParse(formEntries(formData));

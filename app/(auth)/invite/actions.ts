@@ -5,16 +5,11 @@ import { getDb } from "@/db/client";
 import { acceptStaffInvitation } from "@/lib/auth/staff-invitation";
 import type { ActionResult } from "@/lib/errors";
 import { acceptInvitationSchema } from "@/lib/validation/staff-invitation";
+import { fieldErrorsOf, formField as field } from "@/lib/validation/form";
 
 type FormResult = ActionResult<undefined> | null;
 
-function fieldErrorsOf(error: { issues: { path: PropertyKey[]; message: string }[] }) {
-  const out: Record<string, string[]> = {};
-  for (const issue of error.issues) (out[String(issue.path[0] ?? "form")] ??= []).push(issue.message);
-  return out;
-}
 
-const field = (formData: unknown, name: string) => (formData instanceof FormData ? formData.get(name) : undefined);
 
 /**
  * The invitee sets their name and password with the invitation's one-time token. Anyone may call

@@ -9,21 +9,16 @@ import { sendEmail } from "@/lib/email/send";
 import { env } from "@/lib/env";
 import type { ActionResult } from "@/lib/errors";
 import { resetPasswordSchema, resetRequestSchema } from "@/lib/validation/password-reset";
+import { fieldErrorsOf, formField as field } from "@/lib/validation/form";
 
 type FormResult = ActionResult<undefined> | null;
 
-function fieldErrorsOf(error: { issues: { path: PropertyKey[]; message: string }[] }) {
-  const out: Record<string, string[]> = {};
-  for (const issue of error.issues) (out[String(issue.path[0] ?? "form")] ??= []).push(issue.message);
-  return out;
-}
 
 async function clientAddress(): Promise<string> {
   const h = await headers();
   return h.get("x-forwarded-for")?.split(",")[0]?.trim() || h.get("x-real-ip") || "local";
 }
 
-const field = (formData: unknown, name: string) => (formData instanceof FormData ? formData.get(name) : undefined);
 
 export async function requestPasswordResetAction(_prev: FormResult, formData: FormData): Promise<FormResult> {
   const parsed = resetRequestSchema.safeParse({ email: field(formData, "email") });
