@@ -124,6 +124,19 @@ describe("remote files: the worker fetches and checks the file itself", () => {
     expect(fetched.triangles).toBe(handed.triangles);
   });
 
+  it("reads a fetched file for the preview, thinning it to the triangles asked for", async () => {
+    const whole = await pool.read({ remote: { url: `${base}/part.stl`, maxBytes: 1e8 }, fileName: "part.stl", options: { units: "mm" } });
+    expect(whole.triangles).toBe(12);
+    expect(whole.positions.length).toBe(12 * 9);
+    // 12 triangles at most 5: every 3rd, so 4 remain, each a whole triangle of the original.
+    const thin = await pool.read({ remote: { url: `${base}/part.stl`, maxBytes: 1e8 }, fileName: "part.stl", options: { units: "mm", maxTriangles: 5 } });
+    expect(thin.triangles).toBe(12);
+    expect(thin.positions.length).toBe(4 * 9);
+    for (let t = 0; t < 4; t++) expect(Array.from(thin.positions.subarray(t * 9, t * 9 + 9))).toEqual(Array.from(whole.positions.subarray(t * 3 * 9, t * 3 * 9 + 9)));
+    const pdf = await pool.read({ remote: { url: `${base}/drawing.stl`, maxBytes: 1e8 }, fileName: "drawing.stl", options: {} }).catch((x: unknown) => x);
+    expect((pdf as EstimateInputError).code).toBe("file:type");
+  });
+
   it("refuses a file whose content is not a model, by the upload check", async () => {
     const e = await pool.run(remote("/drawing.stl")).catch((x: unknown) => x);
     expect(e).toBeInstanceOf(EstimateInputError);

@@ -42,22 +42,27 @@ export interface PoolOptions {
   maxPerOwner?: number;
 }
 
-/** A read-only job: the model's triangles in millimetres, for the 3D preview. */
-export interface ReadJob {
-  bytes: Uint8Array;
+/**
+ * A read-only job: the model's triangles in millimetres, for the 3D preview. The file comes in
+ * hand (`bytes`) or is fetched by the worker (`remote`). With `maxTriangles`, a larger mesh is
+ * thinned in the worker to every k-th triangle (the preview only).
+ */
+export type ReadJob = ({ bytes: Uint8Array } | { remote: RemoteFile }) & {
   fileName: string;
-  options: { units?: LengthUnit; toleranceMm?: number; bodies?: number[] };
-}
+  options: { units?: LengthUnit; toleranceMm?: number; bodies?: number[]; maxTriangles?: number };
+};
 
 export interface ReadJobResult {
   positions: Float32Array;
+  /** Triangles in the model (before any thinning). */
+  triangles: number;
   format: MeshFormat;
   units: LengthUnit;
 }
 
 /**
  * A stored file the worker fetches itself (a short-lived signed URL), so the request thread never
- * holds or copies the model's bytes. `check` runs the upload content check before the analysis.
+ * holds or copies the model's bytes; the worker runs the upload content check on what it fetched.
  */
 export interface RemoteFile {
   url: string;

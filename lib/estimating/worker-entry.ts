@@ -6,7 +6,7 @@ import { analyse, type AnalyseInput } from "./analyse";
 import { EstimateInputError } from "./errors";
 import { fetchModelBytes } from "./fetch-model";
 import { readModel } from "./read-model";
-import type { JobInput, ReadJob } from "./pool";
+import type { JobInput, ReadJob, RemoteFile } from "./pool";
 import { loadedOcctHeapBytes } from "./readers/step-occt";
 
 /**
@@ -31,12 +31,15 @@ port.on("message", async (msg: { id: number; input: JobInput; read?: undefined }
   try {
     if (msg.read) {
       // Only the mesh, for the 3D preview: STEP/IGES tessellation must not run on the web thread either.
-      const r = await readModel(msg.read.bytes, msg.read.fileName, msg.read.options);
-      const positions = r.mesh.positions;
-      port.postMessage({ id, type: "result", result: { positions, format: r.format, units: r.units }, retire: shouldRetire() }, [positions.buffer as ArrayBuffer]);
+      const job = msg.read;
+      const bytes = "remote" in job ? (await fetched({ remote: job.remote, fileName: job.fileName })).bytes : job.bytes;
+      const r = await readModel(bytes, job.fileName, job.options);
+      const triangles = r.mesh.positions.length / 9;
+      const positions = thinned(r.mesh.positions, job.options.maxTriangles);
+      port.postMessage({ id, type: "result", result: { positions, triangles, format: r.format, units: r.units }, retire: shouldRetire() }, [positions.buffer as ArrayBuffer]);
       return;
     }
-    const input = "remote" in msg.input ? await fetched(msg.input) : msg.input;
+    const input: AnalyseInput = "remote" in msg.input ? await fetched(msg.input) : msg.input;
     const result = await analyse(input, (fraction, stage) => port.postMessage({ id, type: "progress", fraction, stage }));
     port.postMessage({ id, type: "result", result, retire: shouldRetire() });
   } catch (e) {
@@ -46,12 +49,22 @@ port.on("message", async (msg: { id: number; input: JobInput; read?: undefined }
 });
 
 /** A stored file fetched here, off the request thread, and given the upload content check. */
-async function fetched(input: Extract<JobInput, { remote: unknown }>): Promise<AnalyseInput> {
+async function fetched<T extends { remote: RemoteFile; fileName: string }>(input: T): Promise<Omit<T, "remote"> & { bytes: Uint8Array }> {
   const { remote, ...rest } = input;
   const bytes = await fetchModelBytes(remote.url, { maxBytes: remote.maxBytes, timeoutMs: remote.timeoutMs });
   const check = checkModelUpload(bytes, rest.fileName);
   if (!check.ok) throw new EstimateInputError("file:type", check.message);
   return { ...rest, bytes };
+}
+
+/** Every k-th triangle, so that at most `max` remain (the preview only; the estimate reads all). */
+function thinned(positions: Float32Array, max: number | undefined): Float32Array {
+  const tris = positions.length / 9;
+  if (!max || tris <= max) return positions;
+  const k = Math.ceil(tris / max);
+  const out = new Float32Array(Math.floor(tris / k) * 9);
+  for (let t = 0, o = 0; o < out.length; t += k, o += 9) out.set(positions.subarray(t * 9, t * 9 + 9), o);
+  return out;
 }
 
 function shouldRetire(): boolean {

@@ -8,7 +8,7 @@ import { withErrors } from "@/lib/auth/route";
 import { AppError } from "@/lib/errors";
 import { isEstimateInputError } from "@/lib/estimating/errors";
 import { EstimateJobError, getEstimatePool, QueueFullError } from "@/lib/estimating/pool";
-import { fetchUploadedFile } from "@/lib/uploads/uploadthing";
+import { signedFileUrl } from "@/lib/uploads/uploadthing";
 
 export const runtime = "nodejs";
 
@@ -30,13 +30,20 @@ export const GET = withErrors(async (req: Request, ctx: { params: Promise<{ id: 
     throw new AppError("not_found:file", "That file was not found.");
   }
   const units = new URL(req.url).searchParams.get("units");
-  const bytes = await fetchUploadedFile(file.fileKey, { maxBytes: MAX_MODEL_BYTES });
   let positions: Float32Array;
+  let tris: number;
   try {
-    // In the estimator's workers: a large or hostile STEP file must not stall the web thread.
+    // In the estimator's workers, which fetch the file themselves and thin a huge mesh: a large or
+    // hostile file must not stall the web thread.
     const bodies = file.selectedBodies ? (JSON.parse(file.selectedBodies) as number[]) : undefined;
-    const r = await getEstimatePool().read({ bytes, fileName: file.fileName, options: { ...(units === "mm" || units === "in" ? { units } : {}), ...(bodies?.length ? { bodies } : {}) } });
+    const url = await signedFileUrl(file.fileKey, { expiresInS: 600 });
+    const r = await getEstimatePool().read({
+      remote: { url, maxBytes: MAX_MODEL_BYTES },
+      fileName: file.fileName,
+      options: { ...(units === "mm" || units === "in" ? { units } : {}), ...(bodies?.length ? { bodies } : {}), maxTriangles: PREVIEW_MAX_TRIANGLES },
+    });
     positions = r.positions;
+    tris = r.triangles;
   } catch (e) {
     if (e instanceof QueueFullError) {
       return Response.json({ error: { code: "busy", message: e.message } }, { status: 503, headers: { "retry-after": String(e.retryAfterS) } });
@@ -44,13 +51,6 @@ export const GET = withErrors(async (req: Request, ctx: { params: Promise<{ id: 
     if (isEstimateInputError(e)) throw new AppError("invalid_input:file", e.message);
     if (e instanceof EstimateJobError) throw new AppError("unavailable:preview", e.message);
     throw e;
-  }
-  const tris = positions.length / 9;
-  if (tris > PREVIEW_MAX_TRIANGLES) {
-    const k = Math.ceil(tris / PREVIEW_MAX_TRIANGLES);
-    const out = new Float32Array(Math.floor(tris / k) * 9);
-    for (let t = 0, o = 0; o < out.length; t += k, o += 9) out.set(positions.subarray(t * 9, t * 9 + 9), o);
-    positions = out;
   }
   await writeAudit(db, { actorId: user.id, action: "file.preview", entityType: "revision", entityId: id, orgId: file.orgId, after: { fileName: file.fileName, triangles: tris } });
   return new Response(new Uint8Array(positions.buffer as ArrayBuffer, positions.byteOffset, positions.byteLength), {
