@@ -137,8 +137,9 @@ export class EstimatePool {
   }
 
   /**
-   * True when a job run now would be refused: every worker busy and the queue full. Callers
-   * check it before costly preparation (fetching the file), so a refusal stays cheap.
+   * True when a job run now would be refused: running, waiting and reserved jobs fill every
+   * worker and the queue. Callers that prepare work first use `tryReserve`, which checks and holds
+   * in one step.
    */
   get isFull(): boolean {
     return this.inFlight >= this.size + this.maxQueue;

@@ -31,44 +31,28 @@ export interface HardStack {
   stop: () => Promise<void>;
 }
 
-/** Direct children of a process (Linux /proc): the app server's cluster workers. */
-export function childPids(parent: number): number[] {
-  const pids: number[] = [];
-  for (const name of readdirSync("/proc")) {
-    if (!/^\d+$/.test(name)) continue;
-    try {
-      // /proc/PID/stat: "pid (comm) state ppid …"; comm may hold spaces, so read after the last ")".
-      const stat = readFileSync(`/proc/${name}/stat`, "utf8");
-      const ppid = Number(stat.slice(stat.lastIndexOf(")") + 2).split(" ")[1]);
-      if (ppid === parent) pids.push(Number(name));
-    } catch {
-      // gone meanwhile
-    }
+/** A process's state letter and parent from /proc/PID/stat (Linux), or null once it is gone. */
+function procStat(pid: number | string): { state: string; ppid: number } | null {
+  try {
+    // "pid (comm) state ppid …"; comm may hold spaces, so read after the last ")".
+    const stat = readFileSync(`/proc/${pid}/stat`, "utf8");
+    const [state = "", ppid] = stat.slice(stat.lastIndexOf(")") + 2).split(" ");
+    return { state, ppid: Number(ppid) };
+  } catch {
+    return null;
   }
-  return pids;
 }
 
+/** Direct children of a process: the app server's cluster workers. */
+export function childPids(parent: number): number[] {
+  return readdirSync("/proc").filter((name) => /^\d+$/.test(name) && procStat(name)?.ppid === parent).map(Number);
+}
+
+/** Until each process is gone or a zombie (a killed child of a killed parent waits for init to reap it). */
 async function waitUntilGone(pids: number[], timeoutMs = 10_000): Promise<void> {
   const until = Date.now() + timeoutMs;
   for (const pid of pids) {
-    while (Date.now() < until) {
-      try {
-        process.kill(pid, 0);
-      } catch {
-        break;
-      }
-      // A killed child of a killed parent is reaped by init; until then it answers signal 0 as a zombie.
-      const state = (() => {
-        try {
-          const stat = readFileSync(`/proc/${pid}/stat`, "utf8");
-          return stat.slice(stat.lastIndexOf(")") + 2, stat.lastIndexOf(")") + 3);
-        } catch {
-          return "gone";
-        }
-      })();
-      if (state === "Z" || state === "gone") break;
-      await new Promise((r) => setTimeout(r, 20));
-    }
+    for (let s = procStat(pid); s && s.state !== "Z" && Date.now() < until; s = procStat(pid)) await new Promise((r) => setTimeout(r, 20));
   }
 }
 

@@ -51,9 +51,12 @@ async function storeEstimateFile(dbUrl: string, dataDir: string, uploadsPort: nu
   }
 }
 
+/** autocannon's result with latencies per status code. */
+type Measured = Result & { byStatus: Map<number, number[]> };
+
 interface Line {
   target: string;
-  result: Result & { byStatus?: Map<number, number[]> };
+  result: Measured;
   /** Status codes that are the designed answer under overload, not errors. */
   expected?: number[];
 }
@@ -77,7 +80,7 @@ function summarise({ target, result, expected = [] }: Line) {
  * One autocannon run bounded in time (DURATION) and in count (MAX_REQUESTS: autocannon's own
  * `amount` would make it ignore the duration, so the count is enforced here).
  */
-async function bounded(opts: Options): Promise<Result & { byStatus: Map<number, number[]> }> {
+async function bounded(opts: Options): Promise<Measured> {
   const instance = autocannon({ duration: DURATION, timeout: 30, connections: CONNECTIONS, ...opts });
   let n = 0;
   // Latency per status code: the estimator's designed refusals (429/503) are quick, and its
@@ -109,7 +112,7 @@ function statusLatencies(byStatus: Map<number, number[]>): string {
     .join("; ");
 }
 
-async function run(target: string, url: string, opts: Partial<Options>, connections = CONNECTIONS): Promise<Result & { byStatus: Map<number, number[]> }> {
+async function run(target: string, url: string, opts: Partial<Options>, connections = CONNECTIONS): Promise<Measured> {
   process.stdout.write(`  ${target}: ${connections} connections, ${DURATION} s … `);
   const result = await bounded({ url, connections, ...opts });
   console.log(`${Math.round(result.requests.average)} req/s`);
@@ -166,7 +169,7 @@ async function main() {
 
     console.log(`\nload: ${ORDERS} orders, ${CONNECTIONS} connections, ${DURATION} s each, next start on loopback in ${stack.processes} process(es)`);
     console.table(lines.map(summarise));
-    for (const l of lines.filter((x) => x.target.includes("estimate"))) console.log(`${l.target} by status: ${statusLatencies(l.result.byStatus ?? new Map())}`);
+    for (const l of lines.filter((x) => x.target.includes("estimate"))) console.log(`${l.target} by status: ${statusLatencies(l.result.byStatus)}`);
     const retryAfter = await fetch(`${stack.baseUrl}/api/estimate`, estimateOpts);
     await retryAfter.arrayBuffer();
     const lists = lines.filter((l) => l.target.startsWith("GET /api")).map(summarise);

@@ -30,13 +30,14 @@ if (count === 1) {
   let stopping = false;
   const deaths = [];
 
-  const fork = () => cluster.fork({ LAYERWRIGHT_WORKER_COUNT: String(count) });
+  const fork = () => cluster.fork();
   for (let i = 0; i < count; i++) fork();
   console.log(`serve: next start in ${count} processes (WEB_CONCURRENCY=${count})`);
 
   cluster.on("exit", (worker, code, signal) => {
     if (stopping) {
-      if (Object.keys(cluster.workers ?? {}).length === 0) process.exit(0);
+      // The last worker gone: leave with the code stop() was given (1 after a crash loop).
+      if (Object.keys(cluster.workers ?? {}).length === 0) process.exit(process.exitCode ?? 0);
       return;
     }
     const now = Date.now();
@@ -54,6 +55,7 @@ if (count === 1) {
   const stop = (exitCode = 0) => {
     if (stopping) return;
     stopping = true;
+    process.exitCode = exitCode;
     const workers = Object.values(cluster.workers ?? {});
     if (workers.length === 0) process.exit(exitCode);
     for (const w of workers) w?.process.kill("SIGTERM");
@@ -62,7 +64,6 @@ if (count === 1) {
       for (const w of Object.values(cluster.workers ?? {})) w?.process.kill("SIGKILL");
       process.exit(exitCode);
     }, 10_000).unref();
-    if (exitCode !== 0) process.exitCode = exitCode;
   };
   process.on("SIGTERM", () => stop(0));
   process.on("SIGINT", () => stop(0));

@@ -71,9 +71,7 @@ export const POST = withErrors(async (req: Request) => {
     const result = await ticket.run({ remote: { url, maxBytes: MAX_MODEL_BYTES }, fileName: upload.fileName, options: body.options, catalogue, now: new Date() });
     return NextResponse.json(result, { headers: { "cache-control": "no-store" } });
   } catch (e) {
-    if (e instanceof QueueFullError) {
-      return NextResponse.json({ error: { code: "busy", message: e.message } }, { status: 503, headers: { "retry-after": String(e.retryAfterS) } });
-    }
+    // (A reservation's run is never refused for room, so no QueueFullError can arrive here.)
     if (isEstimateInputError(e)) return NextResponse.json({ error: { code: e.code, message: e.message } }, { status: 422 });
     if (e instanceof EstimateJobError) {
       const status = e.code === "timeout" ? 504 : e.code === "storage" ? 502 : 500;

@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
-import { getDb } from "@/db/client";
+import { getDb, type Db } from "@/db/client";
 import { boardVersion, countOrdersByStage, listBoardColumn } from "@/db/queries/orders";
 import { requirePermission } from "@/lib/auth/guard";
 import { withErrors } from "@/lib/auth/route";
@@ -32,7 +32,7 @@ export const GET = withErrors(async (req: Request) => {
   const key = `${q.column ?? "*"}:${q.offset}:${q.limit}`;
   let body = answers.get(key, version);
   if (body === undefined) {
-    body = await buildBoard(q);
+    body = await buildBoard(db, q);
     answers.set(key, version, body);
   }
   return new NextResponse(body, { headers: { "content-type": "application/json", "cache-control": "no-store" } });
@@ -41,8 +41,7 @@ export const GET = withErrors(async (req: Request) => {
 /** Answers by query, valid while the board's change counter is unchanged (board-cache.ts). */
 const answers = new VersionedCache<string>();
 
-async function buildBoard(q: z.infer<typeof querySchema>): Promise<string> {
-  const db = getDb();
+async function buildBoard(db: Db, q: z.infer<typeof querySchema>): Promise<string> {
   const columns = q.column ? [boardColumn(q.column)!] : BOARD_COLUMNS;
   const [counts, cards] = await Promise.all([
     countOrdersByStage(db, columns.flatMap((c) => c.stages)),
