@@ -1,7 +1,7 @@
 "use client";
 
 import Link from "next/link";
-import { useState } from "react";
+import { useState, useSyncExternalStore } from "react";
 import { payOrder } from "@/app/(portal)/portal/requests/[id]/actions";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
@@ -21,8 +21,14 @@ export interface PaymentView {
 const day = (iso: string | null) => (iso ? new Date(iso).toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" }) : "—");
 const TONE: Record<string, "ok" | "warn" | "neutral" | "danger" | "info"> = { paid: "ok", pending: "info", expired: "neutral", failed: "danger", refunded: "warn", partially_refunded: "warn" };
 
-/** The pay button: one click opens one Checkout Session (the server reuses an open one). */
+const noSubscription = () => () => {};
+
+/**
+ * The pay button: one click opens one Checkout Session (the server reuses an open one). It stays
+ * disabled until the page is interactive: a click before that would be lost without a word.
+ */
 export function PayButton({ orderId, kind, amountCents, currency }: { orderId: string; kind: "deposit" | "balance"; amountCents: number; currency: string }) {
+  const interactive = useSyncExternalStore(noSubscription, () => true, () => false);
   const [busy, setBusy] = useState(false);
   const [message, setMessage] = useState<string | null>(null);
   async function pay() {
@@ -43,7 +49,7 @@ export function PayButton({ orderId, kind, amountCents, currency }: { orderId: s
   }
   return (
     <div className="space-y-2">
-      <Button type="button" onClick={() => void pay()} disabled={busy}>
+      <Button type="button" onClick={() => void pay()} disabled={busy || !interactive}>
         {busy ? "Opening the payment page…" : `Pay the ${kind} · ${formatCents(amountCents, currency)}`}
       </Button>
       <FormMessage>{message}</FormMessage>
