@@ -19,7 +19,17 @@ export interface StackPorts {
   uploads: number;
 }
 
-export const DEMO_PORTS: StackPorts = { app: 3000, stripe: 4010, resend: 4020, uploads: 4030 };
+/**
+ * The demo's ports. `DEMO_PORT_BASE=N` moves the whole stack (app on N, fakes on N+10, N+20, N+30)
+ * so two checkouts can run their demos side by side.
+ */
+export const DEMO_PORTS: StackPorts = demoPorts(process.env.DEMO_PORT_BASE);
+
+function demoPorts(base: string | undefined): StackPorts {
+  const n = base ? Number(base) : NaN;
+  if (!Number.isInteger(n) || n < 1024 || n > 65000) return { app: 3000, stripe: 4010, resend: 4020, uploads: 4030 };
+  return { app: n, stripe: n + 10, resend: n + 20, uploads: n + 30 };
+}
 
 /** Environment that points every service at the local fakes. */
 export function stackEnv(ports: StackPorts, dataDir: string, extra: Record<string, string> = {}, host = "localhost"): Record<string, string> {
