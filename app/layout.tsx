@@ -10,7 +10,7 @@ const inter = localFont({
 });
 
 export const metadata: Metadata = {
-  title: { default: "Layerwright — Saltgrass Additive Works", template: "%s · Layerwright" },
+  title: { default: "Layerwright — Ostrevane Additive Works", template: "%s · Layerwright" },
   description: "Large-format printed tooling: upload a model, get an instant estimate, follow the job to delivery.",
 };
 

@@ -2,7 +2,7 @@ import type { Role, Stage } from "./schema/common";
 import type { CureProcess } from "./schema/requests";
 
 /**
- * The invented demo scenario of DESIGN.md: Saltgrass Additive Works and three client firms.
+ * The invented demo scenario of DESIGN.md: Ostrevane Additive Works and three client firms.
  * Every name here is made up. Demo passwords are printed by the seed and listed in the README.
  */
 export const DEMO_PASSWORDS: Record<Role, string> = {
@@ -15,21 +15,21 @@ export const DEMO_PASSWORDS: Record<Role, string> = {
 };
 
 export const FIRMS = [
-  { key: "kittering", name: "Kittering Aerostructures", slug: "kittering-aerostructures", unitsPref: "mm" as const, billingContact: "Accounts payable, Kittering Aerostructures" },
+  { key: "caldrith", name: "Caldrith Aerostructures", slug: "caldrith-aerostructures", unitsPref: "mm" as const, billingContact: "Accounts payable, Caldrith Aerostructures" },
   { key: "bramblewake", name: "Bramblewake Boatworks", slug: "bramblewake-boatworks", unitsPref: "in" as const, billingContact: "Yard office, Bramblewake Boatworks" },
-  { key: "hollins", name: "Hollins Ridge University Composites Lab", slug: "hollins-ridge-composites-lab", unitsPref: "mm" as const, billingContact: "Lab purchasing, Hollins Ridge University" },
+  { key: "tarnavel", name: "Tarnavel Polytechnic Composites Lab", slug: "tarnavel-composites-lab", unitsPref: "mm" as const, billingContact: "Lab purchasing, Tarnavel Polytechnic" },
 ] as const;
 export type FirmKey = (typeof FIRMS)[number]["key"];
 
 export const DEMO_USERS: { email: string; name: string; role: Role; firm?: FirmKey; cleared?: boolean; unitsPref?: "mm" | "in" }[] = [
-  { email: "admin@saltgrass.example", name: "Wren Halloway", role: "admin", cleared: true },
-  { email: "sales@saltgrass.example", name: "Ivo Marchetti-Lund", role: "sales", cleared: true },
-  { email: "production@saltgrass.example", name: "Tamsin Okoro-Bell", role: "production", cleared: false },
-  { email: "accounts@saltgrass.example", name: "Priya Castellane", role: "accounts" },
-  { email: "lead@kittering.example", name: "Jonah Feldvik", role: "client_admin", firm: "kittering" },
-  { email: "engineer@kittering.example", name: "Mara Quistley", role: "client", firm: "kittering" },
+  { email: "admin@ostrevane.example", name: "Wren Halloway", role: "admin", cleared: true },
+  { email: "sales@ostrevane.example", name: "Ivo Marchetti-Lund", role: "sales", cleared: true },
+  { email: "production@ostrevane.example", name: "Tamsin Okoro-Bell", role: "production", cleared: false },
+  { email: "accounts@ostrevane.example", name: "Priya Castellane", role: "accounts" },
+  { email: "lead@caldrith.example", name: "Jonah Feldvik", role: "client_admin", firm: "caldrith" },
+  { email: "engineer@caldrith.example", name: "Mara Quistley", role: "client", firm: "caldrith" },
   { email: "buyer@bramblewake.example", name: "Callum Ashgrove", role: "client_admin", firm: "bramblewake", unitsPref: "in" },
-  { email: "lab@hollinsridge.example", name: "Ines Varrow", role: "client_admin", firm: "hollins" },
+  { email: "lab@tarnavel.example", name: "Ines Varrow", role: "client_admin", firm: "tarnavel" },
 ];
 
 export type DemoMeshKey = "layup-mold" | "hull-plug" | "drill-fixture" | "too-long-beam" | "trim-fixture";
@@ -58,23 +58,23 @@ export interface DemoRequest {
 
 /** One request in every stage, spread over the three firms. */
 export const DEMO_REQUESTS: DemoRequest[] = [
-  { project: "Spar cap tool — long span", firm: "kittering", by: "engineer@kittering.example", stage: "draft", cure: "autoclave", cureTempC: 177, partCte: 3, mesh: "too-long-beam", material: "pesu-cf", daysAgo: 1, notes: "Longer than any cell; expect a split." },
-  { project: "Inlet duct layup tool", firm: "kittering", by: "engineer@kittering.example", stage: "submitted", cure: "autoclave", cureTempC: 177, partCte: 3, controlled: true, mesh: "layup-mold", material: "pesu-cf", daysAgo: 3 },
+  { project: "Spar cap tool — long span", firm: "caldrith", by: "engineer@caldrith.example", stage: "draft", cure: "autoclave", cureTempC: 177, partCte: 3, mesh: "too-long-beam", material: "pesu-cf", daysAgo: 1, notes: "Longer than any cell; expect a split." },
+  { project: "Inlet duct layup tool", firm: "caldrith", by: "engineer@caldrith.example", stage: "submitted", cure: "autoclave", cureTempC: 177, partCte: 3, controlled: true, mesh: "layup-mold", material: "pesu-cf", daysAgo: 3 },
   { project: "Deck hatch plug", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "quoted", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", shellWalls: 3, allowanceMm: 6.35, daysAgo: 6 },
-  { project: "Composite coupon drill fixture", firm: "hollins", by: "lab@hollinsridge.example", stage: "accepted", cure: "oven", cureTempC: 120, mesh: "drill-fixture", material: "petg-gf", daysAgo: 9, notes: "Budget-limited; solid print is fine." },
-  { project: "Access panel layup tool", firm: "kittering", by: "lead@kittering.example", stage: "deposit_paid", cure: "autoclave", cureTempC: 177, partCte: 3, mesh: "layup-mold", material: "psu-cf", daysAgo: 14 },
-  { project: "Fairing trim fixture", firm: "kittering", by: "engineer@kittering.example", stage: "scheduled", cure: "room", cureTempC: null, mesh: "trim-fixture", material: "abs-cf", daysAgo: 18 },
+  { project: "Composite coupon drill fixture", firm: "tarnavel", by: "lab@tarnavel.example", stage: "accepted", cure: "oven", cureTempC: 120, mesh: "drill-fixture", material: "petg-gf", daysAgo: 9, notes: "Budget-limited; solid print is fine." },
+  { project: "Access panel layup tool", firm: "caldrith", by: "lead@caldrith.example", stage: "deposit_paid", cure: "autoclave", cureTempC: 177, partCte: 3, mesh: "layup-mold", material: "psu-cf", daysAgo: 14 },
+  { project: "Fairing trim fixture", firm: "caldrith", by: "engineer@caldrith.example", stage: "scheduled", cure: "room", cureTempC: null, mesh: "trim-fixture", material: "abs-cf", daysAgo: 18 },
   { project: "Transom plug, 28 ft hull", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "printing", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", shellWalls: 3, daysAgo: 22 },
-  { project: "Wing-to-body fairing mold", firm: "kittering", by: "lead@kittering.example", stage: "cooling", cure: "oven", cureTempC: 120, partCte: 3, mesh: "layup-mold", material: "pc-cf", daysAgo: 26 },
-  { project: "Sandwich panel press fixture", firm: "hollins", by: "lab@hollinsridge.example", stage: "machining", cure: "oven", cureTempC: 90, mesh: "drill-fixture", material: "pa-cf", daysAgo: 30 },
-  { project: "Radome layup tool", firm: "kittering", by: "engineer@kittering.example", stage: "inspection", cure: "autoclave", cureTempC: 177, partCte: 3, controlled: true, mesh: "layup-mold", material: "pei-cf", daysAgo: 34 },
+  { project: "Wing-to-body fairing mold", firm: "caldrith", by: "lead@caldrith.example", stage: "cooling", cure: "oven", cureTempC: 120, partCte: 3, mesh: "layup-mold", material: "pc-cf", daysAgo: 26 },
+  { project: "Sandwich panel press fixture", firm: "tarnavel", by: "lab@tarnavel.example", stage: "machining", cure: "oven", cureTempC: 90, mesh: "drill-fixture", material: "pa-cf", daysAgo: 30 },
+  { project: "Radome layup tool", firm: "caldrith", by: "engineer@caldrith.example", stage: "inspection", cure: "autoclave", cureTempC: 177, partCte: 3, controlled: true, mesh: "layup-mold", material: "pei-cf", daysAgo: 34 },
   { project: "Console mold, centre console", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "finishing", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", shellWalls: 3, daysAgo: 40 },
-  { project: "Stiffener drill jig", firm: "kittering", by: "lead@kittering.example", stage: "packed", cure: "room", cureTempC: null, mesh: "drill-fixture", material: "pc-cf", daysAgo: 44 },
+  { project: "Stiffener drill jig", firm: "caldrith", by: "lead@caldrith.example", stage: "packed", cure: "room", cureTempC: null, mesh: "drill-fixture", material: "pc-cf", daysAgo: 44 },
   { project: "Cockpit liner plug", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "shipped", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", shellWalls: 3, daysAgo: 50 },
-  { project: "Tensile coupon layup plate", firm: "hollins", by: "lab@hollinsridge.example", stage: "delivered", cure: "oven", cureTempC: 120, mesh: "trim-fixture", material: "pps-cf", daysAgo: 58 },
-  { project: "Flap track fairing tool", firm: "kittering", by: "lead@kittering.example", stage: "closed", cure: "autoclave", cureTempC: 177, partCte: 3, mesh: "layup-mold", material: "pesu-cf", daysAgo: 75 },
+  { project: "Tensile coupon layup plate", firm: "tarnavel", by: "lab@tarnavel.example", stage: "delivered", cure: "oven", cureTempC: 120, mesh: "trim-fixture", material: "pps-cf", daysAgo: 58 },
+  { project: "Flap track fairing tool", firm: "caldrith", by: "lead@caldrith.example", stage: "closed", cure: "autoclave", cureTempC: 177, partCte: 3, mesh: "layup-mold", material: "pesu-cf", daysAgo: 75 },
   { project: "Bow thruster tunnel plug", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "on_hold", heldFrom: "quoted", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", shellWalls: 3, daysAgo: 12, notes: "On hold while the yard confirms the hull lines." },
-  { project: "Antenna bracket fixture", firm: "hollins", by: "lab@hollinsridge.example", stage: "cancelled", cure: "room", cureTempC: null, mesh: "drill-fixture", material: "petg-gf", daysAgo: 20 },
+  { project: "Antenna bracket fixture", firm: "tarnavel", by: "lab@tarnavel.example", stage: "cancelled", cure: "room", cureTempC: null, mesh: "drill-fixture", material: "petg-gf", daysAgo: 20 },
   // A second, autoclave request on a material rated below the cure: the portal warns.
-  { project: "Nacelle inner skin tool (trial)", firm: "kittering", by: "engineer@kittering.example", stage: "draft", cure: "autoclave", cureTempC: 177, partCte: 3, mesh: "layup-mold", material: "abs-cf", daysAgo: 0 },
+  { project: "Nacelle inner skin tool (trial)", firm: "caldrith", by: "engineer@caldrith.example", stage: "draft", cure: "autoclave", cureTempC: 177, partCte: 3, mesh: "layup-mold", material: "abs-cf", daysAgo: 0 },
 ];

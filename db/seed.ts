@@ -224,7 +224,7 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
           requestId,
           fromStage: i === 0 ? null : events[i - 1]!,
           toStage: events[i]!,
-          actorId: i === 0 ? authorId : i <= 2 ? staffId("sales@saltgrass.example") : staffId("production@saltgrass.example"),
+          actorId: i === 0 ? authorId : i <= 2 ? staffId("sales@ostrevane.example") : staffId("production@ostrevane.example"),
           at: new Date(created.getTime() + i * 0.5 * DAY),
         });
       }
@@ -233,7 +233,7 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
           requestId,
           fromStage: effective,
           toStage: r.stage,
-          actorId: staffId("sales@saltgrass.example"),
+          actorId: staffId("sales@ostrevane.example"),
           note: r.notes ?? (r.stage === "cancelled" ? "Cancelled at the client's request." : null),
           at: new Date(created.getTime() + (reached + 1) * 0.5 * DAY),
         });
@@ -261,8 +261,8 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
           terms: "Deposit of half the total on acceptance; balance on shipping. Tool use stays with the client's engineering sign-off.",
           shipDate: new Date(result.shipDate),
           rateCardId: rateCard!.id,
-          createdById: staffId("sales@saltgrass.example"),
-          issuedById: staffId("sales@saltgrass.example"),
+          createdById: staffId("sales@ostrevane.example"),
+          issuedById: staffId("sales@ostrevane.example"),
           issuedAt,
           validUntil: new Date(issuedAt.getTime() + defaultRateCard.quoteValidityDays * DAY),
           acceptedAt: accepted ? new Date(created.getTime() + 1.5 * DAY) : null,

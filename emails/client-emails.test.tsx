@@ -21,8 +21,8 @@ describe("client e-mail templates render their preview props", () => {
     ["scheduled", ScheduledEmail, ["Long Bed", "12 January 2027", "2 February 2027"]],
     ["shipped", ShippedEmail, ["HF-88213-04", "340 kg", "lifting procedures"]],
     ["balance-due", BalanceDueEmail, ["balance of $9,552.50"]],
-    ["member-invite", MemberInviteEmail, ["Kittering Aerostructures", "one-time link"]],
-    ["staff-message", StaffMessageEmail, ["Wren Halloway at Saltgrass Additive Works wrote", "140 mm to spare", "Open the conversation"]],
+    ["member-invite", MemberInviteEmail, ["Caldrith Aerostructures", "one-time link"]],
+    ["staff-message", StaffMessageEmail, ["Wren Halloway at Ostrevane Additive Works wrote", "140 mm to spare", "Open the conversation"]],
   ] as const)("%s", async (_name, t, expected) => {
     const out = await text(t as unknown as Template);
     for (const e of expected) expect(out).toContain(e);
@@ -39,7 +39,7 @@ describe("client e-mail templates render their preview props", () => {
   it("the sales copy of request-received reads as a notice to the bureau", async () => {
     const t = RequestReceivedEmail as unknown as Template;
     const out = await text(t, { ...RequestReceivedEmail.PreviewProps, forSales: true, isControlled: true });
-    expect(out.toLowerCase()).toContain("new request lw-2026-0042 from kittering aerostructures");
+    expect(out.toLowerCase()).toContain("new request lw-2026-0042 from caldrith aerostructures");
     expect(out).toContain("flagged controlled");
   });
 });

@@ -12,7 +12,7 @@ export default function MemberInviteEmail(p: MemberInviteEmailProps) {
   return (
     <EmailShell preview={`${p.invitedBy} invited you to ${p.firmName} on Layerwright`} heading={`Join ${p.firmName} on Layerwright`}>
       <Text style={paragraph}>
-        {p.invitedBy} added you to {p.firmName}&rsquo;s account with Saltgrass Additive Works
+        {p.invitedBy} added you to {p.firmName}&rsquo;s account with Ostrevane Additive Works
         {p.role === "client_admin" ? " as a lead, who also manages members and billing" : ""}. Sign in with your e-mail address: we send you a
         one-time link.
       </Text>
@@ -24,7 +24,7 @@ export default function MemberInviteEmail(p: MemberInviteEmailProps) {
 }
 
 MemberInviteEmail.PreviewProps = {
-  firmName: "Kittering Aerostructures",
+  firmName: "Caldrith Aerostructures",
   invitedBy: "Rowan Pellow",
   role: "client",
   url: "http://localhost:3000/sign-in",

@@ -37,7 +37,7 @@ export default function RequestReceivedEmail(p: RequestReceivedEmailProps) {
 RequestReceivedEmail.PreviewProps = {
   reference: "LW-2026-0042",
   projectName: "Wing rib layup tool",
-  firmName: "Kittering Aerostructures",
+  firmName: "Caldrith Aerostructures",
   partCount: 2,
   estimateTotal: "$18,420.00",
   isControlled: false,

@@ -21,7 +21,7 @@ export default function StaffInviteEmail(p: StaffInviteEmailProps) {
   return (
     <EmailShell preview="Your Layerwright staff account is ready" heading="Welcome to the back office">
       <Text style={paragraph}>
-        {p.invitedBy} has made you a staff account at Saltgrass Additive Works, with the {ROLE_TEXT[p.role] ?? p.role} role.
+        {p.invitedBy} has made you a staff account at Ostrevane Additive Works, with the {ROLE_TEXT[p.role] ?? p.role} role.
       </Text>
       <Text style={paragraph}>
         Accept the invitation to set your name and a password. The link works once, until {p.expiresText}; after that, ask

@@ -19,7 +19,7 @@ export default function StaffMessageEmail(p: StaffMessageEmailProps) {
   if (p.isControlled || p.body === null) {
     return (
       <EmailShell preview={`New message on ${p.reference}`} heading={`New message on ${p.reference}`}>
-        <Text style={paragraph}>{p.authorName} at Saltgrass Additive Works has posted a new message on your request {p.reference}.</Text>
+        <Text style={paragraph}>{p.authorName} at Ostrevane Additive Works has posted a new message on your request {p.reference}.</Text>
         <Text style={paragraph}>
           The request is flagged controlled, so its messages are not copied into e-mail. Sign in to read it.
         </Text>
@@ -32,7 +32,7 @@ export default function StaffMessageEmail(p: StaffMessageEmailProps) {
   return (
     <EmailShell preview={`${p.authorName}: ${p.body.slice(0, 90)}`} heading={`New message on ${p.reference}`}>
       <Text style={paragraph}>
-        {p.authorName} at Saltgrass Additive Works wrote about “{p.projectName}”:
+        {p.authorName} at Ostrevane Additive Works wrote about “{p.projectName}”:
       </Text>
       <Text style={quoteStyle}>
         {p.body}

@@ -11,7 +11,7 @@ export default function WelcomeEmail({ name, firmName, portalUrl }: WelcomeEmail
   return (
     <EmailShell preview={`Welcome to Layerwright, ${name}`} heading={`Welcome, ${name}`}>
       <Text style={paragraph}>
-        Your firm {firmName} now has a Layerwright account with Saltgrass Additive Works. Upload a mesh export of a mold,
+        Your firm {firmName} now has a Layerwright account with Ostrevane Additive Works. Upload a mesh export of a mold,
         plug or fixture, and you will see at once which of our printing cells it fits, its near-net volume, the print and
         machining hours, an estimated price and an earliest ship date.
       </Text>
@@ -25,6 +25,6 @@ export default function WelcomeEmail({ name, firmName, portalUrl }: WelcomeEmail
 
 WelcomeEmail.PreviewProps = {
   name: "Avery",
-  firmName: "Kittering Aerostructures",
+  firmName: "Caldrith Aerostructures",
   portalUrl: "http://localhost:3000/portal",
 } satisfies WelcomeEmailProps;

@@ -22,8 +22,8 @@ const schema = z.object({
   // Resend: base URL of the e-mail API; the local fake listens on 4020.
   RESEND_API_KEY: z.string().default("re_layerwright_local"),
   RESEND_BASE_URL: z.string().optional(),
-  EMAIL_FROM: z.string().default("Saltgrass Additive Works <orders@saltgrass.example>"),
-  SALES_INBOX: z.string().default("sales@saltgrass.example"),
+  EMAIL_FROM: z.string().default("Ostrevane Additive Works <orders@ostrevane.example>"),
+  SALES_INBOX: z.string().default("sales@ostrevane.example"),
 
   // UploadThing: token and hosts; the local fake listens on 4030.
   UPLOADTHING_TOKEN: z.string().optional(),

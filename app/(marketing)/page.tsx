@@ -43,7 +43,7 @@ export default async function LandingPage() {
       <section className="bg-ink-800 text-paper-100">
         <div className="mx-auto grid max-w-6xl gap-10 px-5 py-16 md:grid-cols-[1.3fr_1fr] md:py-24">
           <div>
-            <p className="text-sm font-semibold uppercase tracking-widest text-kiln-400">Saltgrass Additive Works</p>
+            <p className="text-sm font-semibold uppercase tracking-widest text-kiln-400">Ostrevane Additive Works</p>
             <h1 className="mt-3 text-4xl font-semibold leading-tight tracking-tight text-white md:text-5xl">
               Layup molds, master plugs and fixtures, printed big and machined true.
             </h1>
@@ -142,7 +142,7 @@ export default async function LandingPage() {
       </section>
 
       <footer className="mx-auto max-w-6xl px-5 py-10 text-sm text-ink-500">
-        Saltgrass Additive Works · Layerwright client portal. Large printed tools are heavy and parts leave the cell hot: our
+        Ostrevane Additive Works · Layerwright client portal. Large printed tools are heavy and parts leave the cell hot: our
         pickup and lifting notes apply, and local codes come first.
       </footer>
     </div>

@@ -21,7 +21,7 @@ export default async function AdminHomePage() {
   const areas = AREAS.filter((a) => hasPermission(user, a.permission));
   return (
     <>
-      <PageHeader title="Bureau overview" subtitle="Saltgrass Additive Works · one plant, Monday to Friday, two shifts" />
+      <PageHeader title="Bureau overview" subtitle="Ostrevane Additive Works · one plant, Monday to Friday, two shifts" />
       <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
         {areas.map((a) => (
           <Link key={a.href} href={a.href} className="group">

@@ -69,7 +69,7 @@ export const authConfig = {
       id: "email",
       type: "email",
       name: "E-mail link",
-      from: process.env.EMAIL_FROM ?? "Saltgrass Additive Works <orders@saltgrass.example>",
+      from: process.env.EMAIL_FROM ?? "Ostrevane Additive Works <orders@ostrevane.example>",
       maxAge: 15 * 60,
       options: {},
       async sendVerificationRequest({ identifier, url }) {

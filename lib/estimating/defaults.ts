@@ -1,7 +1,7 @@
 import type { CellParams, MaterialParams, RateCardParams, WorkingCalendar } from "./types";
 
 /**
- * The demo catalogue of Saltgrass Additive Works (invented scenario of DESIGN.md), used by the
+ * The demo catalogue of Ostrevane Additive Works (invented scenario of DESIGN.md), used by the
  * seed and by the CLI when no database is present. Material figures come from
  * /work/shared/reference/checks.md; each material's `source` says where each value is from
  * ("memory" = recalled, not read; "common practice" = trade rule of thumb; "demo" = invented

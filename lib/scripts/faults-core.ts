@@ -142,7 +142,7 @@ export async function stageChangeFault(stack: HardStack, opts: { killAfterMs: nu
   db.close();
   const action = listActions(stack.distDir).find((a) => a.name === "moveStage" && a.file.includes("admin/production"));
   if (!action) throw new Error("moveStage action not found in the build");
-  const session = await signedIn(stack, "production@saltgrass.example", "demo-production-2026");
+  const session = await signedIn(stack, "production@ostrevane.example", "demo-production-2026");
   const path_ = ["cooling", "machining", "inspection", "finishing", "packed"];
   let answered = 0;
   let killed = false;
@@ -290,7 +290,7 @@ export interface UploadFaultFigures {
 /** Several uploads in flight when the server is killed: no upload row without its stored file. */
 export async function uploadFault(stack: HardStack, opts: { uploads: number; killAfterMs: number }): Promise<UploadFaultFigures> {
   const since = Date.now();
-  const session = await signedIn(stack, "engineer@kittering.example", "demo-client-2026");
+  const session = await signedIn(stack, "engineer@caldrith.example", "demo-client-2026");
   const bytes = binaryStl(layupMold(160, 80));
   const before = await checkDatabase(stack.dbUrl, stack.dataDir, since);
   let completed = 0;
@@ -348,7 +348,7 @@ export function mountSmallStore(dataDir: string, sizeKb: number): { remount: (mo
 /** An upload into a store that is full or read-only: a clear error, no upload row, and uploads work again once it has room. */
 export async function diskFault(stack: HardStack, mode: "full" | "read-only", control: { remount: (m: "ro" | "rw") => void }): Promise<DiskFaultFigures> {
   const since = Date.now();
-  const session = await signedIn(stack, "engineer@kittering.example", "demo-client-2026");
+  const session = await signedIn(stack, "engineer@caldrith.example", "demo-client-2026");
   const before = await checkDatabase(stack.dbUrl, stack.dataDir, since);
   if (mode === "read-only") control.remount("ro");
   // Full: the store has room for its files and about 512 KiB more, not for this 3 MB part.

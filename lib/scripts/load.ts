@@ -39,7 +39,7 @@ async function storeEstimateFile(dbUrl: string, dataDir: string, uploadsPort: nu
   });
   const db = createClient({ url: dbUrl });
   try {
-    const user = await db.execute("SELECT u.id, m.org_id FROM users u JOIN memberships m ON m.user_id = u.id WHERE u.email = 'lead@kittering.example'");
+    const user = await db.execute("SELECT u.id, m.org_id FROM users u JOIN memberships m ON m.user_id = u.id WHERE u.email = 'lead@caldrith.example'");
     const id = randomUUID();
     await db.execute({
       sql: "INSERT INTO uploads (id, file_key, file_name, size_bytes, url, content_type, user_id, org_id, created_at) VALUES (?, ?, ?, ?, ?, 'model/stl', ?, ?, ?)",
@@ -134,8 +134,8 @@ async function main() {
     uploadId = await storeEstimateFile(stack.dbUrl, stack.dataDir, stack.ports.uploads);
     const lead = new Session(stack.baseUrl);
     const production = new Session(stack.baseUrl);
-    if (!(await lead.signIn("lead@kittering.example", "demo-lead-2026")).ok) throw new Error("client sign-in failed");
-    if (!(await production.signIn("production@saltgrass.example", "demo-production-2026")).ok) throw new Error("production sign-in failed");
+    if (!(await lead.signIn("lead@caldrith.example", "demo-lead-2026")).ok) throw new Error("client sign-in failed");
+    if (!(await production.signIn("production@ostrevane.example", "demo-production-2026")).ok) throw new Error("production sign-in failed");
     const leadHeaders = { cookie: lead.cookieHeader };
     const prodHeaders = { cookie: production.cookieHeader };
     // The client waits past the estimator's own 60 s time limit, so a slow job is its answer, not a client timeout.

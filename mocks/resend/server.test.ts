@@ -33,13 +33,13 @@ describe("Resend fake with the real SDK", () => {
 
   it("stores a message sent with sendEmail (rendered HTML and text) and returns its id", async () => {
     const { id } = await sendEmail(
-      { to: "buyer@bramblewake.example", subject: "Quote Q-12 is ready", react: createElement(Hello, { name: "Ada" }), tags: [{ name: "template", value: "quote-ready" }], from: "Saltgrass Additive Works <orders@saltgrass.example>" },
+      { to: "buyer@bramblewake.example", subject: "Quote Q-12 is ready", react: createElement(Hello, { name: "Ada" }), tags: [{ name: "template", value: "quote-ready" }], from: "Ostrevane Additive Works <orders@ostrevane.example>" },
       resend,
     );
     expect(id).toMatch(/^[0-9a-f-]{36}$/);
     expect(stored).toHaveLength(1);
     const m = stored[0]!;
-    expect(m).toMatchObject({ id, to: ["buyer@bramblewake.example"], subject: "Quote Q-12 is ready", from: "Saltgrass Additive Works <orders@saltgrass.example>", tags: [{ name: "template", value: "quote-ready" }] });
+    expect(m).toMatchObject({ id, to: ["buyer@bramblewake.example"], subject: "Quote Q-12 is ready", from: "Ostrevane Additive Works <orders@ostrevane.example>", tags: [{ name: "template", value: "quote-ready" }] });
     expect(m.html).toContain("<p>Your quote is ready, Ada.</p>");
     expect(m.text).toContain("Your quote is ready, Ada.");
     const got = await resend.emails.get(id);

@@ -20,7 +20,7 @@ const baseSession = {
   amountCents: 125_000,
   currency: "usd",
   description: "Deposit for order ord_1 (layup mold)",
-  customerEmail: "buyer@kittering.example",
+  customerEmail: "buyer@caldrith.example",
   successUrl: "http://127.0.0.1:3999/orders/ord_1?paid={CHECKOUT_SESSION_ID}",
   cancelUrl: "http://127.0.0.1:3999/orders/ord_1",
 };

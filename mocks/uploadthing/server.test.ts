@@ -24,7 +24,7 @@ function makeRouter(completed: Completed[]) {
   const f = createUploadthing();
   return {
     mesh: f({ blob: { maxFileSize: "4MB", maxFileCount: 2 } })
-      .middleware(() => ({ orgId: "org_kittering", userId: "u_1" }))
+      .middleware(() => ({ orgId: "org_caldrith", userId: "u_1" }))
       .onUploadComplete(({ file, metadata }) => {
         completed.push({ key: file.key, ufsUrl: file.ufsUrl, name: file.name, size: file.size, metadata });
         return { recordedAs: `file_${file.key.slice(0, 6)}` };
@@ -95,7 +95,7 @@ describe("UploadThing fake with the real server SDK", () => {
     expect(up.body).toMatchObject({ key, name: "drill-fixture.stl", size: 134, serverData: { recordedAs: `file_${key.slice(0, 6)}` } });
     expect(up.body.ufsUrl).toBe(`${fake.url}/f/${key}`);
     // onUploadComplete only runs after createRouteHandler verified the fake's HMAC signature.
-    expect(completed).toEqual([{ key, ufsUrl: `${fake.url}/f/${key}`, name: "drill-fixture.stl", size: 134, metadata: { orgId: "org_kittering", userId: "u_1" } }]);
+    expect(completed).toEqual([{ key, ufsUrl: `${fake.url}/f/${key}`, name: "drill-fixture.stl", size: 134, metadata: { orgId: "org_caldrith", userId: "u_1" } }]);
     expect(new Uint8Array(readFileSync(path.join(dir, "uploads", key)))).toEqual(bytes);
     const served = await fetch(String(up.body.ufsUrl));
     expect(new Uint8Array(await served.arrayBuffer())).toEqual(bytes);

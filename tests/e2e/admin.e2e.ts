@@ -25,7 +25,7 @@ async function open(email: string, password: string): Promise<Page> {
 
 describe("back office journeys", () => {
   it("sales issues a quote that the client then sees", async () => {
-    const page = await open("sales@saltgrass.example", DEMO_PASSWORDS.sales);
+    const page = await open("sales@ostrevane.example", DEMO_PASSWORDS.sales);
     await page.goto(`${stack.baseUrl}/admin/sales`);
     const first = page.getByRole("table", { name: "Sales inbox" }).getByRole("link").first();
     const reference = (await first.textContent())!.trim();
@@ -35,7 +35,7 @@ describe("back office journeys", () => {
     await shot(page, "admin-e2e-sales-issued");
     await page.context().close();
 
-    const client = await open("lead@kittering.example", DEMO_PASSWORDS.client_admin);
+    const client = await open("lead@caldrith.example", DEMO_PASSWORDS.client_admin);
     await client.goto(`${stack.baseUrl}/portal`);
     await client.getByText(reference).first().click();
     await client.waitForURL(/\/portal\/requests\//);
@@ -45,7 +45,7 @@ describe("back office journeys", () => {
   }, 120_000);
 
   it("production schedules a paid order and moves it to shipped", async () => {
-    const page = await open("production@saltgrass.example", DEMO_PASSWORDS.production);
+    const page = await open("production@ostrevane.example", DEMO_PASSWORDS.production);
     await page.goto(`${stack.baseUrl}/admin/production`);
     await page.getByRole("region", { name: "Waiting" }).getByRole("link").filter({ hasText: "deposit paid" }).first().click();
     await page.getByLabel("Print start (UTC)").fill("2031-03-03T06:00");
@@ -68,7 +68,7 @@ describe("back office journeys", () => {
   }, 120_000);
 
   it("accounts finds a mismatch, refunds part of a deposit and exports the CSV", async () => {
-    const page = await open("accounts@saltgrass.example", DEMO_PASSWORDS.accounts);
+    const page = await open("accounts@ostrevane.example", DEMO_PASSWORDS.accounts);
     await page.goto(`${stack.baseUrl}/admin/accounts/reconciliation`);
     await page.getByRole("list", { name: "Findings" }).getByText("amount mismatch").first().waitFor();
     await page.getByLabel("show matched").check();
@@ -107,7 +107,7 @@ describe("confirmation steps, notices and invitations", () => {
     const orderId = await sqlValue("SELECT o.id FROM orders o JOIN requests r ON r.id = o.request_id WHERE r.stage = 'printing' LIMIT 1");
     for (const [viewport, name] of [[undefined, "desktop"], [PHONE, "phone"]] as const) {
       const { page } = await newPage(browser, viewport);
-      await signIn(page, stack.baseUrl, "production@saltgrass.example", DEMO_PASSWORDS.production);
+      await signIn(page, stack.baseUrl, "production@ostrevane.example", DEMO_PASSWORDS.production);
       await page.goto(`${stack.baseUrl}/admin/production/orders/${orderId}`);
       await page.getByLabel("Move to").selectOption("on_hold");
       await page.getByLabel("Note to the client (optional)").fill("Waiting for the revised flange drawing");
@@ -131,7 +131,7 @@ describe("confirmation steps, notices and invitations", () => {
 
   it("a staff message reaches the client as an e-mail notice, shown in the outbox", async () => {
     const requestId = await sqlValue("SELECT id FROM requests WHERE stage IN ('submitted', 'quoted') AND is_controlled = 0 ORDER BY stage DESC LIMIT 1");
-    const sales = await open("sales@saltgrass.example", DEMO_PASSWORDS.sales);
+    const sales = await open("sales@ostrevane.example", DEMO_PASSWORDS.sales);
     await sales.goto(`${stack.baseUrl}/admin/sales/requests/${requestId}`);
     await sales.getByLabel("Message to the client").fill("Thanks for the revised file: the flange now fits the Long Bed with 140 mm to spare.\n\nCould you confirm the 3 mm finish allowance on the sealing face?");
     await sales.getByRole("button", { name: "Send message" }).click();
@@ -145,7 +145,7 @@ describe("confirmation steps, notices and invitations", () => {
     expect(mailId).not.toBe("");
     for (const [viewport, name] of [[undefined, "desktop"], [PHONE, "phone"]] as const) {
       const { page } = await newPage(browser, viewport);
-      await signIn(page, stack.baseUrl, "admin@saltgrass.example", DEMO_PASSWORDS.admin);
+      await signIn(page, stack.baseUrl, "admin@ostrevane.example", DEMO_PASSWORDS.admin);
       await page.goto(`${stack.baseUrl}/admin/outbox/${mailId}`);
       await page.frameLocator('iframe[title="Rendered e-mail"]').locator("p", { hasText: "140 mm to spare" }).waitFor();
       await shot(page, `admin-e2e-staff-message-mail-${name}`);
@@ -154,9 +154,9 @@ describe("confirmation steps, notices and invitations", () => {
   }, 120_000);
 
   it("an invited staff member accepts, sets a password and signs in with it; the used link then says so", async () => {
-    const admin = await open("admin@saltgrass.example", DEMO_PASSWORDS.admin);
+    const admin = await open("admin@ostrevane.example", DEMO_PASSWORDS.admin);
     await admin.goto(`${stack.baseUrl}/admin/staff`);
-    await admin.locator("#invite-email").fill("new.planner@saltgrass.example");
+    await admin.locator("#invite-email").fill("new.planner@ostrevane.example");
     await admin.locator("#invite-role").selectOption("production");
     await admin.getByRole("button", { name: "Invite" }).click();
     await admin.getByText(/is invited; the e-mail links to a page/).waitFor();
@@ -185,7 +185,7 @@ describe("confirmation steps, notices and invitations", () => {
     await page.getByLabel("Password again").fill("cell-planner-2031");
     await page.getByRole("button", { name: "Accept and set password" }).click();
     await page.waitForURL(/\/invite\/done$/);
-    await signIn(page, stack.baseUrl, "new.planner@saltgrass.example", "cell-planner-2031");
+    await signIn(page, stack.baseUrl, "new.planner@ostrevane.example", "cell-planner-2031");
     expect(new URL(page.url()).pathname).toMatch(/^\/admin/);
     await page.goto(acceptUrl);
     await page.getByRole("heading", { name: "This invitation no longer works" }).waitFor();

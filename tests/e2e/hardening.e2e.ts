@@ -76,9 +76,9 @@ describe("security headers", () => {
     const violations = await watchCsp(page);
     await page.goto(stack.baseUrl);
     await page.goto(`${stack.baseUrl}/sign-in`);
-    await signIn(page, stack.baseUrl, "lead@kittering.example", "demo-lead-2026");
+    await signIn(page, stack.baseUrl, "lead@caldrith.example", "demo-lead-2026");
     await page.getByRole("table").first().waitFor({ timeout: 30_000 });
-    const seeded = await db.execute("SELECT r.id FROM requests r JOIN organisations o ON o.id = r.org_id WHERE o.name LIKE 'Kittering%' ORDER BY r.stage = 'quoted' DESC LIMIT 1");
+    const seeded = await db.execute("SELECT r.id FROM requests r JOIN organisations o ON o.id = r.org_id WHERE o.name LIKE 'Caldrith%' ORDER BY r.stage = 'quoted' DESC LIMIT 1");
     await page.goto(`${stack.baseUrl}/portal/requests/${String(seeded.rows[0]!.id)}`);
     await page.waitForLoadState("networkidle");
 
@@ -107,10 +107,10 @@ describe("security headers", () => {
   it("staff pages work with no CSP violation: board, ledger, reports and an e-mail in the outbox's sandboxed frame", async () => {
     const { context, page } = await newPage(browser);
     const violations = await watchCsp(page);
-    await signIn(page, stack.baseUrl, "admin@saltgrass.example", "demo-admin-2026");
+    await signIn(page, stack.baseUrl, "admin@ostrevane.example", "demo-admin-2026");
     // An e-mail with styles and an image tag, as the e-mail fake stores it, for the outbox frame.
     await db.execute({
-      sql: "INSERT INTO email_outbox (id, provider_id, from_address, to_addresses, subject, html, text, created_at) VALUES (?, 'hdr', 'orders@saltgrass.example', '[\"lead@kittering.example\"]', 'Header check', ?, 'Header check', ?)",
+      sql: "INSERT INTO email_outbox (id, provider_id, from_address, to_addresses, subject, html, text, created_at) VALUES (?, 'hdr', 'orders@ostrevane.example', '[\"lead@caldrith.example\"]', 'Header check', ?, 'Header check', ?)",
       args: ["hdr-check-mail", '<html><body style="color:#333"><h1 style="font-size:20px">Quote ready</h1><img src="data:image/gif;base64,R0lGODlhAQABAAAAACw=" alt=""></body></html>', Date.now()],
     });
     const mail = { rows: [{ id: "hdr-check-mail" }] };
@@ -130,7 +130,7 @@ describe("security headers", () => {
 describe("sessions and sign-in throttling by HTTP", () => {
   it("the session cookie is HttpOnly, SameSite=Lax, path / (and not Secure over plain http)", async () => {
     const s = new Session(stack.baseUrl);
-    const r = await s.signIn("sales@saltgrass.example", "demo-sales-2026");
+    const r = await s.signIn("sales@ostrevane.example", "demo-sales-2026");
     expect(r.ok).toBe(true);
     const cookie = r.setCookies.find((c) => c.startsWith("authjs.session-token="))!;
     expect(cookie).toMatch(/;\s*HttpOnly/i);
@@ -143,14 +143,14 @@ describe("sessions and sign-in throttling by HTTP", () => {
     const s = new Session(stack.baseUrl);
     const addr = { "x-forwarded-for": "198.51.100.77" };
     for (let i = 0; i < 5; i++) {
-      const r = await s.signIn("lab@hollinsridge.example", `wrong-password-${i}`, addr);
+      const r = await s.signIn("lab@tarnavel.example", `wrong-password-${i}`, addr);
       expect(r.ok).toBe(false);
       expect(r.location).toMatch(/error=CredentialsSignin/);
     }
-    const locked = await s.signIn("lab@hollinsridge.example", "demo-lead-2026", addr);
+    const locked = await s.signIn("lab@tarnavel.example", "demo-lead-2026", addr);
     expect(locked.ok).toBe(false);
     expect(locked.location).toMatch(/code=locked/);
-    const row = await db.execute("SELECT failures, locked_until FROM sign_in_attempts WHERE key = 'email:lab@hollinsridge.example'");
+    const row = await db.execute("SELECT failures, locked_until FROM sign_in_attempts WHERE key = 'email:lab@tarnavel.example'");
     expect(Number(row.rows[0]!.failures)).toBe(5);
     expect(Number(row.rows[0]!.locked_until)).toBeGreaterThan(Date.now());
   });

@@ -14,7 +14,7 @@ import { startStack, type TestStack } from "./harness";
 
 let stack: TestStack;
 let db: Client;
-let lead: Session; // Kittering client_admin
+let lead: Session; // Caldrith client_admin
 let admin: Session;
 let anon: Session;
 let before: Awaited<ReturnType<typeof tableChecksums>>;
@@ -32,9 +32,9 @@ beforeAll(async () => {
   anon = new Session(stack.baseUrl);
   lead = new Session(stack.baseUrl);
   admin = new Session(stack.baseUrl);
-  expect((await lead.signIn("lead@kittering.example", "demo-lead-2026")).ok).toBe(true);
-  expect((await admin.signIn("admin@saltgrass.example", "demo-admin-2026")).ok).toBe(true);
-  // Another firm's records, for cross-firm probes by the Kittering lead.
+  expect((await lead.signIn("lead@caldrith.example", "demo-lead-2026")).ok).toBe(true);
+  expect((await admin.signIn("admin@ostrevane.example", "demo-admin-2026")).ok).toBe(true);
+  // Another firm's records, for cross-firm probes by the Caldrith lead.
   const q = async (sql: string) => String((await db.execute(sql)).rows[0]?.id ?? "");
   const bramble = "(SELECT id FROM organisations WHERE name LIKE 'Bramblewake%')";
   other.requestId = await q(`SELECT id FROM requests WHERE org_id = ${bramble} LIMIT 1`);

@@ -78,7 +78,7 @@ describe("client portal journey", () => {
     const requestId = new URL(page.url()).pathname.split("/").pop()!;
     expect(await stageOf(requestId)).toBe("submitted");
     const mail = await db.execute("select subject, to_addresses from email_outbox where subject like 'New request %' or subject like 'Request % received'");
-    expect(mail.rows.map((r) => String(r.to_addresses))).toEqual(expect.arrayContaining([expect.stringContaining("sales@saltgrass.example"), expect.stringContaining(email)]));
+    expect(mail.rows.map((r) => String(r.to_addresses))).toEqual(expect.arrayContaining([expect.stringContaining("sales@ostrevane.example"), expect.stringContaining(email)]));
     await both(page, "request-submitted");
     await context.close();
   }, 300_000);
@@ -117,7 +117,7 @@ describe("client portal journey", () => {
 
   it("a declined card (4000 0000 0000 0002) leaves the order payable again", async () => {
     const { context, page } = await newPage(browser, PHONE);
-    await signIn(page, stack.baseUrl, "lab@hollinsridge.example", DEMO_PASSWORDS.client_admin);
+    await signIn(page, stack.baseUrl, "lab@tarnavel.example", DEMO_PASSWORDS.client_admin);
     const rid = String((await db.execute("select id from requests where stage = 'accepted'")).rows[0]?.id);
     await page.goto(`${stack.baseUrl}/portal/requests/${rid}`);
     await page.getByRole("button", { name: /Pay the deposit/ }).click();
@@ -140,7 +140,7 @@ describe("client portal journey", () => {
 
   it("another firm's request page and file answer 404", async () => {
     const { context, page } = await newPage(browser);
-    await signIn(page, stack.baseUrl, "engineer@kittering.example", DEMO_PASSWORDS.client);
+    await signIn(page, stack.baseUrl, "engineer@caldrith.example", DEMO_PASSWORDS.client);
     const other = await db.execute(
       "select r.id as rid, fr.id as fid from requests r join organisations o on o.id = r.org_id join parts p on p.request_id = r.id join file_revisions fr on fr.part_id = p.id where o.slug = 'bramblewake-boatworks' limit 1",
     );
@@ -153,7 +153,7 @@ describe("client portal journey", () => {
 
   it("a STEP assembly is tessellated, previewed, and the client prints only the bodies picked", async () => {
     const { context, page } = await newPage(browser);
-    await signIn(page, stack.baseUrl, "lead@kittering.example", DEMO_PASSWORDS.client_admin);
+    await signIn(page, stack.baseUrl, "lead@caldrith.example", DEMO_PASSWORDS.client_admin);
     await page.goto(`${stack.baseUrl}/portal/requests/new`);
     await fillProject(page, { name: "Fixture from an assembly", neededBy: "2027-05-31", cureC: 120 });
     await page.getByRole("button", { name: "Continue" }).click();

@@ -100,13 +100,13 @@ describe("smoke: every role lands on its own home", () => {
     const { context, page } = await newPage(browser);
     for (let i = 0; i < 5; i++) {
       await page.goto(`${stack.baseUrl}/sign-in`);
-      await page.getByLabel("E-mail", { exact: true }).fill("lab@hollinsridge.example");
+      await page.getByLabel("E-mail", { exact: true }).fill("lab@tarnavel.example");
       await page.getByLabel("Password").fill(`wrong-${i}`);
       await page.getByRole("button", { name: "Sign in", exact: true }).click();
       await page.getByRole("alert").first().waitFor();
     }
     await page.goto(`${stack.baseUrl}/sign-in`);
-    await page.getByLabel("E-mail", { exact: true }).fill("lab@hollinsridge.example");
+    await page.getByLabel("E-mail", { exact: true }).fill("lab@tarnavel.example");
     await page.getByLabel("Password").fill(DEMO_PASSWORDS.client_admin);
     await page.getByRole("button", { name: "Sign in", exact: true }).click();
     await expect(page.getByRole("alert").filter({ hasText: "Too many failed attempts" }).waitFor()).resolves.toBeUndefined();
@@ -115,7 +115,7 @@ describe("smoke: every role lands on its own home", () => {
 
   it("a staff member outside a role gets 403 from that role's page and its API alike", async () => {
     const { context, page } = await newPage(browser);
-    await signIn(page, stack.baseUrl, "sales@saltgrass.example", DEMO_PASSWORDS.sales);
+    await signIn(page, stack.baseUrl, "sales@ostrevane.example", DEMO_PASSWORDS.sales);
     for (const path of ["/admin/accounts", "/admin/production", "/admin/catalogue", "/admin/staff", "/admin/audit", "/admin/outbox"]) {
       const res = await page.goto(`${stack.baseUrl}${path}`);
       expect(res?.status(), path).toBe(403);
@@ -131,7 +131,7 @@ describe("smoke: every role lands on its own home", () => {
 
   it("a client is refused /admin (403) and gets 404 for another firm's order", async () => {
     const { context, page } = await newPage(browser);
-    await signIn(page, stack.baseUrl, "engineer@kittering.example", DEMO_PASSWORDS.client);
+    await signIn(page, stack.baseUrl, "engineer@caldrith.example", DEMO_PASSWORDS.client);
     const admin = await page.goto(`${stack.baseUrl}/admin`);
     expect(admin?.status()).toBe(403);
     const db = createClient({ url: stack.dbUrl });

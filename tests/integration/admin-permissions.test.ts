@@ -126,7 +126,7 @@ describe("every back-office action refuses roles without its permission", () => 
     { name: "saveRateCard", permission: "admin:catalogue", call: async () => (await import("@/app/admin/catalogue/actions")).saveRateCard({ ...(await import("@/lib/estimating/defaults")).defaultRateCard }) },
     { name: "saveMaterial", permission: "admin:catalogue", call: async () => (await import("@/app/admin/catalogue/actions")).saveMaterial({ ...(await import("@/lib/estimating/defaults")).defaultMaterials[0]! }) },
     { name: "saveCell", permission: "admin:catalogue", call: async () => { const { cellFormValues } = await import("@/lib/validation/admin-catalogue"); return (await import("@/app/admin/catalogue/actions")).saveCell(cellFormValues((await import("@/lib/estimating/defaults")).defaultCells[0]!)); } },
-    { name: "inviteStaff", permission: "admin:staff", call: async () => (await import("@/app/admin/staff/actions")).inviteStaff({ email: "new.planner@saltgrass.example", role: "production" }) },
+    { name: "inviteStaff", permission: "admin:staff", call: async () => (await import("@/app/admin/staff/actions")).inviteStaff({ email: "new.planner@ostrevane.example", role: "production" }) },
     { name: "updateStaff", permission: "admin:staff", call: async () => (await import("@/app/admin/staff/actions")).updateStaff({ userId: userIds.sales, isControlledCleared: true }) },
   ];
   for (const a of ACTIONS) {

@@ -10,10 +10,10 @@ import { users } from "../../db/schema";
 import type { Role } from "../../db/schema/common";
 
 export const STAFF_EMAIL: Record<Exclude<Role, "client" | "client_admin">, string> = {
-  admin: "admin@saltgrass.example",
-  sales: "sales@saltgrass.example",
-  production: "production@saltgrass.example",
-  accounts: "accounts@saltgrass.example",
+  admin: "admin@ostrevane.example",
+  sales: "sales@ostrevane.example",
+  production: "production@ostrevane.example",
+  accounts: "accounts@ostrevane.example",
 };
 
 /** One demo user per role (the first of each). */

@@ -62,14 +62,14 @@ describe("sign-up", () => {
 describe("the guard", () => {
   it("loads the signed-in user fresh from the database, with the firm", async () => {
     const { getCurrentUser } = await import("../../lib/auth/guard");
-    session.current = { user: { id: await userId("engineer@kittering.example") } };
+    session.current = { user: { id: await userId("engineer@caldrith.example") } };
     const u = await getCurrentUser();
     expect(u?.role).toBe("client");
     expect(u?.orgId).toBeTruthy();
   });
   it("treats a disabled account as signed out", async () => {
     const { getCurrentUser } = await import("../../lib/auth/guard");
-    const id = await userId("lab@hollinsridge.example");
+    const id = await userId("lab@tarnavel.example");
     await db.update(users).set({ disabledAt: new Date() }).where(eq(users.id, id));
     session.current = { user: { id } };
     expect(await getCurrentUser()).toBeNull();
@@ -83,7 +83,7 @@ describe("the guard", () => {
   });
   it("requireRole refuses other roles with forbidden", async () => {
     const { requireRole } = await import("../../lib/auth/guard");
-    session.current = { user: { id: await userId("sales@saltgrass.example") } };
+    session.current = { user: { id: await userId("sales@ostrevane.example") } };
     await expect(requireRole("accounts")).rejects.toMatchObject({ code: "forbidden" });
     await expect(requireRole("sales", "admin")).resolves.toMatchObject({ role: "sales" });
     session.current = null;
@@ -94,7 +94,7 @@ describe("the guard", () => {
 describe("stage transitions in the database", () => {
   it("records an allowed move with who and when, and refuses a skip with the reason, writing nothing", async () => {
     const [draft] = await db.select({ id: requests.id }).from(requests).where(eq(requests.stage, "draft")).limit(1);
-    const actor = await userId("engineer@kittering.example");
+    const actor = await userId("engineer@caldrith.example");
     const before = (await db.select().from(stageEvents).where(eq(stageEvents.requestId, draft!.id))).length;
     await expect(transitionStage(db, { requestId: draft!.id, to: "printing", actorId: actor })).rejects.toMatchObject({ code: "conflict:stage" });
     expect((await db.select().from(stageEvents).where(eq(stageEvents.requestId, draft!.id))).length).toBe(before);

@@ -43,9 +43,9 @@ describe("password reset", () => {
   });
 
   it("stores only the token's SHA-256, and the link sets a new password once", async () => {
-    const { outcome, msg } = await ask("engineer@kittering.example");
+    const { outcome, msg } = await ask("engineer@caldrith.example");
     expect(outcome).toBe("sent_if_known");
-    expect(msg?.to).toBe("engineer@kittering.example");
+    expect(msg?.to).toBe("engineer@caldrith.example");
     const token = tokenOf(msg);
     const rows = await db.select().from(passwordResetTokens);
     expect(rows.some((r) => r.tokenHash === token)).toBe(false);
@@ -53,18 +53,18 @@ describe("password reset", () => {
     expect(row?.expiresAt.getTime()).toBe(NOW.getTime() + RESET_TTL_MS);
 
     expect(await completePasswordReset(db, { token, password: "new-password-2027", now: at(60_000) })).toBe(true);
-    const user = await getUserForSignIn(db, "engineer@kittering.example");
+    const user = await getUserForSignIn(db, "engineer@caldrith.example");
     expect(await verifyPassword("new-password-2027", user?.passwordHash)).toBe(true);
     expect(await verifyPassword("demo-client-2026", user?.passwordHash)).toBe(false);
 
     // Single use: the same token again is refused and changes nothing.
     expect(await completePasswordReset(db, { token, password: "another-password-1", now: at(120_000) })).toBe(false);
-    const again = await getUserForSignIn(db, "engineer@kittering.example");
+    const again = await getUserForSignIn(db, "engineer@caldrith.example");
     expect(again?.passwordHash).toBe(user?.passwordHash);
   });
 
   it("two concurrent uses of one token: exactly one wins", async () => {
-    const token = tokenOf((await ask("lab@hollinsridge.example", NOW, "203.0.113.20")).msg);
+    const token = tokenOf((await ask("lab@tarnavel.example", NOW, "203.0.113.20")).msg);
     const results = await Promise.all([
       completePasswordReset(db, { token, password: "first-password-1", now: at(1000) }),
       completePasswordReset(db, { token, password: "second-password-2", now: at(1000) }),
@@ -80,8 +80,8 @@ describe("password reset", () => {
   });
 
   it("a newer link replaces the older one", async () => {
-    const first = tokenOf((await ask("lead@kittering.example", NOW, "203.0.113.9")).msg);
-    const second = tokenOf((await ask("lead@kittering.example", at(1000), "203.0.113.9")).msg);
+    const first = tokenOf((await ask("lead@caldrith.example", NOW, "203.0.113.9")).msg);
+    const second = tokenOf((await ask("lead@caldrith.example", at(1000), "203.0.113.9")).msg);
     expect(await completePasswordReset(db, { token: first, password: "older-link-pass-1", now: at(2000) })).toBe(false);
     expect(await completePasswordReset(db, { token: second, password: "newer-link-pass-1", now: at(2000) })).toBe(true);
   });
@@ -91,7 +91,7 @@ describe("password reset", () => {
   });
 
   it("throttles per e-mail (known or not) and per address", async () => {
-    for (const email of ["sales@saltgrass.example", "ghost@nowhere.example"]) {
+    for (const email of ["sales@ostrevane.example", "ghost@nowhere.example"]) {
       const outcomes = [];
       for (let i = 0; i < 4; i++) outcomes.push((await ask(email, at(i * 1000), `198.51.100.${i}`)).outcome);
       expect(outcomes).toEqual(["sent_if_known", "sent_if_known", "sent_if_known", "throttled"]);
@@ -108,8 +108,8 @@ describe("password reset", () => {
 
   it("a disabled account gets no link", async () => {
     const { users } = await import("../../db/schema");
-    await db.update(users).set({ disabledAt: NOW }).where(eq(users.email, "accounts@saltgrass.example"));
-    const r = await ask("accounts@saltgrass.example", NOW, "203.0.113.30");
+    await db.update(users).set({ disabledAt: NOW }).where(eq(users.email, "accounts@ostrevane.example"));
+    const r = await ask("accounts@ostrevane.example", NOW, "203.0.113.30");
     expect(r.outcome).toBe("sent_if_known");
     expect(r.msg).toBeUndefined();
   });

@@ -41,7 +41,7 @@ beforeAll(async () => {
   t = await createTestDb({ seeded: true });
   db = t.db;
   dbRef.db = db;
-  const [u] = await db.select({ id: users.id }).from(users).where(eq(users.email, "engineer@kittering.example"));
+  const [u] = await db.select({ id: users.id }).from(users).where(eq(users.email, "engineer@caldrith.example"));
   session.current = { user: { id: u!.id } };
   files.set("kbox", binaryStl(box(600, 300, 150)));
   const [up] = await db.insert(uploads).values({ fileKey: "kbox", fileName: "box.stl", sizeBytes: 1, url: "http://127.0.0.1:1/f/kbox", userId: u!.id, purpose: "model" }).returning({ id: uploads.id });

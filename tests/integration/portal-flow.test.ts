@@ -77,7 +77,7 @@ describe("drafts, files and submission", () => {
   const partId = crypto.randomUUID();
 
   it("saves a draft with its parts, scoped to the firm", async () => {
-    await as("engineer@kittering.example");
+    await as("engineer@caldrith.example");
     const { saveDraft } = await import("../../app/(portal)/portal/requests/actions");
     const r = await saveDraft({ project, parts: [part(partId)] });
     expect(r.ok).toBe(true);
@@ -97,7 +97,7 @@ describe("drafts, files and submission", () => {
   });
 
   it("refuses a file whose content is not a model, on that part only; accepts an STL and analyses it", async () => {
-    const me = await as("engineer@kittering.example");
+    const me = await as("engineer@caldrith.example");
     const { attachPartFile } = await import("../../app/(portal)/portal/requests/actions");
     const bad = await attachPartFile({ requestId, partId, uploadId: await storeUpload(me, "drawing.stl", new TextEncoder().encode("%PDF-1.7 not a mesh")) });
     expect(bad).toMatchObject({ ok: false, code: "invalid_input:file" });
@@ -121,7 +121,7 @@ describe("drafts, files and submission", () => {
   }, 90_000);
 
   it("will not submit until the units are confirmed, then submits and moves to submitted", async () => {
-    await as("engineer@kittering.example");
+    await as("engineer@caldrith.example");
     const { submitRequest } = await import("../../app/(portal)/portal/requests/actions");
     const notYet = await submitRequest({ requestId, project, parts: [part(partId)] });
     expect(notYet).toMatchObject({ ok: false, code: "invalid_input" });
@@ -133,7 +133,7 @@ describe("drafts, files and submission", () => {
   }, 90_000);
 
   it("a new revision of a submitted part re-runs the analysis and marks the open quote stale", async () => {
-    const me = await as("engineer@kittering.example");
+    const me = await as("engineer@caldrith.example");
     const [q] = await db.insert(quotes).values({ requestId, version: 1, status: "issued", totalCents: 100_000, depositCents: 50_000 }).returning({ id: quotes.id });
     const { attachPartFile } = await import("../../app/(portal)/portal/requests/actions");
     const r = await attachPartFile({ requestId, partId, uploadId: await storeUpload(me, "rib-rev2.stl", binaryStl(box(820, 400, 200))) });
@@ -175,7 +175,7 @@ describe("quotes and the deposit", () => {
   });
 
   it("another firm cannot accept it (404)", async () => {
-    await as("lead@kittering.example");
+    await as("lead@caldrith.example");
     const { acceptQuote } = await import("../../app/(portal)/portal/requests/[id]/actions");
     const { q } = await quotedRequest();
     expect(await acceptQuote({ quoteId: q.id, poNumber: "X", acceptTerms: true })).toMatchObject({ ok: false, code: "not_found:quote" });
@@ -238,7 +238,7 @@ describe("file downloads", () => {
     files.set(ctl!.key, new Uint8Array([1, 2, 3]));
     const get = () => GET(new Request(`http://localhost/api/files/${ctl!.fid}`), { params: Promise.resolve({ id: ctl!.fid }) });
 
-    await as("engineer@kittering.example");
+    await as("engineer@caldrith.example");
     const own = await get();
     expect(own.status).toBe(200);
     expect(new Uint8Array(await own.arrayBuffer())).toEqual(new Uint8Array([1, 2, 3]));
@@ -248,7 +248,7 @@ describe("file downloads", () => {
 
     await as("buyer@bramblewake.example");
     expect((await get()).status).toBe(404);
-    const sales = await as("sales@saltgrass.example");
+    const sales = await as("sales@ostrevane.example");
     const [cleared] = await db.select({ c: users.isControlledCleared }).from(users).where(eq(users.id, sales));
     await db.update(users).set({ isControlledCleared: false }).where(eq(users.id, sales));
     expect((await get()).status).toBe(404);

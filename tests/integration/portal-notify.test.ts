@@ -47,8 +47,8 @@ describe("notify", () => {
     const rows = await db.select().from(emailOutbox);
     const client = rows.find((m) => m.subject === `Request ${r.reference} received`);
     const sales = rows.find((m) => m.subject.startsWith(`New request ${r.reference}`));
-    expect(client?.toAddresses).toEqual(["engineer@kittering.example"]);
-    expect(sales?.toAddresses).toEqual(["sales@saltgrass.example"]);
+    expect(client?.toAddresses).toEqual(["engineer@caldrith.example"]);
+    expect(sales?.toAddresses).toEqual(["sales@ostrevane.example"]);
     expect(norm(sales!.text)).toContain("flagged controlled");
   });
 

@@ -35,7 +35,7 @@ beforeAll(async () => {
 }, 120_000);
 afterAll(() => t?.close());
 
-const asAdmin = async () => (session.current = { user: { id: await userIdOf(db, "admin@saltgrass.example") } });
+const asAdmin = async () => (session.current = { user: { id: await userIdOf(db, "admin@ostrevane.example") } });
 const signedOut = () => (session.current = null);
 
 /** The token is only in the invitation e-mail's link. */
@@ -83,81 +83,81 @@ const userRow = async (email: string) => (await db.select().from(users).where(eq
 
 describe("staff invitation accept flow", () => {
   it("e-mails a link to the accept page; only the token's SHA-256 is stored", async () => {
-    const { link, token } = await invite("new.planner@saltgrass.example");
+    const { link, token } = await invite("new.planner@ostrevane.example");
     expect(link.pathname).toBe("/invite/accept");
     expect(token).toMatch(/^[A-Za-z0-9_-]{43}$/);
-    expect(sent.at(-1)!.to).toBe("new.planner@saltgrass.example");
-    const rows = await db.select().from(invitations).where(eq(invitations.email, "new.planner@saltgrass.example"));
+    expect(sent.at(-1)!.to).toBe("new.planner@ostrevane.example");
+    const rows = await db.select().from(invitations).where(eq(invitations.email, "new.planner@ostrevane.example"));
     expect(rows).toHaveLength(1);
     expect(rows[0]!.tokenHash).toBe(createHash("sha256").update(token).digest("hex"));
     expect(JSON.stringify(rows)).not.toContain(token);
     const html = await acceptPageHtml(token);
     expect(html).toContain("Join the back office");
-    expect(html).toContain("new.planner@saltgrass.example");
+    expect(html).toContain("new.planner@ostrevane.example");
     expect(html).toContain("production role");
   });
 
   it("refuses a weak password or a mismatch with field errors and keeps the link open", async () => {
-    const { token } = await invite("weak.password@saltgrass.example", "sales");
+    const { token } = await invite("weak.password@ostrevane.example", "sales");
     expect(await accept({ token, name: "Tamsin Ivers", password: "short", confirm: "short" })).toMatchObject({ ok: false, code: "invalid_input", fieldErrors: { password: expect.arrayContaining(["Use at least 10 characters."]) } });
     expect(await accept({ token, name: "Tamsin Ivers", password: PASSWORD, confirm: `${PASSWORD}x` })).toMatchObject({ ok: false, fieldErrors: { confirm: ["The two passwords differ."] } });
     expect(await accept({ token, name: "", password: PASSWORD, confirm: PASSWORD })).toMatchObject({ ok: false, fieldErrors: { name: ["Enter your name."] } });
-    expect((await userRow("weak.password@saltgrass.example")).passwordHash).toBeNull();
+    expect((await userRow("weak.password@ostrevane.example")).passwordHash).toBeNull();
     expect(await acceptPageHtml(token)).toContain("Join the back office");
   });
 
   it("sets name and password once; the invitee can then sign in with the password", async () => {
-    const { token } = await invite("ansel.brook@saltgrass.example");
+    const { token } = await invite("ansel.brook@ostrevane.example");
     expect(await accept({ token, name: "Ansel Brook", password: PASSWORD, confirm: PASSWORD })).toBe("redirected");
-    const u = await getUserForSignIn(db, "ansel.brook@saltgrass.example");
+    const u = await getUserForSignIn(db, "ansel.brook@ostrevane.example");
     expect(u?.name).toBe("Ansel Brook");
     expect(u?.role).toBe("production");
     // What the credentials provider checks (lib/auth/config.ts): the stored hash against the password.
     expect(await verifyPassword(PASSWORD, u?.passwordHash)).toBe(true);
     expect(await verifyPassword("not-the-password-1", u?.passwordHash)).toBe(false);
-    const [inv] = await db.select().from(invitations).where(eq(invitations.email, "ansel.brook@saltgrass.example"));
+    const [inv] = await db.select().from(invitations).where(eq(invitations.email, "ansel.brook@ostrevane.example"));
     expect(inv!.acceptedAt).not.toBeNull();
     expect((await db.select().from(auditLog).where(eq(auditLog.action, "staff.accept_invitation"))).some((a) => a.entityId === u!.id)).toBe(true);
 
     // Used: a second accept is refused and changes nothing; the page says the link no longer works.
     const hash = u!.passwordHash;
     expect(await accept({ token, name: "Someone Else", password: "other-password-9", confirm: "other-password-9" })).toMatchObject({ ok: false, code: "invalid_input:token", message: expect.stringMatching(/expired or has already been used/) });
-    expect((await userRow("ansel.brook@saltgrass.example")).passwordHash).toBe(hash);
-    expect((await userRow("ansel.brook@saltgrass.example")).name).toBe("Ansel Brook");
+    expect((await userRow("ansel.brook@ostrevane.example")).passwordHash).toBe(hash);
+    expect((await userRow("ansel.brook@ostrevane.example")).name).toBe("Ansel Brook");
     expect(await acceptPageHtml(token)).toContain("This invitation no longer works");
     // And the address can not be invited again once accepted.
     const { inviteStaff } = await import("@/app/admin/staff/actions");
     await asAdmin();
-    expect(await inviteStaff({ email: "ansel.brook@saltgrass.example", role: "sales" })).toMatchObject({ ok: false, code: "conflict:email" });
+    expect(await inviteStaff({ email: "ansel.brook@ostrevane.example", role: "sales" })).toMatchObject({ ok: false, code: "conflict:email" });
     signedOut();
   });
 
   it("an expired link is refused and writes nothing", async () => {
-    const { token } = await invite("late.starter@saltgrass.example", "accounts");
-    await db.update(invitations).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(invitations.email, "late.starter@saltgrass.example"));
+    const { token } = await invite("late.starter@ostrevane.example", "accounts");
+    await db.update(invitations).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(invitations.email, "late.starter@ostrevane.example"));
     expect(await accept({ token, name: "Late Starter", password: PASSWORD, confirm: PASSWORD })).toMatchObject({ ok: false, code: "invalid_input:token" });
-    expect((await userRow("late.starter@saltgrass.example")).passwordHash).toBeNull();
-    const [inv] = await db.select().from(invitations).where(eq(invitations.email, "late.starter@saltgrass.example"));
+    expect((await userRow("late.starter@ostrevane.example")).passwordHash).toBeNull();
+    const [inv] = await db.select().from(invitations).where(eq(invitations.email, "late.starter@ostrevane.example"));
     expect(inv!.acceptedAt).toBeNull();
     expect(await acceptPageHtml(token)).toContain("This invitation no longer works");
   });
 
   it("inviting an unaccepted address again sends a fresh link, keeps the role and revokes the old link", async () => {
-    const first = await invite("second.try@saltgrass.example", "accounts");
-    const again = await invite("second.try@saltgrass.example", "admin");
+    const first = await invite("second.try@ostrevane.example", "accounts");
+    const again = await invite("second.try@ostrevane.example", "admin");
     expect(again.r).toMatchObject({ ok: true, data: { isResent: true } });
     expect(again.token).not.toBe(first.token);
-    expect((await userRow("second.try@saltgrass.example")).role).toBe("accounts");
+    expect((await userRow("second.try@ostrevane.example")).role).toBe("accounts");
     expect(await accept({ token: first.token, name: "Second Try", password: PASSWORD, confirm: PASSWORD })).toMatchObject({ ok: false, code: "invalid_input:token" });
     expect(await accept({ token: again.token, name: "Second Try", password: PASSWORD, confirm: PASSWORD })).toBe("redirected");
   });
 
   it("a disabled account can not accept, and the link stays unused", async () => {
-    const { token } = await invite("left.early@saltgrass.example", "sales");
-    await db.update(users).set({ disabledAt: new Date() }).where(eq(users.email, "left.early@saltgrass.example"));
+    const { token } = await invite("left.early@ostrevane.example", "sales");
+    await db.update(users).set({ disabledAt: new Date() }).where(eq(users.email, "left.early@ostrevane.example"));
     expect(await accept({ token, name: "Left Early", password: PASSWORD, confirm: PASSWORD })).toMatchObject({ ok: false, code: "invalid_input:token" });
-    expect((await userRow("left.early@saltgrass.example")).passwordHash).toBeNull();
-    const [inv] = await db.select().from(invitations).where(eq(invitations.email, "left.early@saltgrass.example"));
+    expect((await userRow("left.early@ostrevane.example")).passwordHash).toBeNull();
+    const [inv] = await db.select().from(invitations).where(eq(invitations.email, "left.early@ostrevane.example"));
     expect(inv!.acceptedAt).toBeNull();
   });
 

@@ -38,7 +38,7 @@ beforeAll(async () => {
   Object.assign(process.env, { RESEND_BASE_URL: resend.url, APP_URL: "http://app.test" });
   resetEnvCache();
   resetResendClient();
-  session.current = { user: { id: await userIdOf(db, "sales@saltgrass.example") } };
+  session.current = { user: { id: await userIdOf(db, "sales@ostrevane.example") } };
 }, 120_000);
 afterAll(async () => {
   await resend?.close();
@@ -48,20 +48,20 @@ afterAll(async () => {
 const norm = (s: string | null) => (s ?? "").replace(/<!-- -->/g, "").replace(/\s+/g, " ");
 const mailsTo = async (subject: string) => db.select().from(emailOutbox).where(eq(emailOutbox.subject, subject));
 
-/** A Kittering request made by the engineer (a plain client), controlled or not. */
-async function kitteringRequest(isControlled: boolean) {
-  const engineer = await userIdOf(db, "engineer@kittering.example");
+/** A Caldrith request made by the engineer (a plain client), controlled or not. */
+async function caldrithRequest(isControlled: boolean) {
+  const engineer = await userIdOf(db, "engineer@caldrith.example");
   const [r] = await db.select().from(requests).where(and(eq(requests.createdById, engineer), eq(requests.isControlled, isControlled)));
-  if (!r) throw new Error(`seed has no ${isControlled ? "controlled" : "plain"} request by the Kittering engineer`);
+  if (!r) throw new Error(`seed has no ${isControlled ? "controlled" : "plain"} request by the Caldrith engineer`);
   return r;
 }
 
 describe("staff message notice", () => {
   it("goes to the request's creator and every client who posted on the thread, with the message", async () => {
     const { postStaffMessage } = await import("@/app/admin/sales/actions");
-    const r = await kitteringRequest(false);
+    const r = await caldrithRequest(false);
     // The firm's lead joined the thread, so they hear of the reply too.
-    await db.insert(messages).values({ requestId: r.id, orgId: r.orgId, authorId: await userIdOf(db, "lead@kittering.example"), body: "Adding our buyer's view.", isFromStaff: false });
+    await db.insert(messages).values({ requestId: r.id, orgId: r.orgId, authorId: await userIdOf(db, "lead@caldrith.example"), body: "Adding our buyer's view.", isFromStaff: false });
     const body = "The flange now fits the Long Bed with 140 mm to spare.\nCould you confirm the 3 mm finish allowance?";
     const res = await postStaffMessage({ requestId: r.id, body });
     expect(res.ok).toBe(true);
@@ -69,7 +69,7 @@ describe("staff message notice", () => {
     const rows = await mailsTo(`New message on ${r.reference}`);
     expect(rows).toHaveLength(1);
     const mail = rows[0]!;
-    expect(mail.toAddresses.sort()).toEqual(["engineer@kittering.example", "lead@kittering.example"]);
+    expect(mail.toAddresses.sort()).toEqual(["engineer@caldrith.example", "lead@caldrith.example"]);
     expect(mail.tags).toEqual([{ name: "template", value: "staff-message" }]);
     expect(norm(mail.text)).toContain("The flange now fits the Long Bed with 140 mm to spare.");
     expect(norm(mail.text)).toContain(r.projectName);
@@ -78,21 +78,21 @@ describe("staff message notice", () => {
 
   it("leaves out disabled clients and never writes to staff", async () => {
     const { postStaffMessage } = await import("@/app/admin/sales/actions");
-    const r = await kitteringRequest(false);
-    await db.update(users).set({ disabledAt: new Date() }).where(eq(users.email, "lead@kittering.example"));
+    const r = await caldrithRequest(false);
+    await db.update(users).set({ disabledAt: new Date() }).where(eq(users.email, "lead@caldrith.example"));
     try {
       await db.delete(emailOutbox);
       expect((await postStaffMessage({ requestId: r.id, body: "Second note from sales." })).ok).toBe(true);
       const [mail] = await mailsTo(`New message on ${r.reference}`);
-      expect(mail!.toAddresses).toEqual(["engineer@kittering.example"]);
+      expect(mail!.toAddresses).toEqual(["engineer@caldrith.example"]);
     } finally {
-      await db.update(users).set({ disabledAt: null }).where(eq(users.email, "lead@kittering.example"));
+      await db.update(users).set({ disabledAt: null }).where(eq(users.email, "lead@caldrith.example"));
     }
   });
 
   it("for a controlled request carries no body: only that there is a new message, and the link", async () => {
     const { postStaffMessage } = await import("@/app/admin/sales/actions");
-    const r = await kitteringRequest(true);
+    const r = await caldrithRequest(true);
     const secret = "Bore pattern B-7 moves 12 mm outboard per the customer's drawing rev C";
     expect((await postStaffMessage({ requestId: r.id, body: secret })).ok).toBe(true);
     const [mail] = await mailsTo(`New message on ${r.reference}`);
@@ -112,7 +112,7 @@ describe("staff message notice", () => {
   it("cuts a very long message in the e-mail and points to the request page", async () => {
     const n = await import("@/lib/email/notify");
     const { postStaffMessage } = await import("@/app/admin/sales/actions");
-    const r = await kitteringRequest(false);
+    const r = await caldrithRequest(false);
     await db.delete(emailOutbox);
     const long = `${"Stepover notes. ".repeat(200)}END-OF-MESSAGE`;
     expect((await postStaffMessage({ requestId: r.id, body: long })).ok).toBe(true);

@@ -27,7 +27,7 @@ export default async function AcceptInvitationPage({ searchParams }: { searchPar
     <>
       <h1 className="text-2xl font-semibold text-ink-900">Join the back office</h1>
       <p className="mb-6 mt-1 text-sm text-ink-500">
-        You are invited to Saltgrass Additive Works with the {ROLE_TEXT[invitation.role] ?? invitation.role} role. Set your name and a
+        You are invited to Ostrevane Additive Works with the {ROLE_TEXT[invitation.role] ?? invitation.role} role. Set your name and a
         password; the link works once.
       </p>
       <AcceptInvitationForm token={value} email={invitation.email} />

@@ -33,7 +33,7 @@ export default async function ReceiptPage({ params }: { params: Promise<{ id: st
           <dt className="text-ink-500">Received from</dt>
           <dd>{org?.name}</dd>
           <dt className="text-ink-500">Received by</dt>
-          <dd>Saltgrass Additive Works</dd>
+          <dd>Ostrevane Additive Works</dd>
           <dt className="text-ink-500">For</dt>
           <dd>
             {payment.kind === "deposit" ? "Deposit" : "Balance"} on order {request.reference}, PO {order.poNumber}
