@@ -9,7 +9,11 @@ export type AppErrorCode =
   | "unavailable"
   | "payment_failed";
 
-const STATUS: Record<AppErrorCode, number> = {
+/**
+ * The one table of error → HTTP status. A code's kind (before ":") picks the status; a full code
+ * listed here ("busy:yours") overrides its kind. Actions answer the code itself; routes the status.
+ */
+const STATUS: Record<AppErrorCode, number> & Record<string, number> = {
   unauthenticated: 401,
   forbidden: 403,
   not_found: 404,
@@ -26,6 +30,8 @@ export class AppError extends Error {
     public readonly code: `${AppErrorCode}` | `${AppErrorCode}:${string}`,
     message: string,
     public readonly fieldErrors?: Record<string, string[]>,
+    /** Seconds after which trying again may succeed (sent as Retry-After). */
+    public readonly retryAfterS?: number,
   ) {
     super(message);
     this.name = "AppError";
@@ -36,7 +42,7 @@ export class AppError extends Error {
   }
 
   get status(): number {
-    return STATUS[this.kind];
+    return STATUS[this.code] ?? STATUS[this.kind] ?? 500;
   }
 }
 

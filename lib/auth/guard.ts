@@ -58,3 +58,9 @@ export function assertCanSee(user: PolicyUser, resource: PolicyResource | null |
 export function assertCanOpenFiles(user: PolicyUser, resource: PolicyResource | null | undefined, what = "file"): asserts resource is PolicyResource {
   if (!resource || !canOpenFiles(user, resource)) throw new AppError(`not_found:${what}`, `That ${what} was not found.`);
 }
+
+/** The client firm this user acts for; an account outside any firm (staff) is refused. */
+export function firmOf(user: Pick<PolicyUser, "orgId">): string {
+  if (!user.orgId) throw new AppError("forbidden", "Your account is not part of a client firm.");
+  return user.orgId;
+}

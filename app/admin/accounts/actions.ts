@@ -1,13 +1,12 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
-import { getDb } from "@/db/client";
 import { writeAudit } from "@/db/queries/audit";
 import { completeRefund, failRefund, getPaymentRow, getRefundByKey, insertPendingRefund, refundedOrPendingCents } from "@/db/queries/refunds";
-import { requirePermission } from "@/lib/auth/guard";
-import { AppError, toActionError, type ActionResult } from "@/lib/errors";
+import { AppError } from "@/lib/errors";
 import { formatCents } from "@/lib/money";
 import { createRefund } from "@/lib/payments/stripe";
+import { defineAction } from "@/lib/server/define-action";
 import { refundSchema } from "@/lib/validation/admin-accounts";
 
 const REFUNDABLE = new Set(["paid", "partially_refunded"]);
@@ -17,72 +16,62 @@ const REFUNDABLE = new Set(["paid", "partially_refunded"]);
  * already refunded or on its way; the form's idempotency key makes a double submit a refusal
  * (and the processor sees the same key, so it never refunds twice either).
  */
-export async function refundPayment(raw: { paymentId: string; amountCents: number; reason: string; idempotencyKey: string }): Promise<ActionResult<{ refundId: string; status: string }>> {
-  try {
-    const parsed = refundSchema.safeParse(raw);
-    if (!parsed.success) throw new AppError("invalid_input", "Check the highlighted fields.", parsed.error.flatten().fieldErrors as Record<string, string[]>);
-    const input = parsed.data;
-    const user = await requirePermission("accounts:refund");
-    const db = getDb();
+export const refundPayment = defineAction({ access: "accounts:refund", input: refundSchema }, async (input, { user, db }) => {
+  if (await getRefundByKey(db, input.idempotencyKey)) throw new AppError("conflict:duplicate", "This refund was already submitted; it was not sent again.");
+  const payment = await getPaymentRow(db, input.paymentId);
+  if (!payment) throw new AppError("not_found:payment", "That payment was not found.");
+  if (!REFUNDABLE.has(payment.status) || !payment.paymentIntentId) throw new AppError("conflict:payment", `A ${payment.status.replace("_", " ")} payment can not be refunded.`);
 
-    if (await getRefundByKey(db, input.idempotencyKey)) throw new AppError("conflict:duplicate", "This refund was already submitted; it was not sent again.");
-    const payment = await getPaymentRow(db, input.paymentId);
-    if (!payment) throw new AppError("not_found:payment", "That payment was not found.");
-    if (!REFUNDABLE.has(payment.status) || !payment.paymentIntentId) throw new AppError("conflict:payment", `A ${payment.status.replace("_", " ")} payment can not be refunded.`);
-
-    const refundId = await db.transaction(async (tx) => {
-      const taken = await refundedOrPendingCents(tx, payment.id);
-      const left = payment.amountCents - taken;
-      if (input.amountCents > left) {
-        throw new AppError("invalid_input:amount", `At most ${formatCents(left, payment.currency)} can be refunded (paid ${formatCents(payment.amountCents, payment.currency)}, already refunded or pending ${formatCents(taken, payment.currency)}).`, {
-          amountCents: [`At most ${formatCents(left, payment.currency)}.`],
-        });
-      }
-      let id: string;
-      try {
-        id = await insertPendingRefund(tx, { paymentId: payment.id, amountCents: input.amountCents, reason: input.reason, idempotencyKey: input.idempotencyKey, createdById: user.id });
-      } catch (e) {
-        if (String((e as Error).message).includes("UNIQUE")) throw new AppError("conflict:duplicate", "This refund was already submitted; it was not sent again.");
-        throw e;
-      }
-      await writeAudit(tx, { actorId: user.id, action: "refund.request", entityType: "payment", entityId: payment.id, orgId: payment.orgId, after: { refundId: id, amountCents: input.amountCents, reason: input.reason } });
-      return id;
-    });
-
-    let processorRefund: Awaited<ReturnType<typeof createRefund>>;
-    try {
-      processorRefund = await createRefund({
-        paymentIntentId: payment.paymentIntentId,
-        amountCents: input.amountCents,
-        reason: "requested_by_customer",
-        metadata: { refundId, paymentId: payment.id, orderId: payment.orderId },
-        idempotencyKey: `refund/${input.idempotencyKey}`,
+  const refundId = await db.transaction(async (tx) => {
+    const taken = await refundedOrPendingCents(tx, payment.id);
+    const left = payment.amountCents - taken;
+    if (input.amountCents > left) {
+      throw new AppError("invalid_input:amount", `At most ${formatCents(left, payment.currency)} can be refunded (paid ${formatCents(payment.amountCents, payment.currency)}, already refunded or pending ${formatCents(taken, payment.currency)}).`, {
+        amountCents: [`At most ${formatCents(left, payment.currency)}.`],
       });
-    } catch (e) {
-      await db.transaction(async (tx) => {
-        await failRefund(tx, refundId);
-        await writeAudit(tx, { actorId: user.id, action: "refund.failed", entityType: "payment", entityId: payment.id, orgId: payment.orgId, after: { refundId, message: (e as Error).message } });
-      });
-      throw new AppError("payment_failed:refund", `The processor refused the refund: ${(e as Error).message}`);
     }
+    let id: string;
+    try {
+      id = await insertPendingRefund(tx, { paymentId: payment.id, amountCents: input.amountCents, reason: input.reason, idempotencyKey: input.idempotencyKey, createdById: user.id });
+    } catch (e) {
+      if (String((e as Error).message).includes("UNIQUE")) throw new AppError("conflict:duplicate", "This refund was already submitted; it was not sent again.");
+      throw e;
+    }
+    await writeAudit(tx, { actorId: user.id, action: "refund.request", entityType: "payment", entityId: payment.id, orgId: payment.orgId, after: { refundId: id, amountCents: input.amountCents, reason: input.reason } });
+    return id;
+  });
 
-    const after = await db.transaction(async (tx) => {
-      const p = await completeRefund(tx, refundId, payment.id, processorRefund.id, input.amountCents);
-      await writeAudit(tx, {
-        actorId: user.id,
-        action: "refund.succeeded",
-        entityType: "payment",
-        entityId: payment.id,
-        orgId: payment.orgId,
-        before: { refundedCents: payment.refundedCents, status: payment.status },
-        after: { refundId, stripeRefundId: processorRefund.id, refundedCents: p.refundedCents, status: p.status },
-      });
-      return p;
+  let processorRefund: Awaited<ReturnType<typeof createRefund>>;
+  try {
+    processorRefund = await createRefund({
+      paymentIntentId: payment.paymentIntentId,
+      amountCents: input.amountCents,
+      reason: "requested_by_customer",
+      metadata: { refundId, paymentId: payment.id, orderId: payment.orderId },
+      idempotencyKey: `refund/${input.idempotencyKey}`,
     });
-    revalidatePath("/admin/accounts");
-    revalidatePath(`/admin/accounts/payments/${payment.id}`);
-    return { ok: true, data: { refundId, status: after.status } };
   } catch (e) {
-    return toActionError(e);
+    await db.transaction(async (tx) => {
+      await failRefund(tx, refundId);
+      await writeAudit(tx, { actorId: user.id, action: "refund.failed", entityType: "payment", entityId: payment.id, orgId: payment.orgId, after: { refundId, message: (e as Error).message } });
+    });
+    throw new AppError("payment_failed:refund", `The processor refused the refund: ${(e as Error).message}`);
   }
-}
+
+  const after = await db.transaction(async (tx) => {
+    const p = await completeRefund(tx, refundId, payment.id, processorRefund.id, input.amountCents);
+    await writeAudit(tx, {
+      actorId: user.id,
+      action: "refund.succeeded",
+      entityType: "payment",
+      entityId: payment.id,
+      orgId: payment.orgId,
+      before: { refundedCents: payment.refundedCents, status: payment.status },
+      after: { refundId, stripeRefundId: processorRefund.id, refundedCents: p.refundedCents, status: p.status },
+    });
+    return p;
+  });
+  revalidatePath("/admin/accounts");
+  revalidatePath(`/admin/accounts/payments/${payment.id}`);
+  return { refundId, status: after.status };
+});

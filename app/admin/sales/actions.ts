@@ -1,16 +1,15 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
-import { getDb } from "@/db/client";
 import { writeAudit } from "@/db/queries/audit";
 import { getCurrentRateCard } from "@/db/queries/catalogue";
 import { createDraftQuote, createStaffMessage, getQuote, getRequestForSales, hasOrder, markIssued, updateDraftQuote } from "@/db/queries/quotes";
 import { transitionStage } from "@/db/queries/stages";
-import { requirePermission } from "@/lib/auth/guard";
 import { notifyQuoteReady, notifyStaffMessage } from "@/lib/email/notify";
-import { AppError, toActionError, type ActionResult } from "@/lib/errors";
+import { AppError } from "@/lib/errors";
 import { checkLines, quoteTotals, validUntil } from "@/lib/quoting/lines";
-import { saveQuoteSchema, staffMessageSchema, type SaveQuoteInput } from "@/lib/validation/admin-quotes";
+import { defineAction } from "@/lib/server/define-action";
+import { saveQuoteSchema, staffMessageSchema } from "@/lib/validation/admin-quotes";
 
 const QUOTABLE = new Set(["submitted", "quoted"]);
 
@@ -19,14 +18,7 @@ const QUOTABLE = new Set(["submitted", "quoted"]);
  * the earlier versions become superseded, the request moves to quoted and the client is e-mailed.
  * Issuing is refused when a part's analysis is newer than the lines (a new file revision).
  */
-export async function saveQuote(raw: SaveQuoteInput): Promise<ActionResult<{ quoteId: string; version: number; status: "draft" | "issued" }>> {
-  try {
-    const parsed = saveQuoteSchema.safeParse(raw);
-    if (!parsed.success) throw new AppError("invalid_input", "Check the highlighted fields.", parsed.error.flatten().fieldErrors as Record<string, string[]>);
-    const input = parsed.data;
-    const user = await requirePermission("quote:manage");
-    const db = getDb();
-
+export const saveQuote = defineAction({ access: "quote:manage", input: saveQuoteSchema }, async (input, { user, db }) => {
     const sales = await getRequestForSales(db, input.requestId);
     if (!sales) throw new AppError("not_found:request", "That request was not found.");
     if (!QUOTABLE.has(sales.request.stage)) throw new AppError("conflict:stage", `The request is ${sales.request.stage.replace("_", " ")}; it can not be quoted now.`);
@@ -94,31 +86,20 @@ export async function saveQuote(raw: SaveQuoteInput): Promise<ActionResult<{ quo
     }
     revalidatePath(`/admin/sales/requests/${input.requestId}`);
     revalidatePath("/admin/sales");
-    return { ok: true, data: result };
-  } catch (e) {
-    return toActionError(e);
-  }
-}
+    return result;
+});
 
 /** A staff message to the client on a request. */
-export async function postStaffMessage(raw: { requestId: string; body: string }): Promise<ActionResult<{ id: string }>> {
-  try {
-    const parsed = staffMessageSchema.safeParse(raw);
-    if (!parsed.success) throw new AppError("invalid_input", "Write a message.", parsed.error.flatten().fieldErrors as Record<string, string[]>);
-    const user = await requirePermission("quote:manage");
-    const db = getDb();
-    const sales = await getRequestForSales(db, parsed.data.requestId);
+export const postStaffMessage = defineAction({ access: "quote:manage", input: staffMessageSchema, invalid: "Write a message." }, async (input, { user, db }) => {
+    const sales = await getRequestForSales(db, input.requestId);
     if (!sales) throw new AppError("not_found:request", "That request was not found.");
     const m = await db.transaction(async (tx) => {
-      const row = await createStaffMessage(tx, { requestId: parsed.data.requestId, orgId: sales.request.orgId, authorId: user.id, body: parsed.data.body });
-      await writeAudit(tx, { actorId: user.id, action: "message.post", entityType: "request", entityId: parsed.data.requestId, orgId: sales.request.orgId, after: { messageId: row.id, length: parsed.data.body.length } });
+      const row = await createStaffMessage(tx, { requestId: input.requestId, orgId: sales.request.orgId, authorId: user.id, body: input.body });
+      await writeAudit(tx, { actorId: user.id, action: "message.post", entityType: "request", entityId: input.requestId, orgId: sales.request.orgId, after: { messageId: row.id, length: input.body.length } });
       return row;
     });
     // The clients on the thread hear of it by e-mail; a failed send does not undo the message.
     await notifyStaffMessage(m.id).catch((e: unknown) => console.error("staff message e-mail failed", e));
-    revalidatePath(`/admin/sales/requests/${parsed.data.requestId}`);
-    return { ok: true, data: { id: m.id } };
-  } catch (e) {
-    return toActionError(e);
-  }
-}
+    revalidatePath(`/admin/sales/requests/${input.requestId}`);
+    return { id: m.id };
+});

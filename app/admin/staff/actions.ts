@@ -2,17 +2,16 @@
 
 import { createElement } from "react";
 import { revalidatePath } from "next/cache";
-import { getDb } from "@/db/client";
 import { writeAudit } from "@/db/queries/audit";
 import { countOtherActiveAdmins, createStaffInvitation, findUserByEmail, getStaffUser, updateStaffUser } from "@/db/queries/staff";
 import { getUnacceptedStaffAccount, revokeOpenStaffInvitations } from "@/db/queries/staff-invitations";
 import { users } from "@/db/schema";
 import StaffInviteEmail from "@/emails/staff-invite";
-import { requirePermission } from "@/lib/auth/guard";
 import { INVITE_TTL_MS, invitationUrl, newInvitationToken } from "@/lib/auth/staff-invitation";
 import { sendEmail } from "@/lib/email/send";
 import { env } from "@/lib/env";
-import { AppError, toActionError, type ActionResult } from "@/lib/errors";
+import { AppError } from "@/lib/errors";
+import { defineAction } from "@/lib/server/define-action";
 import { inviteStaffSchema, updateStaffSchema } from "@/lib/validation/admin-staff";
 
 const dayText = (d: Date) => new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" }).format(d);
@@ -23,77 +22,60 @@ const dayText = (d: Date) => new Intl.DateTimeFormat("en-GB", { day: "numeric", 
  * 7 days). Inviting an address whose invitation was never accepted sends a fresh link and
  * revokes the old one; the account keeps its role.
  */
-export async function inviteStaff(raw: { email: string; role: string }): Promise<ActionResult<{ userId: string; isResent: boolean }>> {
-  try {
-    const parsed = inviteStaffSchema.safeParse(raw);
-    if (!parsed.success) throw new AppError("invalid_input", "Check the highlighted fields.", parsed.error.flatten().fieldErrors as Record<string, string[]>);
-    const user = await requirePermission("admin:staff");
-    const db = getDb();
-    const { email } = parsed.data;
-    const existing = await findUserByEmail(db, email);
-    const unaccepted = existing ? await getUnacceptedStaffAccount(db, email) : null;
-    if (existing && !unaccepted) {
-      throw new AppError("conflict:email", existing.role === "client" || existing.role === "client_admin" ? "That address belongs to a client account." : "That person is already on the staff.", { email: ["Already has an account."] });
-    }
-    const role = unaccepted ? (unaccepted.role as typeof parsed.data.role) : parsed.data.role;
-    const { token, tokenHash } = newInvitationToken();
-    const now = new Date();
-    const expiresAt = new Date(now.getTime() + INVITE_TTL_MS);
-    const userId = await db.transaction(async (tx) => {
-      let id = unaccepted?.id;
-      if (id) await revokeOpenStaffInvitations(tx, email, now);
-      else id = (await tx.insert(users).values({ email, role }).returning({ id: users.id }))[0]!.id;
-      await createStaffInvitation(tx, { email, role, tokenHash, invitedById: user.id, expiresAt });
-      await writeAudit(tx, { actorId: user.id, action: unaccepted ? "staff.reinvite" : "staff.invite", entityType: "user", entityId: id, after: { email, role, expiresAt } });
-      return id;
-    });
-    await sendEmail({
-      to: email,
-      subject: "You are invited to the Layerwright back office",
-      react: createElement(StaffInviteEmail, { role, invitedBy: user.name ?? user.email, url: invitationUrl(env().APP_URL, token), expiresText: dayText(expiresAt) }),
-      tags: [{ name: "template", value: "staff-invite" }],
-      idempotencyKey: `staff-invite/${tokenHash}`,
-    }).catch((e: unknown) => console.error("staff invite e-mail failed", e));
-    revalidatePath("/admin/staff");
-    return { ok: true, data: { userId, isResent: Boolean(unaccepted) } };
-  } catch (e) {
-    return toActionError(e);
+export const inviteStaff = defineAction({ access: "admin:staff", input: inviteStaffSchema }, async (input, { user, db }) => {
+  const { email } = input;
+  const existing = await findUserByEmail(db, email);
+  const unaccepted = existing ? await getUnacceptedStaffAccount(db, email) : null;
+  if (existing && !unaccepted) {
+    throw new AppError("conflict:email", existing.role === "client" || existing.role === "client_admin" ? "That address belongs to a client account." : "That person is already on the staff.", { email: ["Already has an account."] });
   }
-}
+  const role = unaccepted ? (unaccepted.role as typeof input.role) : input.role;
+  const { token, tokenHash } = newInvitationToken();
+  const now = new Date();
+  const expiresAt = new Date(now.getTime() + INVITE_TTL_MS);
+  const userId = await db.transaction(async (tx) => {
+    let id = unaccepted?.id;
+    if (id) await revokeOpenStaffInvitations(tx, email, now);
+    else id = (await tx.insert(users).values({ email, role }).returning({ id: users.id }))[0]!.id;
+    await createStaffInvitation(tx, { email, role, tokenHash, invitedById: user.id, expiresAt });
+    await writeAudit(tx, { actorId: user.id, action: unaccepted ? "staff.reinvite" : "staff.invite", entityType: "user", entityId: id, after: { email, role, expiresAt } });
+    return id;
+  });
+  await sendEmail({
+    to: email,
+    subject: "You are invited to the Layerwright back office",
+    react: createElement(StaffInviteEmail, { role, invitedBy: user.name ?? user.email, url: invitationUrl(env().APP_URL, token), expiresText: dayText(expiresAt) }),
+    tags: [{ name: "template", value: "staff-invite" }],
+    idempotencyKey: `staff-invite/${tokenHash}`,
+  }).catch((e: unknown) => console.error("staff invite e-mail failed", e));
+  revalidatePath("/admin/staff");
+  return { userId, isResent: Boolean(unaccepted) };
+});
 
 /** Change a staff member's role, controlled-work clearance or access; one active admin always remains. */
-export async function updateStaff(raw: { userId: string; role?: string; isControlledCleared?: boolean; disabled?: boolean }): Promise<ActionResult<{ userId: string }>> {
-  try {
-    const parsed = updateStaffSchema.safeParse(raw);
-    if (!parsed.success) throw new AppError("invalid_input", "Check the highlighted fields.", parsed.error.flatten().fieldErrors as Record<string, string[]>);
-    const input = parsed.data;
-    const user = await requirePermission("admin:staff");
-    const db = getDb();
-    const target = await getStaffUser(db, input.userId);
-    if (!target) throw new AppError("not_found:user", "That staff member was not found.");
-    const losesAdmin = target.role === "admin" && !target.disabledAt && ((input.role && input.role !== "admin") || input.disabled === true);
-    await db.transaction(async (tx) => {
-      if (losesAdmin && (await countOtherActiveAdmins(tx, target.id)) === 0) {
-        throw new AppError("conflict:last_admin", "At least one admin must remain; make someone else admin first.");
-      }
-      const set = {
-        ...(input.role ? { role: input.role } : {}),
-        ...(input.isControlledCleared !== undefined ? { isControlledCleared: input.isControlledCleared } : {}),
-        ...(input.disabled !== undefined ? { disabledAt: input.disabled ? new Date() : null } : {}),
-      };
-      await updateStaffUser(tx, target.id, set);
-      await writeAudit(tx, {
-        actorId: user.id,
-        action: "staff.update",
-        entityType: "user",
-        entityId: target.id,
-        before: { role: target.role, isControlledCleared: target.isControlledCleared, disabled: Boolean(target.disabledAt) },
-        after: { role: input.role ?? target.role, isControlledCleared: input.isControlledCleared ?? target.isControlledCleared, disabled: input.disabled ?? Boolean(target.disabledAt) },
-      });
+export const updateStaff = defineAction({ access: "admin:staff", input: updateStaffSchema }, async (input, { user, db }) => {
+  const target = await getStaffUser(db, input.userId);
+  if (!target) throw new AppError("not_found:user", "That staff member was not found.");
+  const losesAdmin = target.role === "admin" && !target.disabledAt && ((input.role && input.role !== "admin") || input.disabled === true);
+  await db.transaction(async (tx) => {
+    if (losesAdmin && (await countOtherActiveAdmins(tx, target.id)) === 0) {
+      throw new AppError("conflict:last_admin", "At least one admin must remain; make someone else admin first.");
+    }
+    const set = {
+      ...(input.role ? { role: input.role } : {}),
+      ...(input.isControlledCleared !== undefined ? { isControlledCleared: input.isControlledCleared } : {}),
+      ...(input.disabled !== undefined ? { disabledAt: input.disabled ? new Date() : null } : {}),
+    };
+    await updateStaffUser(tx, target.id, set);
+    await writeAudit(tx, {
+      actorId: user.id,
+      action: "staff.update",
+      entityType: "user",
+      entityId: target.id,
+      before: { role: target.role, isControlledCleared: target.isControlledCleared, disabled: Boolean(target.disabledAt) },
+      after: { role: input.role ?? target.role, isControlledCleared: input.isControlledCleared ?? target.isControlledCleared, disabled: input.disabled ?? Boolean(target.disabledAt) },
     });
-    revalidatePath("/admin/staff");
-    return { ok: true, data: { userId: target.id } };
-  } catch (e) {
-    return toActionError(e);
-  }
-}
+  });
+  revalidatePath("/admin/staff");
+  return { userId: target.id };
+});

@@ -1,11 +1,10 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
-import { getDb, type Db } from "@/db/client";
+import type { Db } from "@/db/client";
 import { boardVersion, countOrdersByStage, listBoardColumn } from "@/db/queries/orders";
-import { requirePermission } from "@/lib/auth/guard";
-import { withErrors } from "@/lib/auth/route";
 import { BOARD_COLUMNS, BOARD_PAGE, BOARD_PAGE_MAX, boardColumn } from "@/lib/orders/board";
 import { VersionedCache } from "@/lib/orders/board-cache";
+import { defineRoute } from "@/lib/server/define-route";
 
 export const dynamic = "force-dynamic";
 
@@ -23,10 +22,7 @@ const querySchema = z
  * The permission is checked on every request; only the built answer is reused, while the
  * database says nothing on the board has changed.
  */
-export const GET = withErrors(async (req: Request) => {
-  await requirePermission("production:board");
-  const q = querySchema.parse(Object.fromEntries(new URL(req.url).searchParams));
-  const db = getDb();
+export const GET = defineRoute({ access: "production:board", query: querySchema }, async ({ query: q, db }) => {
   // Read first: a change landing while the answer is built raises it, and the next request rebuilds.
   const version = await boardVersion(db);
   const key = `${q.column ?? "*"}:${q.offset}:${q.limit}`;

@@ -1,12 +1,9 @@
-import { NextResponse } from "next/server";
-import { getDb } from "@/db/client";
 import { ledgerForPeriod, listRefundsForPayments } from "@/db/queries/ledger";
-import { requirePermission } from "@/lib/auth/guard";
-import { withErrors } from "@/lib/auth/route";
 import { AppError } from "@/lib/errors";
 import { listProcessorRecords } from "@/lib/payments/stripe";
 import { fromProcessor } from "@/lib/reconciliation/from-processor";
 import { reconcile, summarise } from "@/lib/reconciliation/match";
+import { defineRoute } from "@/lib/server/define-route";
 import { periodBounds, periodSchema } from "@/lib/validation/admin-accounts";
 
 export const dynamic = "force-dynamic";
@@ -15,11 +12,8 @@ export const dynamic = "force-dynamic";
  * Our ledger for a period against the processor's charges, payment intents, balance
  * transactions and refunds for the same period: matched, missing either side, amount mismatches.
  */
-export const GET = withErrors(async (req: Request) => {
-  await requirePermission("accounts:ledger");
-  const period = periodSchema.parse(Object.fromEntries(new URL(req.url).searchParams));
+export const GET = defineRoute({ access: "accounts:ledger", query: periodSchema }, async ({ query: period, db }) => {
   const range = periodBounds(period);
-  const db = getDb();
   const ledger = await ledgerForPeriod(db, range.from, range.to);
   const refunds = await listRefundsForPayments(db, ledger.payments.map((p) => p.id));
   let processor;
@@ -32,9 +26,9 @@ export const GET = withErrors(async (req: Request) => {
   }
   const findings = reconcile({ payments: ledger.payments, refunds, ...processor });
   const refs = new Map(ledger.payments.map((p) => [p.id, { reference: p.reference, firmName: p.firmName, paymentKind: p.kind }]));
-  return NextResponse.json({
+  return {
     period,
     summary: summarise(findings),
     findings: findings.map((f) => ({ ...f, ...(f.paymentId ? (refs.get(f.paymentId) ?? {}) : {}) })),
-  });
+  };
 });

@@ -1,12 +1,7 @@
-import { NextResponse } from "next/server";
-import { getDb } from "@/db/client";
 import { actualVsEstimate } from "@/db/queries/reports";
-import { requirePermission } from "@/lib/auth/guard";
-import { withErrors } from "@/lib/auth/route";
+import { defineRoute } from "@/lib/server/define-route";
 
 export const dynamic = "force-dynamic";
 
-export const GET = withErrors(async () => {
-  await requirePermission("production:board");
-  return NextResponse.json(await actualVsEstimate(getDb()));
-});
+/** Each finished order's recorded actuals against its estimate. */
+export const GET = defineRoute({ access: "production:board" }, async ({ db }) => actualVsEstimate(db));

@@ -1,0 +1,72 @@
+import { NextResponse } from "next/server";
+import { ZodError, type z } from "zod";
+import { getDb, type Db } from "@/db/client";
+import { AppError, isAppError } from "@/lib/errors";
+import { enter, type Access, type UserFor } from "./access";
+
+type Params = Record<string, string | string[]>;
+type Infer<S> = S extends z.ZodType ? z.output<S> : undefined;
+
+interface RouteSpec<A extends Access, Q extends z.ZodType | undefined, B extends z.ZodType | undefined> {
+  /** Who may call it (lib/server/access.ts). */
+  access: A;
+  /** The query string, parsed as an object of strings (coerce numbers and dates in the schema). */
+  query?: Q;
+  /** A JSON body. */
+  body?: B;
+  /** Extra headers on a JSON answer (e.g. `{ "cache-control": "no-store" }`). */
+  headers?: Record<string, string>;
+}
+
+export interface RouteContext<A extends Access, Q, B, P> {
+  req: Request;
+  params: P;
+  user: UserFor<A>;
+  db: Db;
+  query: Infer<Q>;
+  body: Infer<B>;
+}
+
+/** The one error → answer mapping of every route: `{ error: { code, message, fieldErrors? } }` with the table's status. */
+export function errorResponse(e: unknown): Response {
+  if (isAppError(e)) {
+    const headers = e.retryAfterS !== undefined ? { "retry-after": String(e.retryAfterS) } : undefined;
+    return NextResponse.json({ error: { code: e.code, message: e.message, fieldErrors: e.fieldErrors } }, { status: e.status, headers });
+  }
+  if (e instanceof ZodError) {
+    return NextResponse.json({ error: { code: "invalid_input", message: "The request was not valid.", fieldErrors: e.flatten().fieldErrors } }, { status: 400 });
+  }
+  console.error(e);
+  return NextResponse.json({ error: { code: "internal", message: "Something went wrong on our side." } }, { status: 500 });
+}
+
+async function readBody(req: Request): Promise<unknown> {
+  return req.json().catch(() => {
+    throw new AppError("invalid_input", "Send a JSON body.");
+  });
+}
+
+/**
+ * The one shape of a route handler: guard (`access`) → parse (`query`, `body`) → the handler with
+ * the user and the database → a Response, or data sent as JSON. AppErrors and bad input answer
+ * through `errorResponse`'s table; anything else is logged and answered 500.
+ *
+ *     export const GET = defineRoute({ access: "accounts:ledger", query: ledgerQuerySchema }, async ({ query, db }) => listLedger(db, query));
+ */
+export function defineRoute<A extends Access, Q extends z.ZodType | undefined = undefined, B extends z.ZodType | undefined = undefined, P extends Params = Params>(
+  spec: RouteSpec<A, Q, B>,
+  handler: (ctx: RouteContext<A, Q, B, P>) => Promise<unknown>,
+): (req: Request, ctx?: { params: Promise<P> }) => Promise<Response> {
+  return async (req, ctx) => {
+    try {
+      const user = await enter(spec.access);
+      const query = (spec.query ? spec.query.parse(Object.fromEntries(new URL(req.url).searchParams)) : undefined) as Infer<Q>;
+      const body = (spec.body ? spec.body.parse(await readBody(req)) : undefined) as Infer<B>;
+      const params = ((await ctx?.params) ?? {}) as P;
+      const out = await handler({ req, params, user, db: getDb(), query, body });
+      return out instanceof Response ? out : NextResponse.json(out, { headers: spec.headers });
+    } catch (e) {
+      return errorResponse(e);
+    }
+  };
+}
