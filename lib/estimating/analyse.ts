@@ -6,6 +6,7 @@ import { priceStage } from "./stages/price";
 import { readStage, resolveOptions } from "./stages/read";
 import { scheduleStage } from "./stages/schedule";
 import { sliceStage } from "./stages/slice";
+import type { ReadModelResult } from "./read-model";
 import { materialWarnings } from "./warnings";
 import type { Axis, CellParams, EstimateResult, EstimateWarning, LengthUnit, MaterialParams, Orientation, RateCardParams } from "./types";
 
@@ -33,7 +34,10 @@ export interface AnalyseOptions {
 }
 
 export interface AnalyseInput {
-  bytes: Uint8Array;
+  /** The file's bytes; or, instead, `read`: the model already read (the CLI streams it from disk). */
+  bytes?: Uint8Array;
+  /** A model read by `readModel`/`readModelFile`; analyse turns its positions in place. */
+  read?: ReadModelResult;
   fileName: string;
   options: AnalyseOptions;
   catalogue: { materials: MaterialParams[]; cells: CellParams[]; rateCard: RateCardParams };
@@ -73,7 +77,8 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
   const { cell, orientation, chosenBy, fits, fitsAny, split } = choice;
 
   onProgress(0.5, "slicing");
-  const sec = sliceStage(mesh, ms, orientation, cell.defaultLayerHeightMm, t);
+  // the mesh is not needed in file space after this: turned in place, not copied
+  const sec = sliceStage(mesh, ms, orientation, cell.defaultLayerHeightMm, t, { turnInPlace: true });
   const { z0, layerCount } = sec;
   const h = sec.layerHeightMm, w = cell.defaultBeadWidthMm;
   const slicedVolume = sec.slicedVolumeMm3;

@@ -11,8 +11,11 @@ import { defaultCells, defaultMaterials, defaultRateCard } from "./defaults";
  * npm run bench: a ~1,000,000-triangle binary STL of a part-like shape (a 2.0 × 1.2 m pattern,
  * 1.5 m tall); times read + volume/area, and the whole analysis (read, measure, weld, grow,
  * slice at 5 mm layers, plan, price), median of several runs, peak memory (RSS sampled), and
- * Debian admesh on the same file in the same run. Targets (issue 3): analysis < 2 s,
- * read + volume/area ≤ 2 × admesh, peak memory < 4 × file size.
+ * Debian admesh on the same file in the same run. Then the command line as users run it,
+ * `npm run -s estimate -- FILE --json` (npm's own start included), whole process: wall time and,
+ * where GNU time is installed (/usr/bin/time), CPU time and the peak RSS of the estimator's
+ * process, beside admesh's whole run. Targets: analysis < 2 s, read + volume/area ≤ 2 × admesh,
+ * the command line's whole run ≤ 2 × admesh's, its peak RSS < 2 × the file (2.5 × at most).
  */
 const RUNS = Number(process.env.BENCH_RUNS ?? 5);
 const out = path.resolve(import.meta.dirname, "../..", "bench-out");
@@ -55,16 +58,24 @@ async function main(): Promise<void> {
   if (child.status !== 0) { process.stderr.write(child.stderr); process.exit(1); }
   const r = JSON.parse(child.stdout) as { readMs: number; allMs: number; layers: number; volume: number; triangles: number; peak: number; baseline: number };
 
-  const admeshTimes: number[] = [];
+  const admeshRuns: WholeRun[] = [];
   let admeshVolume: number | null = null;
   if (spawnSync("admesh", ["--version"]).status === 0) {
     for (let i = 0; i < RUNS; i++) {
-      const t = performance.now();
-      const a = spawnSync("admesh", [file], { encoding: "utf8" });
-      admeshTimes.push(performance.now() - t);
+      const a = wholeRun("admesh", [file]);
+      admeshRuns.push(a);
       const mv = a.stdout.match(/Volume\s+:\s+(-?[\d.]+)/);
       if (mv) admeshVolume = Number(mv[1]);
     }
+  }
+  const admeshTimes = admeshRuns.map((a) => a.wallMs);
+  // the command line as users run it; no database, so the catalogue is the seed's defaults
+  const cliRuns: WholeRun[] = [];
+  for (let i = 0; i < RUNS; i++) {
+    const c = wholeRun("npm", ["run", "-s", "estimate", "--", file, "--json"], { DATABASE_URL: `file:${path.join(out, "no-catalogue.db")}` });
+    if (c.status !== 0) { process.stderr.write(c.stderr); process.exit(1); }
+    JSON.parse(c.stdout); // nothing but the JSON on stdout
+    cliRuns.push(c);
   }
   const fileMb = readFileSync(file).length / 1e6;
   const peakMb = r.peak / 1e6, baseMb = r.baseline / 1e6, extraMb = peakMb - baseMb;
@@ -79,8 +90,45 @@ async function main(): Promise<void> {
   } else {
     console.log("admesh: not installed (apt-get install -y admesh); ratio not measured");
   }
-  console.log(`peak RSS: ${peakMb.toFixed(0)} MB for the whole process (Node + tsx + code: ${baseMb.toFixed(0)} MB before the first read); growth for the file and its analysis: ${extraMb.toFixed(0)} MB`);
+  const cliWall = median(cliRuns.map((c) => c.wallMs));
+  console.log(`command line, whole process (npm run -s estimate -- FILE --json, npm's start included): ${cliWall.toFixed(0)} ms wall beside ${r.allMs.toFixed(0)} ms in process`);
+  if (admeshTimes.length) {
+    const am = median(admeshTimes);
+    console.log(`ratio command line ÷ admesh, whole runs, wall: ${(cliWall / am).toFixed(2)}   target ≤ 2: ${cliWall / am <= 2 ? "met" : "NOT met"}`);
+  }
+  if (cliRuns[0]!.cpuMs !== null && admeshRuns.length) {
+    const cc = median(cliRuns.map((c) => c.cpuMs!)), ac = median(admeshRuns.map((a) => a.cpuMs!));
+    console.log(`CPU time (user + sys; steadier than wall on a shared machine): command line ${cc.toFixed(0)} ms, admesh ${ac.toFixed(0)} ms, ratio ${(cc / ac).toFixed(2)}`);
+  }
+  if (cliRuns[0]!.maxRssKb !== null) {
+    const rss = (median(cliRuns.map((c) => c.maxRssKb!)) * 1024) / 1e6;
+    console.log(`command line peak RSS (whole process): ${rss.toFixed(0)} MB = ${(rss / fileMb).toFixed(2)} × the file   target < 2: ${rss / fileMb < 2 ? "met" : "NOT met"}   (at most 2.5: ${rss / fileMb <= 2.5 ? "met" : "NOT met"})`);
+    if (admeshRuns.length) console.log(`admesh peak RSS: ${(median(admeshRuns.map((a) => a.maxRssKb!)) * 1024 / 1e6).toFixed(0)} MB`);
+  } else {
+    console.log("command line peak RSS: not measured (needs GNU time: apt-get install -y time)");
+  }
+  console.log(`peak RSS (in-process runs): ${peakMb.toFixed(0)} MB for the whole process (Node + tsx + code: ${baseMb.toFixed(0)} MB before the first read); growth for the file and its analysis: ${extraMb.toFixed(0)} MB`);
   console.log(`ratio growth ÷ file size: ${(extraMb / fileMb).toFixed(2)}   target < 4: ${extraMb / fileMb < 4 ? "met" : "NOT met"}   (whole-process RSS ÷ file: ${(peakMb / fileMb).toFixed(2)})`);
+}
+
+interface WholeRun { status: number | null; stdout: string; stderr: string; wallMs: number; cpuMs: number | null; maxRssKb: number | null }
+
+const GNU_TIME = "/usr/bin/time";
+const hasGnuTime = spawnSync(GNU_TIME, ["-f", "%M", "true"]).status === 0;
+
+/** One whole process, wall-timed here; CPU time and peak RSS (of its largest process) from GNU time when installed. */
+function wholeRun(cmd: string, args: string[], env: Record<string, string> = {}): WholeRun {
+  const stats = path.join(out, "time.txt");
+  const [c, a] = hasGnuTime ? [GNU_TIME, ["-f", "%U %S %M", "-o", stats, cmd, ...args]] : [cmd, args];
+  const t = performance.now();
+  const r = spawnSync(c, a, { encoding: "utf8", maxBuffer: 64 << 20, env: { ...process.env, ...env } });
+  const wallMs = performance.now() - t;
+  let cpuMs: number | null = null, maxRssKb: number | null = null;
+  if (hasGnuTime) {
+    const [u, s, m] = readFileSync(stats, "utf8").trim().split("\n").at(-1)!.split(" ").map(Number);
+    cpuMs = (u! + s!) * 1000; maxRssKb = m!;
+  }
+  return { status: r.status, stdout: r.stdout, stderr: r.stderr, wallMs, cpuMs, maxRssKb };
 }
 
 if (process.argv.includes("--measure")) await measureChild();

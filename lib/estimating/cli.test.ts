@@ -7,7 +7,8 @@ import { binaryStl, drillFixture } from "../../mocks/fixtures/meshes";
 
 const root = path.resolve(import.meta.dirname, "../..");
 const dir = mkdtempSync(path.join(tmpdir(), "lw-cli-"));
-const cli = (...args: string[]) => spawnSync(process.execPath, [path.join(root, "node_modules/tsx/dist/cli.mjs"), path.join(root, "lib/estimating/cli.ts"), ...args], { cwd: root, encoding: "utf8", env: { ...process.env, DATABASE_URL: `file:${path.join(dir, "none.db")}` } });
+// as `npm run estimate` runs it: the launcher, which bundles the command line when a source changed
+const cli = (...args: string[]) => spawnSync(process.execPath, [path.join(root, "lib/scripts/estimate.mjs"), ...args], { cwd: root, encoding: "utf8", env: { ...process.env, DATABASE_URL: `file:${path.join(dir, "none.db")}` } });
 
 describe("estimate CLI", () => {
   it("--json prints one object with the issue's keys", () => {

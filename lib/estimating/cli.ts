@@ -1,9 +1,10 @@
-import { existsSync, readFileSync } from "node:fs";
+import { existsSync } from "node:fs";
 import { basename } from "node:path";
 import { parseArgs } from "node:util";
 import { analyse } from "./analyse";
 import { defaultCells, defaultMaterials, defaultRateCard } from "./defaults";
 import { EstimateInputError, isEstimateInputError } from "./errors";
+import { readModelFile } from "./read-model-file";
 import type { CellParams, EstimateResult, MaterialParams, RateCardParams } from "./types";
 
 /**
@@ -44,6 +45,10 @@ function num(v: string | undefined, name: string): number | undefined {
   const n = Number(v);
   if (!Number.isFinite(n)) throw new EstimateInputError("option:number", `--${name} needs a number, not "${v.slice(0, 20)}".`);
   return n;
+}
+
+function bodiesOf(v: string | undefined): number[] | undefined {
+  return v === undefined ? undefined : v.split(",").map((b) => num(b.trim(), "bodies") ?? NaN);
 }
 
 const money = (c: number) => `$${(c / 100).toLocaleString("en-US", { minimumFractionDigits: 2, maximumFractionDigits: 2 })}`;
@@ -98,17 +103,17 @@ async function main(): Promise<number> {
     if (!file || positionals.length > 1) throw new EstimateInputError("cli:usage", USAGE);
     if (v.units !== undefined && v.units !== "mm" && v.units !== "in") throw new EstimateInputError("option:units", "--units must be mm or in.");
     if (v.orientation !== undefined && !["x", "y", "z"].includes(v.orientation)) throw new EstimateInputError("option:orientation", "--orientation must be x, y or z (the file axis that points up).");
-    let bytes: Uint8Array;
-    try { bytes = new Uint8Array(readFileSync(file)); } catch { throw new EstimateInputError("file:unreadable", `Cannot read the file "${file}".`); }
     const cat = await loadCatalogue();
+    // read from disk in chunks (a binary STL never sits whole in memory), then analysed in place
+    const read = await readModelFile(file, basename(file), { units: v.units as "mm" | "in" | undefined, toleranceMm: num(v.tolerance, "tolerance"), bodies: bodiesOf(v.bodies) });
     const r = await analyse({
-      bytes, fileName: basename(file),
+      read, fileName: basename(file),
       options: {
         units: v.units as "mm" | "in" | undefined, materialKey: v.material, allowanceMm: num(v.allowance, "allowance"), cellKey: v.cell,
         shellWalls: num(v["shell-walls"], "shell-walls") ?? null, orientation: v.orientation as "x" | "y" | "z" | undefined,
         quantity: num(v.quantity, "quantity"), cureTempC: num(v["cure-temp"], "cure-temp"),
         toleranceMm: num(v.tolerance, "tolerance"),
-        bodies: v.bodies === undefined ? undefined : v.bodies.split(",").map((b) => num(b.trim(), "bodies") ?? NaN),
+        bodies: bodiesOf(v.bodies),
       },
       catalogue: cat, now: new Date(),
     });

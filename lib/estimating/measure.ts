@@ -45,42 +45,92 @@ export interface Welded {
   toleranceMm: number;
 }
 
+/** Smallest power of two ≥ v (v ≥ 1). */
+function pow2AtLeast(v: number): number {
+  let s = 16;
+  while (s < v) s *= 2;
+  return s;
+}
+
 /**
- * Welds corners whose coordinates lie within `tol` (per axis) of each other. Spatial hash on
- * cells of size 2·tol: a neighbour within tol lies in the corner's own cell or the nearer
- * neighbour cell on each axis, so at most 8 cells are probed, and exact duplicates (the usual
- * case in STL) are found in the first.
+ * Welds corners whose coordinates lie within `tol` (per axis) of each other, in two steps:
+ * 1. a corner whose float32 coordinates are bit for bit those of an earlier corner (the usual
+ *    case in STL: every vertex is written once per triangle around it) takes that corner's
+ *    vertex, found in an open-addressing table keyed on the raw bits;
+ * 2. a new coordinate triple is looked up in a spatial hash on cells of size 16·tol: a neighbour
+ *    within tol lies in its own cell or, on an axis where the point is within tol of its cell's
+ *    side, the cell across that side; so one cell is probed for most points (8 at most, near a
+ *    cell's corner); none within tol makes a new vertex.
+ * Memory beside the 3n corner indices: two tables sized to the vertices (about n/2 for a
+ * closed mesh), not to the corners; nothing is allocated per corner.
  */
 export function weld(p: Float32Array, n: number, tol: number): Welded {
   const refs = n * 3;
-  let size = 1;
-  while (size < refs) size <<= 1;
-  size = Math.max(16, size >> 1);
-  const mask = size - 1;
-  const heads = new Int32Array(size).fill(-1);
-  const next = new Int32Array(refs);
-  const rep = new Uint32Array(refs); // welded vertex → its first corner
+  const bits = new Int32Array(p.buffer, p.byteOffset, refs * 3);
   const corner = new Uint32Array(refs);
-  const cell = 2 * tol;
-  const inv = 1 / cell;
+  // step 1 table: slot → 1 + a corner holding that bit pattern (0 = empty); grows at half full
+  let exactSize = pow2AtLeast(n);
+  let exact = new Int32Array(exactSize);
+  let exactMask = exactSize - 1, exactUsed = 0;
+  const exactSlot = (c: number, table: Int32Array, mask: number): number => {
+    const b = c * 3;
+    const x = bits[b]!, y = bits[b + 1]!, z = bits[b + 2]!;
+    let h = (Math.imul(x, 0x9e3779b1) ^ Math.imul(y, 0x85ebca77) ^ Math.imul(z, 0xc2b2ae3d)) >>> 0;
+    h = (h ^ (h >>> 15)) & mask;
+    for (;;) {
+      const e = table[h]!;
+      if (e === 0) return h;
+      const o = (e - 1) * 3;
+      if (bits[o] === x && bits[o + 1] === y && bits[o + 2] === z) return h;
+      h = (h + 1) & mask;
+    }
+  };
+  // step 2: chained spatial hash over vertices; rep = a vertex's first corner
+  const cellSize = pow2AtLeast(Math.max(16, n >> 1));
+  const cellMask = cellSize - 1;
+  const heads = new Int32Array(cellSize).fill(-1);
+  let cap = Math.max(1024, n);
+  let rep = new Uint32Array(cap);
+  let next = new Int32Array(cap);
+  const inv = 1 / (16 * tol);
+  const near = 1 / 16; // tol in cell units
   let count = 0;
   for (let r = 0; r < refs; r++) {
+    const slot = exactSlot(r, exact, exactMask);
+    const seen = exact[slot]!;
+    if (seen !== 0) { corner[r] = corner[seen - 1]!; continue; }
+    exact[slot] = r + 1;
+    if (++exactUsed * 2 > exactSize) {
+      const bigger = new Int32Array(exactSize * 2);
+      const mask = exactSize * 2 - 1;
+      for (let i = 0; i < exactSize; i++) { const e = exact[i]!; if (e !== 0) bigger[exactSlot(e - 1, bigger, mask)] = e; }
+      exact = bigger; exactSize *= 2; exactMask = mask;
+    }
     const b = r * 3;
     const x = p[b]!, y = p[b + 1]!, z = p[b + 2]!;
     const fx = x * inv, fy = y * inv, fz = z * inv;
     const ix = Math.floor(fx), iy = Math.floor(fy), iz = Math.floor(fz);
-    const sx = fx - ix < 0.5 ? -1 : 1, sy = fy - iy < 0.5 ? -1 : 1, sz = fz - iz < 0.5 ? -1 : 1;
+    // the side cell to probe on each axis (0: the point is farther than tol from both sides)
+    const dx = fx - ix, dy = fy - iy, dz = fz - iz;
+    const sx = dx <= near ? -1 : dx >= 1 - near ? 1 : 0, sy = dy <= near ? -1 : dy >= 1 - near ? 1 : 0, sz = dz <= near ? -1 : dz >= 1 - near ? 1 : 0;
+    const probes = (sx === 0 ? 0 : 1) | (sy === 0 ? 0 : 2) | (sz === 0 ? 0 : 4);
     let found = -1;
-    const own = (Math.imul(ix | 0, 73856093) ^ Math.imul(iy | 0, 19349663) ^ Math.imul(iz | 0, 83492791)) & mask;
+    const own = (Math.imul(ix | 0, 73856093) ^ Math.imul(iy | 0, 19349663) ^ Math.imul(iz | 0, 83492791)) & cellMask;
     for (let probe = 0; probe < 8 && found < 0; probe++) {
+      if ((probe & probes) !== probe) continue;
       const h = probe === 0 ? own
-        : (Math.imul((ix + (probe & 1 ? sx : 0)) | 0, 73856093) ^ Math.imul((iy + (probe & 2 ? sy : 0)) | 0, 19349663) ^ Math.imul((iz + (probe & 4 ? sz : 0)) | 0, 83492791)) & mask;
+        : (Math.imul((ix + (probe & 1 ? sx : 0)) | 0, 73856093) ^ Math.imul((iy + (probe & 2 ? sy : 0)) | 0, 19349663) ^ Math.imul((iz + (probe & 4 ? sz : 0)) | 0, 83492791)) & cellMask;
       for (let v = heads[h]!; v >= 0; v = next[v]!) {
         const c = rep[v]! * 3;
         if (Math.abs(p[c]! - x) <= tol && Math.abs(p[c + 1]! - y) <= tol && Math.abs(p[c + 2]! - z) <= tol) { found = v; break; }
       }
     }
     if (found < 0) {
+      if (count === cap) {
+        cap = Math.min(refs, cap * 2);
+        const r2 = new Uint32Array(cap); r2.set(rep); rep = r2;
+        const n2 = new Int32Array(cap); n2.set(next); next = n2;
+      }
       found = count++;
       rep[found] = r;
       next[found] = heads[own]!;
@@ -109,20 +159,22 @@ export interface Topology {
  */
 export function topology(p: Float32Array, n: number, w: Welded): Topology {
   const { corner, vertexCount: nv } = w;
+  // start[v] counts v's triangles, then (prefix sums) the end of its run in `star`; filling
+  // each run backwards leaves start[v] at its beginning, so no second offsets array is needed
   const start = new Uint32Array(nv + 1);
   let degenerate = 0;
   for (let t = 0; t < n; t++) {
     const a = corner[t * 3]!, b = corner[t * 3 + 1]!, c = corner[t * 3 + 2]!;
     if (a === b || b === c || c === a) { degenerate++; continue; }
-    start[a + 1]!++; start[b + 1]!++; start[c + 1]!++;
+    start[a]!++; start[b]!++; start[c]!++;
   }
-  for (let v = 0; v < nv; v++) start[v + 1] = start[v + 1]! + start[v]!;
-  const fill = start.slice(0, nv);
+  for (let v = 1; v < nv; v++) start[v] = start[v]! + start[v - 1]!;
+  start[nv] = nv > 0 ? start[nv - 1]! : 0;
   const star = new Uint32Array(start[nv]!);
-  for (let t = 0; t < n; t++) {
+  for (let t = n - 1; t >= 0; t--) {
     const a = corner[t * 3]!, b = corner[t * 3 + 1]!, c = corner[t * 3 + 2]!;
     if (a === b || b === c || c === a) continue;
-    star[fill[a]!++] = t; star[fill[b]!++] = t; star[fill[c]!++] = t;
+    star[--start[a]!] = t; star[--start[b]!] = t; star[--start[c]!] = t;
   }
   // union-find over vertices for shells
   const parent = new Int32Array(nv);

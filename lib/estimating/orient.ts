@@ -16,10 +16,11 @@ export function orientedSize(size: [number, number, number], o: Orientation): [n
 /**
  * Maps a file-space point to build space for an orientation (a proper rotation: cyclic axis
  * order, and a swap paired with a mirror of one plan axis, so windings and volumes keep their sign).
+ * Pass `out = p` to turn the points in place (no second copy of a large mesh).
  */
-export function orientPositions(p: Float32Array, o: Orientation): Float32Array {
+export function orientPositions(p: Float32Array, o: Orientation, out: Float32Array = new Float32Array(p.length)): Float32Array {
   if (o.up === "z" && !o.swapped) return p;
-  const out = new Float32Array(p.length);
+  // `out` may be `p` itself: each point is read whole before it is written
   for (let i = 0; i < p.length; i += 3) {
     const x = p[i]!, y = p[i + 1]!, z = p[i + 2]!;
     let a: number, b: number, c: number;

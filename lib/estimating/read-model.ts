@@ -31,7 +31,7 @@ export interface CadInfo {
  */
 export const INCH_GUESS_BELOW_UNITS = 150;
 
-function extension(fileName: string): string {
+export function extension(fileName: string): string {
   const dot = fileName.lastIndexOf(".");
   return dot >= 0 ? fileName.slice(dot + 1).toLowerCase() : "";
 }
@@ -98,11 +98,19 @@ export async function readModel(
   } else {
     throw new EstimateInputError("file:unsupported", `Files of type ".${ext.slice(0, 10)}" are not supported; send STL, OBJ, 3MF, STEP or IGES.`);
   }
+  return withUnits(mesh, format, opts.units);
+}
+
+/**
+ * A unitless mesh (STL, OBJ) in millimetres: the user's units when given, else guessed from its
+ * size (`INCH_GUESS_BELOW_UNITS`); inches are scaled in place.
+ */
+export function withUnits(mesh: Mesh, format: MeshFormat, given: LengthUnit | undefined): ReadModelResult {
   let units: LengthUnit;
   let unitsGuessed: boolean;
   let unitsReason: string;
-  if (opts.units) {
-    units = opts.units;
+  if (given) {
+    units = given;
     unitsGuessed = false;
     unitsReason = `Units set to ${units} by the user.`;
   } else {

@@ -1,22 +1,12 @@
-import { build } from "esbuild";
 import path from "node:path";
+import { buildBundle, root } from "./engine-bundles.mjs";
 
 /**
- * Bundles the estimate worker into one standalone ES module, .worker/estimate-worker.mjs, which
- * lib/estimating/pool.ts starts in worker threads (the app's own bundler never sees it).
+ * Bundles the estimate worker (.worker/estimate-worker.mjs, started in worker threads by
+ * lib/estimating/pool.ts; the app's own bundler never sees it) and the estimate command line
+ * (.worker/estimate-cli.mjs, run by `npm run estimate`). Part of `npm run build`.
  */
-const root = path.resolve(import.meta.dirname, "../..");
-const outfile = path.join(root, ".worker", "estimate-worker.mjs");
-await build({
-  entryPoints: [path.join(root, "lib/estimating/worker-entry.ts")],
-  outfile,
-  bundle: true,
-  platform: "node",
-  format: "esm",
-  target: "node20",
-  // the CAD kernel reader loads its own files at run time; keep it a package import
-  external: ["occt-import-js"],
-  banner: { js: "import { createRequire as __cr } from 'node:module'; const require = __cr(import.meta.url);" },
-  logLevel: "warning",
-});
-console.log(`estimate worker: ${path.relative(root, outfile)}`);
+for (const name of ["worker", "cli"] as const) {
+  const outfile = await buildBundle(name);
+  console.log(`estimate ${name}: ${path.relative(root, outfile)}`);
+}

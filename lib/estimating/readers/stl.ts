@@ -41,22 +41,44 @@ function badCoordinate(): never {
 
 /** Reads a binary STL into a triangle soup; no object per facet. */
 export function readBinaryStl(bytes: Uint8Array): Mesh {
-  if (bytes.length < HEADER + 4) throw new EstimateInputError("stl:too-short", "The file is too short to be a binary STL (it has no facet count).");
+  const n = binaryStlCount(bytes, bytes.length);
   const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  const n = view.getUint32(HEADER, true);
+  const positions = new Float32Array(n * 9);
+  decodeFacets(view, HEADER + 4, n, positions, 0);
+  return { positions, triangleCount: n };
+}
+
+/**
+ * Checks a binary STL's facet count against the file's size (84 + 50·n bytes) and the
+ * estimator's limits; returns n. Shared by the in-memory and the streaming reader.
+ */
+export function binaryStlCount(header: Uint8Array, fileBytes: number): number {
+  if (fileBytes < HEADER + 4 || header.length < HEADER + 4) throw new EstimateInputError("stl:too-short", "The file is too short to be a binary STL (it has no facet count).");
+  const n = new DataView(header.buffer, header.byteOffset, header.byteLength).getUint32(HEADER, true);
   const expected = HEADER + 4 + n * FACET;
   if (n === 0) throw new EstimateInputError("stl:empty", "The STL file has no facets.");
   if (n > LIMITS.maxTriangles) {
     throw new EstimateInputError("stl:too-many", `The STL file claims ${n.toLocaleString("en-US")} facets, more than the ${LIMITS.maxTriangles.toLocaleString("en-US")} the estimator accepts.`);
   }
-  if (bytes.length < expected) {
-    throw new EstimateInputError("stl:truncated", `The STL file is truncated: its header counts ${n} facets (${expected} bytes) but the file has ${bytes.length} bytes.`);
+  if (fileBytes < expected) {
+    throw new EstimateInputError("stl:truncated", `The STL file is truncated: its header counts ${n} facets (${expected} bytes) but the file has ${fileBytes} bytes.`);
   }
-  const positions = new Float32Array(n * 9);
+  return n;
+}
+
+/** Bytes of one binary STL facet, and of the header with the facet count. */
+export const STL_FACET_BYTES = FACET;
+export const STL_HEAD_BYTES = HEADER + 4;
+
+/**
+ * Decodes `count` facets starting at byte `offset` of `view` into `positions` from index `k`
+ * (9 float32 a facet; the normal and the attribute word are skipped). Rejects NaN, infinite
+ * and absurd coordinates.
+ */
+export function decodeFacets(view: DataView, offset: number, count: number, positions: Float32Array, k: number): void {
   const max = LIMITS.maxCoordinate;
-  let o = HEADER + 4 + 12;
-  let k = 0;
-  for (let t = 0; t < n; t++) {
+  let o = offset + 12;
+  for (let t = 0; t < count; t++) {
     for (let j = 0; j < 9; j++) {
       const v = view.getFloat32(o + j * 4, true);
       // NaN fails every comparison, so `!(|v| <= max)` catches NaN and ±Infinity.
@@ -65,7 +87,6 @@ export function readBinaryStl(bytes: Uint8Array): Mesh {
     }
     o += FACET;
   }
-  return { positions, triangleCount: n };
 }
 
 const enum Ch { Nl = 10, Cr = 13, Sp = 32, Tab = 9 }

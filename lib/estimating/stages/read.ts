@@ -35,7 +35,7 @@ export function resolveOptions(input: AnalyseInput): ResolvedOptions {
 /** Stage 1: the file's triangles in millimetres (units guessed when not given). */
 export async function readStage(input: AnalyseInput, warnings: EstimateWarning[]): Promise<ReadModelResult> {
   const o = input.options;
-  const read = await readModel(input.bytes, input.fileName, { units: o.units, toleranceMm: o.toleranceMm, bodies: o.bodies });
+  const read = input.read ?? await readModel(input.bytes ?? new Uint8Array(0), input.fileName, { units: o.units, toleranceMm: o.toleranceMm, bodies: o.bodies });
   if (read.unitsGuessed) warnings.push({ code: "units-guessed", message: read.unitsReason });
   return read;
 }

@@ -27,11 +27,14 @@ export interface GrownSections {
  * Stage 4: the part turned into the build orientation and cut at every layer; each net section
  * grown by the finish allowance (beyond the net part's ends, the nearest section grown by
  * √(t² − d²)).
+ * With `turnInPlace` the mesh's own positions are turned into build space (memory: no copy).
  */
-export function sliceStage(mesh: Mesh, ms: Measured, orientation: Orientation, layerHeightMm: number, allowanceMm: number): GrownSections {
+export function sliceStage(mesh: Mesh, ms: Measured, orientation: Orientation, layerHeightMm: number, allowanceMm: number, opts: { turnInPlace?: boolean } = {}): GrownSections {
   const t = allowanceMm, h = layerHeightMm;
-  const p = orientPositions(mesh.positions, orientation);
-  const ob = p === mesh.positions ? ms.m.bounds : bounds(p);
+  const upright = orientation.up === "z" && !orientation.swapped;
+  // turnInPlace: the caller is done with the file-space mesh, so it is turned where it lies
+  const p = orientPositions(mesh.positions, orientation, opts.turnInPlace ? mesh.positions : undefined);
+  const ob = upright ? ms.m.bounds : bounds(p);
   const zMin = ob.min[2], zMax = ob.max[2];
   const height = zMax - zMin + 2 * t;
   const layerCount = Math.max(1, Math.ceil(height / h - 1e-9));
