@@ -14,6 +14,8 @@ export default defineConfig({
           include: ["lib/**/*.test.ts", "components/**/*.test.{ts,tsx}", "mocks/**/*.test.ts", "emails/**/*.test.{ts,tsx}", "db/**/*.test.ts"],
           environment: "node",
           testTimeout: 60_000,
+          // seeding a test database takes seconds on a busy machine; vitest's 10 s default was hit
+          hookTimeout: 60_000,
         },
       },
       {
@@ -23,6 +25,7 @@ export default defineConfig({
           include: ["tests/integration/**/*.test.ts"],
           environment: "node",
           testTimeout: 60_000,
+          hookTimeout: 60_000,
           fileParallelism: false,
         },
       },
