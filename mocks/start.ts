@@ -1,33 +1,23 @@
 /**
  * Start the local fakes of the hosted services in one process (`npm run mocks`):
- * payments API on 4010, e-mail API on 4020 (messages land in the app's outbox table), upload
- * service on 4030. Prints one `mocks ready` line when all three listen; stops on SIGINT/SIGTERM.
+ * payments API on 4010, e-mail API on 4020 (messages kept in `DATA_DIR/mail-fake.db`, the fake's
+ * own file; the app writes its own outbox), upload service on 4030. Prints one `mocks ready` line when all three listen; stops on SIGINT/SIGTERM.
  */
-import { createOutboxMessage } from "../db/queries/outbox";
-import { getDb } from "../db/client";
 import { LOCAL_UPLOADTHING_TOKEN } from "../lib/uploads/token";
 import { startResendFake } from "./resend/server";
+import { openMailStore } from "./resend/store";
 import { startStripeFake, stripeFakeOptionsFromEnv } from "./stripe/server";
 import { startUploadthingFake } from "./uploadthing/server";
 
 const env = process.env;
 const dataDir = env.DATA_DIR ?? "./data";
 
+const mailbox = await openMailStore(dataDir);
 const stripe = await startStripeFake(stripeFakeOptionsFromEnv(env));
 const resend = await startResendFake({
   port: Number(env.RESEND_FAKE_PORT ?? 4020),
   host: env.RESEND_FAKE_HOST ?? "127.0.0.1",
-  store: async (m) => {
-    await createOutboxMessage(getDb(), {
-      providerId: m.id,
-      fromAddress: m.from,
-      toAddresses: [...m.to, ...m.cc, ...m.bcc],
-      subject: m.subject,
-      html: m.html,
-      text: m.text,
-      tags: m.tags,
-    });
-  },
+  store: (m) => mailbox.store(m),
 });
 const uploads = await startUploadthingFake({
   port: Number(env.UPLOADTHING_FAKE_PORT ?? 4030),
@@ -47,6 +37,7 @@ async function stop(signal: string) {
   stopping = true;
   console.log(`[mocks] ${signal}: stopping`);
   await Promise.allSettled([stripe.close(), resend.close(), uploads.close()]);
+  mailbox.close();
   process.exit(0);
 }
 process.on("SIGINT", () => void stop("SIGINT"));

@@ -1,6 +1,8 @@
 import { render } from "@react-email/render";
 import type { ReactElement } from "react";
 import { Resend } from "resend";
+import { getDb } from "../../db/client";
+import { createOutboxMessage } from "../../db/queries/outbox";
 import { env } from "../env";
 
 export interface SendEmailInput {
@@ -52,16 +54,18 @@ export function resetResendClient(): void {
 /**
  * Render a react-email template to HTML (and plain text) and send it through Resend. The SDK
  * answers `{ data, error }` and does not throw on API errors; this throws `EmailSendError` so a
- * failed send is never mistaken for a sent one. Returns the provider's message id.
+ * failed send is never mistaken for a sent one. What the API accepted is written to the app's
+ * outbox (the back office's list of sent mail). Returns the provider's message id.
  */
 export async function sendEmail(input: SendEmailInput, resend: Resend = getResend()): Promise<{ id: string }> {
   const html = await render(input.react);
   const text = input.text ?? (await render(input.react, { plainText: true }));
+  const from = input.from ?? env().EMAIL_FROM;
   let result: Awaited<ReturnType<Resend["emails"]["send"]>>;
   try {
     result = await resend.emails.send(
       {
-        from: input.from ?? env().EMAIL_FROM,
+        from,
         to: input.to,
         subject: input.subject,
         html,
@@ -82,6 +86,20 @@ export async function sendEmail(input: SendEmailInput, resend: Resend = getResen
       error?.name ?? "unknown",
       statusCode,
     );
+  }
+  try {
+    await createOutboxMessage(getDb(), {
+      providerId: data.id,
+      fromAddress: from,
+      toAddresses: Array.isArray(input.to) ? input.to : [input.to],
+      subject: input.subject,
+      html,
+      text,
+      tags: input.tags ?? [],
+    });
+  } catch (e) {
+    // The message is on its way; only the back office's copy is missing. Say so in the log.
+    console.error(`E-mail "${input.subject}" (${data.id}) was sent but not written to the outbox`, e);
   }
   return { id: data.id };
 }

@@ -5,22 +5,6 @@ import { AppError } from "../errors";
 import { formatCents } from "../money";
 import { createCheckoutSession, getStripe } from "./stripe";
 
-/**
- * A transaction's own connection does not wait for a lock (SQLITE_BUSY at once when another
- * write transaction is open), so retry a few times with a short, growing pause.
- */
-async function withBusyRetry<T>(fn: () => Promise<T>, attempts = 8): Promise<T> {
-  for (let i = 0; ; i++) {
-    try {
-      return await fn();
-    } catch (e) {
-      const busy = /SQLITE_BUSY|database is locked/.test(String((e as Error)?.message ?? e));
-      if (!busy || i >= attempts - 1) throw e;
-      await new Promise((r) => setTimeout(r, 20 * 2 ** i + Math.random() * 20));
-    }
-  }
-}
-
 export interface CheckoutResult {
   url: string | null;
   /** The processor already shows this payment complete; the webhook will record it. */
@@ -55,10 +39,8 @@ export async function openCheckout(
 
   for (let attempt = 0; attempt < 3; attempt++) {
     // libsql opens write transactions with BEGIN IMMEDIATE: two clicks at once find one row.
-    const { payment } = await withBusyRetry(() =>
-      db.transaction((tx) =>
-        getOrCreatePendingPayment(tx, { orderId: order.id, orgId: order.orgId, kind: input.kind, amountCents, currency: order.currency, createdById: input.userId }),
-      ),
+    const { payment } = await db.transaction((tx) =>
+      getOrCreatePendingPayment(tx, { orderId: order.id, orgId: order.orgId, kind: input.kind, amountCents, currency: order.currency, createdById: input.userId }),
     );
     if (payment.checkoutSessionId) {
       const session = await stripe.checkout.sessions.retrieve(payment.checkoutSessionId).catch((e: { statusCode?: number }) => {

@@ -36,9 +36,9 @@ export async function backupDatabase(opts: { url: string; dir: string; now?: Dat
   mkdirSync(opts.dir, { recursive: true });
   const file = path.join(path.resolve(opts.dir), backupName(opts.now ?? new Date()));
   const started = performance.now();
-  const client = createClient({ url: `file:${source}` });
+  // The client's own timeout covers every connection it opens (a PRAGMA would cover one).
+  const client = createClient({ url: `file:${source}`, timeout: 10_000 });
   try {
-    await client.execute("PRAGMA busy_timeout = 10000");
     await client.execute({ sql: "VACUUM INTO ?", args: [file] });
   } finally {
     client.close();

@@ -1,7 +1,6 @@
 /**
- * `npm run db:restore FILE`: replace the database with a backup. Stop the app (and the local
- * fakes, which write the outbox) first: a running server keeps its old file open and would go on
- * writing to the copy that was moved aside.
+ * `npm run db:restore FILE`: replace the database with a backup. Stop the app first: a running
+ * server keeps its old file open and would go on writing to the copy that was moved aside.
  *
  * The backup must pass `PRAGMA integrity_check` and hold the migrations table; the current
  * database (with its -wal/-shm files) is kept beside it as `<name>.before-restore-<timestamp>`;

@@ -36,7 +36,7 @@ async function all(db: Client, sql: string, args: (string | number)[] = []) {
  * upload exists.
  */
 export async function checkDatabase(dbUrl: string, dataDir: string, since = 0): Promise<CheckReport> {
-  const db = createClient({ url: dbUrl });
+  const db = createClient({ url: dbUrl, timeout: 10_000 });
   const problems: string[] = [];
   try {
     const integrity = (await all(db, "PRAGMA integrity_check")).map((r) => String(Object.values(r)[0])).join("; ");
@@ -97,11 +97,11 @@ export async function checkDatabase(dbUrl: string, dataDir: string, since = 0): 
 
 /** Before the servers start: grow the seed a little and set aside orders for each scenario. */
 export async function prepareFaultData(dbUrl: string, opts: { stageOrders: number; payOrders: number }): Promise<void> {
-  const seeded = createClient({ url: dbUrl });
+  const seeded = createClient({ url: dbUrl, timeout: 10_000 });
   const have = Number((await seeded.execute("SELECT count(*) AS n FROM orders")).rows[0]?.n ?? 0);
   seeded.close();
   await growOrders(dbUrl, have + opts.stageOrders + opts.payOrders);
-  const db = createClient({ url: dbUrl });
+  const db = createClient({ url: dbUrl, timeout: 10_000 });
   try {
     const grown = (await db.execute("SELECT r.id AS request_id, o.id AS order_id FROM requests r JOIN orders o ON o.request_id = r.id WHERE r.reference LIKE 'LW-H%' ORDER BY r.reference")).rows;
     const stage = grown.slice(0, opts.stageOrders);
@@ -137,7 +137,7 @@ export interface StageFaultFigures {
 
 /** Production moves orders forward stage by stage, many at once; the server is killed midway. */
 export async function stageChangeFault(stack: HardStack, opts: { killAfterMs: number; orders?: number }): Promise<StageFaultFigures> {
-  const db = createClient({ url: stack.dbUrl });
+  const db = createClient({ url: stack.dbUrl, timeout: 10_000 });
   const orders = (await db.execute("SELECT o.id FROM orders o JOIN requests r ON r.id = o.request_id WHERE r.stage = 'printing' AND r.reference LIKE 'LW-H%' ORDER BY r.reference LIMIT ?", [opts.orders ?? 1000])).rows.map((r) => String(r.id));
   db.close();
   const action = listActions(stack.distDir).find((a) => a.name === "moveStage" && a.file.includes("admin/production"));
@@ -193,7 +193,7 @@ async function fakeEvents(stack: HardStack) {
  */
 export async function webhookFault(stack: HardStack, opts: { killAfterMs: number; payments?: number }): Promise<WebhookFaultFigures> {
   const since = Date.now();
-  const db = createClient({ url: stack.dbUrl });
+  const db = createClient({ url: stack.dbUrl, timeout: 10_000 });
   const stripe = stripeFor(stack);
   const targets = (await db.execute("SELECT o.id AS order_id, o.org_id, o.deposit_cents, o.currency FROM orders o JOIN requests r ON r.id = o.request_id WHERE r.stage = 'accepted' AND r.reference LIKE 'LW-H%' ORDER BY r.reference LIMIT ?", [opts.payments ?? 1000])).rows;
   const sessions: string[] = [];

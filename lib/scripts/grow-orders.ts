@@ -55,9 +55,9 @@ function insert(table: string, row: Row) {
 /** Add orders until the database holds `total`; returns how many were added and the time taken. */
 export async function growOrders(url: string, total: number, now = new Date()): Promise<{ added: number; ms: number }> {
   const started = performance.now();
-  const db = createClient({ url });
+  // The client's own timeout covers every connection it opens, transactions' included.
+  const db = createClient({ url, timeout: 10_000 });
   try {
-    await db.execute("PRAGMA busy_timeout = 10000");
     const have = Number((await db.execute("SELECT count(*) AS n FROM orders")).rows[0]?.n ?? 0);
     const templates = await rows(db, "SELECT r.*, o.id AS _order_id FROM requests r JOIN orders o ON o.request_id = r.id ORDER BY r.reference");
     if (templates.length === 0) throw new Error("No seeded order to copy: seed the database first.");

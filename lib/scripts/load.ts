@@ -37,7 +37,7 @@ async function storeEstimateFile(dbUrl: string, dataDir: string, uploadsPort: nu
     acl: "private",
     fileHash: createHash("md5").update(bytes).digest("hex"),
   });
-  const db = createClient({ url: dbUrl });
+  const db = createClient({ url: dbUrl, timeout: 10_000 });
   try {
     const user = await db.execute("SELECT u.id, m.org_id FROM users u JOIN memberships m ON m.user_id = u.id WHERE u.email = 'lead@caldrith.example'");
     const id = randomUUID();

@@ -94,7 +94,7 @@ describe("back office journeys", () => {
 
 /** One value from the stack's database (the e2e stack runs on its own throwaway file). */
 async function sqlValue(sql: string, args: (string | number)[] = []): Promise<string> {
-  const db = createClient({ url: stack.dbUrl });
+  const db = createClient({ url: stack.dbUrl, timeout: 10_000 });
   try {
     return String((await db.execute({ sql, args })).rows[0]?.[0] ?? "");
   } finally {

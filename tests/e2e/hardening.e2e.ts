@@ -17,7 +17,7 @@ let db: Client;
 beforeAll(async () => {
   stack = await startStack();
   browser = await launchBrowser();
-  db = createClient({ url: stack.dbUrl });
+  db = createClient({ url: stack.dbUrl, timeout: 10_000 });
 }, 240_000);
 
 afterAll(async () => {

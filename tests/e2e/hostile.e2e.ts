@@ -28,7 +28,7 @@ const TRAVERSAL = ["../../etc/passwd", "..%2F..%2Fetc%2Fpasswd", "%2e%2e%2f%2e%2
 
 beforeAll(async () => {
   stack = await startStack();
-  db = createClient({ url: stack.dbUrl });
+  db = createClient({ url: stack.dbUrl, timeout: 10_000 });
   anon = new Session(stack.baseUrl);
   lead = new Session(stack.baseUrl);
   admin = new Session(stack.baseUrl);

@@ -13,7 +13,7 @@ let db: Client;
 beforeAll(async () => {
   stack = await startStack();
   browser = await launchBrowser();
-  db = createClient({ url: stack.dbUrl });
+  db = createClient({ url: stack.dbUrl, timeout: 10_000 });
 }, 180_000);
 
 afterAll(async () => {

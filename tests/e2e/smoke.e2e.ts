@@ -60,7 +60,7 @@ describe("smoke: every role lands on its own home", () => {
     await page.getByLabel("E-mail for a sign-in link").fill("buyer@bramblewake.example");
     await page.getByRole("button", { name: "E-mail me a sign-in link" }).click();
     await page.waitForURL(/check-email/);
-    const db = createClient({ url: stack.dbUrl });
+    const db = createClient({ url: stack.dbUrl, timeout: 10_000 });
     let html = "";
     for (let i = 0; i < 40 && !html; i++) {
       const r = await db.execute("SELECT html FROM email_outbox WHERE to_addresses LIKE '%buyer@bramblewake.example%' ORDER BY created_at DESC LIMIT 1");
@@ -89,7 +89,7 @@ describe("smoke: every role lands on its own home", () => {
     await page.getByLabel("E-mail for a sign-in link").fill("stranger@nowhere.example");
     await page.getByRole("button", { name: "E-mail me a sign-in link" }).click();
     await page.waitForURL(/check-email/);
-    const db = createClient({ url: stack.dbUrl });
+    const db = createClient({ url: stack.dbUrl, timeout: 10_000 });
     const r = await db.execute("SELECT count(*) AS n FROM email_outbox WHERE to_addresses LIKE '%stranger@nowhere.example%'");
     db.close();
     expect(Number(r.rows[0]?.n)).toBe(0);
@@ -134,7 +134,7 @@ describe("smoke: every role lands on its own home", () => {
     await signIn(page, stack.baseUrl, "engineer@caldrith.example", DEMO_PASSWORDS.client);
     const admin = await page.goto(`${stack.baseUrl}/admin`);
     expect(admin?.status()).toBe(403);
-    const db = createClient({ url: stack.dbUrl });
+    const db = createClient({ url: stack.dbUrl, timeout: 10_000 });
     const other = await db.execute(
       "SELECT r.id FROM requests r JOIN organisations o ON o.id = r.org_id WHERE o.slug = 'bramblewake-boatworks' LIMIT 1",
     );

@@ -12,8 +12,7 @@ let writer: Client;
 
 beforeAll(async () => {
   t = await createTestDb({ seeded: true, now: new Date("2026-12-01T12:00:00Z") });
-  writer = createClient({ url: t.url });
-  await writer.execute("PRAGMA busy_timeout = 5000");
+  writer = createClient({ url: t.url, timeout: 5000 });
 });
 afterAll(() => {
   writer?.close();
@@ -26,8 +25,7 @@ afterAll(() => {
  */
 const WRITER = `
 import { createClient } from "@libsql/client";
-const db = createClient({ url: process.env.DB_URL });
-await db.execute("PRAGMA busy_timeout = 5000");
+const db = createClient({ url: process.env.DB_URL, timeout: 5000 });
 let n = 0, stop = false;
 process.stdin.on("data", () => { stop = true; });
 process.stdin.resume();

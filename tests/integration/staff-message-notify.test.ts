@@ -30,9 +30,8 @@ beforeAll(async () => {
   dbRef.db = db;
   resend = await startResendFake({
     port: 0,
-    store: async (m) => {
-      await db.insert(emailOutbox).values({ providerId: m.id, fromAddress: m.from, toAddresses: m.to, subject: m.subject, html: m.html, text: m.text, tags: m.tags });
-    },
+    // The app writes what the e-mail API accepted to its own outbox.
+    store: () => {},
     log: () => {},
   });
   Object.assign(process.env, { RESEND_BASE_URL: resend.url, APP_URL: "http://app.test" });
