@@ -170,7 +170,7 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
           quantity: r.quantity ?? 1,
           units: r.units ?? "mm",
           unitsConfirmed: true,
-          printMode: r.shellWalls ? "shell" : "solid",
+          printMode: "shell",
           shellWalls: r.shellWalls ?? 2,
           cellKey: result.cell,
           createdAt: created,
@@ -343,7 +343,8 @@ function optionsOf(r: DemoRequest) {
     units: r.units ?? "mm",
     materialKey: r.material,
     allowanceMm: r.allowanceMm ?? defaultRateCard.defaultAllowanceMm,
-    shellWalls: r.shellWalls ?? null,
+    // shells by default, wall count from the allowance (as the portal asks for it)
+    printMode: "shell",
   } as const;
 }
 

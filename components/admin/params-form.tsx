@@ -12,7 +12,7 @@ const NUMBERS: Record<keyof typeof ACTIONS, NumberField[]> = { material: MATERIA
 const TEXTS: Record<keyof typeof ACTIONS, { name: string; label: string; long?: boolean; list?: boolean }[]> = {
   material: [{ name: "key", label: "Key" }, { name: "name", label: "Name" }, { name: "notes", label: "Notes", long: true }, { name: "source", label: "Source of the figures", long: true }],
   cell: [{ name: "key", label: "Key" }, { name: "name", label: "Name" }, { name: "beadWidthsMm", label: "Bead widths (mm, comma separated)", list: true }, { name: "layerHeightsMm", label: "Layer heights (mm, comma separated)", list: true }, { name: "holidays", label: "Closed dates (YYYY-MM-DD, comma separated)", list: true }],
-  rateCard: [{ name: "key", label: "Key" }, { name: "name", label: "Name" }, { name: "currency", label: "Currency" }, { name: "source", label: "Source of the figures", long: true }],
+  rateCard: [{ name: "key", label: "Key" }, { name: "name", label: "Name" }, { name: "currency", label: "Currency" }, { name: "plantTimeZone", label: "Plant time zone (IANA id)" }, { name: "holidays", label: "Plant closed dates (YYYY-MM-DD, comma separated)", list: true }, { name: "source", label: "Source of the figures", long: true }],
 };
 const DAYS = ["Sun", "Mon", "Tue", "Wed", "Thu", "Fri", "Sat"];
 

@@ -21,7 +21,8 @@ export function analysisOptionsFor(
     materialKey: part.materialKey,
     allowanceMm: part.allowanceMm,
     quantity: part.quantity,
-    shellWalls: part.printMode === "shell" ? part.shellWalls : null,
+    // A shell's wall count follows from the allowance and the bead (the portal does not ask for it).
+    printMode: part.printMode,
     ...(part.cellKey ? { cellKey: part.cellKey } : {}),
     ...(part.selectedBodies?.length ? { bodies: part.selectedBodies } : {}),
     ...(request.cureTempC !== null ? { cureTempC: request.cureTempC } : {}),

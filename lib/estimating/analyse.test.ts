@@ -12,7 +12,8 @@ const CLI_KEYS = ["format", "triangles", "units", "unitsGuessed", "bboxMm", "vol
 
 describe("analyse", () => {
   it("a box 1000×2000×500 mm: Steiner near-net volume 1.044894442e9 at 6.35 mm (checks.md) and a complete JSON result", async () => {
-    const r = await run(binaryStl(box(1000, 2000, 500)), "box.stl");
+    // solid: the deposited volume is the near-net volume
+    const r = await run(binaryStl(box(1000, 2000, 500)), "box.stl", { printMode: "solid" });
     for (const k of CLI_KEYS) expect(r).toHaveProperty(k);
     expect(r.nearNetVolumeMm3 / 1.044894442e9).toBeCloseTo(1, 7);
     expect(r.allowanceVolumeMm3).toBeCloseTo(r.nearNetVolumeMm3 - 1e9, 0);
@@ -30,9 +31,11 @@ describe("analyse", () => {
     expect(r.depositCents).toBe(Math.round(r.totalCents / 2));
   });
 
-  it("the lowest build that fits is chosen, and every cell reports its margin", async () => {
+  it("the search picks the cheapest printable candidate, and every cell reports its margin", async () => {
     const r = await run(binaryStl(box(1000, 2000, 500)), "box.stl");
-    expect(r.orientation.up).toBe("z");
+    expect(r.status).toBe("priced");
+    expect(r.orientationChosenBy).toBe("cost");
+    for (const a of r.alternatives) expect(a.totalCents).toBeGreaterThanOrEqual(r.totalCents);
     expect(r.fits).toHaveLength(3);
     const compact = r.fits.find((f) => f.cell === "compact")!;
     // grown 1012.7 × 2012.7 × 512.7 in 1800 × 3000 × 1200: margin min(787.3, 987.3, 687.3)

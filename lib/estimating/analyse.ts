@@ -1,21 +1,23 @@
+import { steinerVolume } from "./grow";
+import { planMachining } from "./machining";
 import { downsampleLayers } from "./plan";
 import { chooseStage } from "./stages/choose";
 import { measureStage } from "./stages/measure";
-import { planStage } from "./stages/plan";
-import { priceStage } from "./stages/price";
+import { cellPrintRate } from "./stages/price";
 import { readStage, resolveOptions } from "./stages/read";
-import { scheduleStage } from "./stages/schedule";
-import { sliceStage } from "./stages/slice";
 import type { ReadModelResult } from "./read-model";
+import { plantOf } from "./stages/schedule";
 import { materialWarnings } from "./warnings";
-import type { Axis, CellParams, EstimateResult, EstimateWarning, LengthUnit, MaterialParams, Orientation, RateCardParams } from "./types";
+import type { Axis, CellParams, EstimateResult, EstimateWarning, LengthUnit, MaterialParams, Orientation, PrintMode, RateCardParams } from "./types";
 
 export interface AnalyseOptions {
   units?: LengthUnit;
   materialKey?: string;
   allowanceMm?: number;
   cellKey?: string;
-  /** null/undefined = solid print; N = N walls along the contour. */
+  /** "shell" (the default: walls, internal ribs, skins) or "solid". */
+  printMode?: PrintMode;
+  /** Shell wall count set by hand; null/undefined = from the finish allowance and the bead. A number with no printMode means a shell. */
   shellWalls?: number | null;
   /** File axis that points up, or a full orientation; default: the lowest build that fits. */
   orientation?: Axis | Orientation;
@@ -51,17 +53,20 @@ export type ProgressFn = (fraction: number, stage: string) => void;
 const r2 = (v: number) => Math.round(v * 100) / 100;
 const r4 = (v: number) => Math.round(v * 1e4) / 1e4;
 
+/** Shell figures for a rate card saved before shells were planned (same values as the seed's). */
+export const SHELL_FALLBACKS = { shellNetWallMm: 12.7, ribSpacingMm: 400, ribBeads: 1, skinLayers: 3, maxBridgeMm: 60 };
+
 /**
- * The whole estimate of one part, stage by stage (`stages/`): read, measure, choose (cell and
- * orientation), slice, plan (layers, material, machining), price, schedule. Pure: every input
- * is passed in, `now` included.
+ * The whole estimate of one part, stage by stage (`stages/`): read, measure, choose (the
+ * candidate search, which slices, plans, prices and dates each candidate), then the result.
+ * Pure: every input is passed in, `now` included.
  */
 export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () => {}): Promise<EstimateResult> {
   const { options: o, catalogue: cat } = input;
   const card = cat.rateCard;
   const warnings: EstimateWarning[] = [];
   const cautions: string[] = [];
-  const { material, allowanceMm: t, shellWalls: walls, quantity } = resolveOptions(input);
+  const { material, allowanceMm: t, shellWalls: wallsOverride, quantity, printMode } = resolveOptions(input);
 
   onProgress(0.02, "reading");
   const read = await readStage(input, warnings);
@@ -71,28 +76,34 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
   const ms = measureStage(mesh, t, o.weldToleranceMm, warnings);
   const { m, netSize } = ms;
   const volume = ms.volumeMm3, M = ms.meanCurvatureMm;
+  const nearNet = steinerVolume(volume, m.areaMm2, M, t);
+  const mach = planMachining(nearNet - volume, m.areaMm2, card);
 
   onProgress(0.4, "fitting");
-  const choice = chooseStage(ms, cat.cells, material, t, { cellKey: o.cellKey, orientation: o.orientation }, warnings);
-  const { cell, orientation, chosenBy, fits, fitsAny, split } = choice;
-
+  const rules = {
+    shellNetWallMm: card.shellNetWallMm ?? SHELL_FALLBACKS.shellNetWallMm, ribSpacingMm: card.ribSpacingMm ?? SHELL_FALLBACKS.ribSpacingMm,
+    ribBeads: card.ribBeads ?? SHELL_FALLBACKS.ribBeads, skinLayers: card.skinLayers ?? SHELL_FALLBACKS.skinLayers, maxBridgeMm: card.maxBridgeMm ?? SHELL_FALLBACKS.maxBridgeMm,
+  };
+  const plant = plantOf(card);
+  const orientation: Orientation | undefined = o.orientation ? (typeof o.orientation === "string" ? { up: o.orientation, swapped: false } : o.orientation) : undefined;
   onProgress(0.5, "slicing");
-  // the mesh is not needed in file space after this: turned in place, not copied
-  const sec = sliceStage(mesh, ms, orientation, cell.defaultLayerHeightMm, t, { turnInPlace: true });
-  const { z0, layerCount } = sec;
-  const h = sec.layerHeightMm, w = cell.defaultBeadWidthMm;
-  const slicedVolume = sec.slicedVolumeMm3;
-
+  const choice = chooseStage({
+    mesh, ms, cells: cat.cells, material, card, rules, plant, allowanceMm: t, quantity, printMode, wallsOverride,
+    cellKey: o.cellKey, orientation, queue: input.queue ?? {}, now: input.now,
+    priceOptions: { sealingCoat: o.sealingCoat, vacuumTest: o.vacuumTest }, machining: mach,
+  }, warnings);
+  const c = choice.chosen, bp = c.bp, cell = c.cell, plan = bp.layers, pr = c.pricing, sched = c.schedule;
+  const h = bp.layerHeightMm, w = bp.beadWidthMm, z0 = c.sections.z0, layerCount = c.sections.layerCount;
   onProgress(0.75, "planning");
-  const bp = planStage(ms, sec, cell, material, card, t, walls, warnings);
-  const plan = bp.layers, mach = bp.machining;
-  const nearNet = bp.nearNetMm3, allowanceVolume = bp.allowanceVolumeMm3;
-  const { depositedKg, scrapKg, massKg, partMassKg, printHours, dwellHours, coolingHours } = bp;
-
   onProgress(0.9, "pricing");
-  const pr = priceStage(ms, bp, material, card, quantity, { sealingCoat: o.sealingCoat, vacuumTest: o.vacuumTest });
+
+  if (plan.extruderLimited) warnings.push({ code: "extruder-limited", message: `The ${cell.name} extruder cannot feed this bead at the cell's minimum speed; deposition is capped at its output.` });
+  if (bp.flaggedLayers > 0) {
+    warnings.push({ code: "layers-too-long", message: `${bp.flaggedLayers} layers take longer than the ${material.maxLayerTimeS} s cooling window of ${material.name}: the layer below cools too far and may bond poorly. The search tried shell walls, every bead/layer preset and cell; the bureau's engineer will plan a split or interlayer heating.` });
+  }
+  const { depositedKg, scrapKg, massKg, partMassKg, printHours, dwellHours, coolingHours } = bp;
+  const allowanceVolume = bp.allowanceVolumeMm3;
   const queueHours = input.queue?.[cell.key] ?? 0;
-  const sched = scheduleStage(input.now, cell, card, bp, quantity, queueHours);
   const validUntil = new Date(input.now.getTime() + card.quoteValidityDays * 86_400_000).toISOString().slice(0, 10);
 
   warnings.push(...materialWarnings(material, { cureTempC: o.cureTempC, partCtePpmPerK: o.partCtePpmPerK }));
@@ -104,6 +115,9 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
   if (o.cureTempC !== undefined && o.cureTempC > material.maxServiceTempC) {
     cautions.push(`A mold used above its material's service temperature (${material.maxServiceTempC} °C for ${material.name}) can deform or fail under autoclave pressure; the customer's own engineering sign-off decides its use.`);
   }
+  const fits = choice.fits, fitsAny = choice.fitsAny, split = choice.split, chosenBy = choice.orientationChosenBy;
+  const slicedVolume = c.sections.slicedVolumeMm3;
+  const walls = bp.shellWalls;
 
   onProgress(1, "done");
   const chart = downsampleLayers(z0, h, plan);
@@ -132,7 +146,7 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
     nearNetVolumeMm3: nearNet,
     allowanceVolumeMm3: allowanceVolume,
     slicedVolumeMm3: slicedVolume,
-    orientation,
+    orientation: c.orientation,
     orientationChosenBy: chosenBy,
     fits: fits.map((f) => ({ ...f, marginMm: r2(f.marginMm), marginChosenMm: r2(f.marginChosenMm), buildHeightMm: r2(f.buildHeightMm) })),
     fitsAny,
@@ -143,9 +157,9 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
     shellWalls: walls,
     speedMmS: r2(plan.speedMmS),
     layers: layerCount,
-    flaggedLayers: plan.flaggedCount,
-    printHours: r4(printHours * quantity),
-    dwellHours: r4(dwellHours * quantity),
+    flaggedLayers: bp.flaggedLayers,
+    printHours: r4(printHours),
+    dwellHours: r4(dwellHours),
     coolingHours: r4(coolingHours),
     layerChart: chart,
     material: {
@@ -154,10 +168,10 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
       cteAlongPpmPerK: material.cteAlongPpmPerK, cteAcrossPpmPerK: material.cteAcrossPpmPerK,
       minLayerTimeS: material.minLayerTimeS, maxLayerTimeS: material.maxLayerTimeS,
     },
-    depositedKg: r4(depositedKg * quantity),
+    depositedKg: r4(depositedKg),
     purgeKg: card.purgeKg,
-    scrapKg: r4(scrapKg * quantity),
-    massKg: r4(massKg * quantity),
+    scrapKg: r4(scrapKg),
+    massKg: r4(massKg),
     partMassKg: r4(partMassKg),
     liftingCaution,
     machining: {
@@ -181,9 +195,22 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
       coolingEnd: sched.coolingEnd.toISOString(),
       machiningEnd: sched.machiningEnd.toISOString(),
       shipDate: sched.shipDate,
+      setupStart: sched.setupStart.toISOString(),
+      printContinuous: true,
+      timeZone: plant.timeZone,
     },
     shipDate: sched.shipDate,
     warnings,
     cautions,
+    status: c.status,
+    reviewReasons: choice.reviewReasons,
+    printMode: bp.printMode,
+    shell: bp.shell,
+    meanSpeedMmS: r2(plan.meanSpeedMmS),
+    printRateCentsPerH: cellPrintRate(cell, card),
+    batch: { partsPerBuild: bp.partsPerBuild, builds: bp.builds },
+    alternatives: choice.alternatives,
+    remedies: choice.remedies,
+    candidatesPlanned: choice.candidatesPlanned,
   };
 }

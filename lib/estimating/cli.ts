@@ -9,11 +9,11 @@ import type { CellParams, EstimateResult, MaterialParams, RateCardParams } from 
 
 /**
  * npm run estimate -- FILE [--units mm|in] [--material KEY] [--allowance MM] [--cell KEY]
- *   [--shell-walls N] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--tolerance MM] [--bodies 0,2,…] [--json]
+ *   [--shell-walls N] [--solid] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--tolerance MM] [--bodies 0,2,…] [--json]
  *   (--tolerance and --bodies apply to STEP/IGES files)
  * Exit 0 on success, 2 on a bad file or option (one plain line on stderr), 1 on anything else.
  */
-const USAGE = "usage: npm run estimate -- FILE [--units mm|in] [--material KEY] [--allowance MM] [--cell KEY] [--shell-walls N] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--tolerance MM] [--bodies 0,2,…] [--json]";
+const USAGE = "usage: npm run estimate -- FILE [--units mm|in] [--material KEY] [--allowance MM] [--cell KEY] [--shell-walls N] [--solid] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--tolerance MM] [--bodies 0,2,…] [--json]";
 
 interface Catalogue { materials: MaterialParams[]; cells: CellParams[]; rateCard: RateCardParams; source: string }
 
@@ -64,7 +64,11 @@ function human(r: EstimateResult, source: string): string {
   L.push("  fit:");
   for (const c of r.fits) L.push(`    ${c.cellName.padEnd(12)} ${c.fits ? "fits" : "does not fit"} (margin ${f(c.marginMm)} mm, build height ${f(c.buildHeightMm)} mm)`);
   if (r.split) L.push(`  split: ${r.split.pieces} pieces along ${r.split.axis} of ${f(r.split.pieceLengthMm)} mm for ${r.split.cell}`);
-  L.push(`  print on ${r.cell}: ${r.layers} layers of ${r.layerHeightMm} mm, bead ${r.beadWidthMm} mm${r.shellWalls ? `, ${r.shellWalls} walls` : ", solid"}, ${f(r.speedMmS)} mm/s`);
+  L.push(`  status: ${r.status === "priced" ? "priced (a printable plan)" : "NEEDS REVIEW by the bureau's engineer (the total is an indicative figure for staff)"}`);
+  for (const x of r.reviewReasons) L.push(`    review: ${x.message}`);
+  const sh = r.shell;
+  L.push(`  print on ${r.cell} (${money(r.printRateCentsPerH)}/h): ${r.layers} layers of ${r.layerHeightMm} mm, bead ${r.beadWidthMm} mm, ${sh ? `shell of ${sh.walls} walls (${f(sh.wallThicknessMm)} mm), ribs every ${f(sh.ribSpacingMm)} mm, ${sh.skinLayers}-layer skins, tops ${sh.bridging === "direct" ? "bridged directly" : "on support ribs"}` : "solid"}; ${f(r.meanSpeedMmS)} mm/s mean of ${f(r.speedMmS)} programmed`);
+  if (r.batch.partsPerBuild > 1) L.push(`    ${r.batch.partsPerBuild} parts side by side per build, ${r.batch.builds} build(s)`);
   L.push(`    ${f(r.printHours, 2)} h printing, ${f(r.dwellHours, 2)} h dwell, ${r.flaggedLayers} layers over the cooling window, ${f(r.coolingHours, 1)} h cooling`);
   L.push(`  material ${r.material.name}: ${f(r.massKg, 1)} kg incl. purge and scrap; machined part ≈ ${f(r.partMassKg, 1)} kg (${f(r.partMassKg / 0.45359237, 1)} lb)`);
   L.push(`  machining ${f(r.machiningHours, 2)} h (roughing ${f(r.machining.roughingHours, 2)}, finishing ${f(r.machining.finishingHours, 2)} at ${f(r.machining.stepoverMm, 3)} mm stepover)`);
@@ -74,7 +78,11 @@ function human(r: EstimateResult, source: string): string {
   L.push(`    ${"Tax".padEnd(48)} ${money(r.taxCents).padStart(14)}`);
   L.push(`    ${"Total".padEnd(48)} ${money(r.totalCents).padStart(14)}`);
   L.push(`    ${"Deposit".padEnd(48)} ${money(r.depositCents).padStart(14)}`);
+  L.push(`  schedule (${r.schedule.timeZone}): set-up from ${r.schedule.setupStart}, printing straight through ${r.schedule.printStart} → ${r.schedule.printEnd}, machined by ${r.schedule.machiningEnd}`);
   L.push(`  earliest ship date ${r.shipDate}; estimate valid until ${r.validUntil}`);
+  L.push(`  candidates planned: ${r.candidatesPlanned}; best of each cell:`);
+  for (const a of r.alternatives) L.push(`    ${a.cellName.padEnd(12)} ${f(a.printHours + a.dwellHours, 1).padStart(7)} h ${money(a.totalCents).padStart(14)}  ships ${a.shipDate}  ${a.status === "priced" ? "" : "(review) "}${a.whyNot || "chosen"}`);
+  for (const x of r.remedies) L.push(`  tried: ${x.tried} → ${x.result}`);
   for (const w of r.warnings) L.push(`  warning: ${w.message}`);
   for (const c of r.cautions) L.push(`  caution: ${c}`);
   return L.join("\n");
@@ -87,7 +95,7 @@ async function main(): Promise<number> {
       allowPositionals: true,
       options: {
         units: { type: "string" }, material: { type: "string" }, allowance: { type: "string" }, cell: { type: "string" },
-        "shell-walls": { type: "string" }, orientation: { type: "string" }, quantity: { type: "string" }, "cure-temp": { type: "string" },
+        "shell-walls": { type: "string" }, solid: { type: "boolean" }, orientation: { type: "string" }, quantity: { type: "string" }, "cure-temp": { type: "string" },
         tolerance: { type: "string" }, bodies: { type: "string" },
         json: { type: "boolean" }, help: { type: "boolean" },
       },
@@ -101,6 +109,7 @@ async function main(): Promise<number> {
   const file = positionals[0];
   try {
     if (!file || positionals.length > 1) throw new EstimateInputError("cli:usage", USAGE);
+    if (v.solid && v["shell-walls"] !== undefined) throw new EstimateInputError("option:print-mode", "--solid and --shell-walls do not go together.");
     if (v.units !== undefined && v.units !== "mm" && v.units !== "in") throw new EstimateInputError("option:units", "--units must be mm or in.");
     if (v.orientation !== undefined && !["x", "y", "z"].includes(v.orientation)) throw new EstimateInputError("option:orientation", "--orientation must be x, y or z (the file axis that points up).");
     const cat = await loadCatalogue();
@@ -110,6 +119,7 @@ async function main(): Promise<number> {
       read, fileName: basename(file),
       options: {
         units: v.units as "mm" | "in" | undefined, materialKey: v.material, allowanceMm: num(v.allowance, "allowance"), cellKey: v.cell,
+        printMode: v.solid ? "solid" : "shell",
         shellWalls: num(v["shell-walls"], "shell-walls") ?? null, orientation: v.orientation as "x" | "y" | "z" | undefined,
         quantity: num(v.quantity, "quantity"), cureTempC: num(v["cure-temp"], "cure-temp"),
         toleranceMm: num(v.tolerance, "tolerance"),

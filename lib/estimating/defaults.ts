@@ -10,6 +10,10 @@ import type { CellParams, MaterialParams, RateCardParams, WorkingCalendar } from
 
 const weekdaysTwoShifts: WorkingCalendar = { workingWeekdays: [1, 2, 3, 4, 5], shiftsPerDay: 2, hoursPerShift: 8, holidays: [] };
 
+// Hourly print rates per cell: demo figures of the invented bureau (a larger cell costs more an
+// hour and lays more per hour). Head accelerations: a few hundred to about 1000 mm/s² on large
+// gantries (memory, not read in a source); a lighter gantry accelerates harder.
+
 export const defaultCells: CellParams[] = [
   {
     key: "long-bed", name: "Long Bed",
@@ -21,6 +25,8 @@ export const defaultCells: CellParams[] = [
     speedMinMmS: 30, speedMaxMmS: 250,
     canPrintVertical: false,
     calendar: weekdaysTwoShifts,
+    printRateCentsPerH: 24_000,
+    accelerationMmS2: 400,
   },
   {
     key: "tall-frame", name: "Tall Frame",
@@ -31,6 +37,8 @@ export const defaultCells: CellParams[] = [
     speedMinMmS: 30, speedMaxMmS: 200,
     canPrintVertical: true,
     calendar: weekdaysTwoShifts,
+    printRateCentsPerH: 19_500,
+    accelerationMmS2: 500,
   },
   {
     key: "compact", name: "Compact",
@@ -41,6 +49,8 @@ export const defaultCells: CellParams[] = [
     speedMinMmS: 30, speedMaxMmS: 200,
     canPrintVertical: false,
     calendar: weekdaysTwoShifts,
+    printRateCentsPerH: 14_500,
+    accelerationMmS2: 800,
   },
 ];
 
@@ -147,5 +157,9 @@ export const defaultRateCard: RateCardParams = {
   coolingHoursBase: 4, coolingHoursPerKg: 0.02, coolingHoursMax: 48,
   finishingDays: 2, inspectionDays: 1, packingDays: 1,
   liftingCautionKg: 23,
-  source: "rates, fees and times: demo values of the invented bureau; deposit half up front, 0.25 in allowance, 5–10 % stepover: common practice (checks.md); lifting caution at 23 kg: the load constant of the NIOSH revised lifting equation (memory)",
+  printSetupHours: 2,
+  shellNetWallMm: 12.7, ribSpacingMm: 400, ribBeads: 1, skinLayers: 3, maxBridgeMm: 60,
+  plantTimeZone: "CST6CDT", shiftStartHour: 6,
+  holidays: ["2026-12-24", "2026-12-25", "2026-12-31", "2027-01-01", "2027-05-31", "2027-07-05", "2027-09-06", "2027-11-25", "2027-11-26", "2027-12-24"],
+  source: "rates, fees and times: demo values of the invented bureau; deposit half up front, 0.25 in allowance, 5–10 % stepover: common practice (checks.md); lifting caution at 23 kg: the load constant of the NIOSH revised lifting equation (memory); shell net wall 12.7 mm (0.5 in) after machining: common practice; rib grid 400 mm, one bead wide, 3-layer skins: demo values; a bead bridges about 3 bead widths (60 mm) unsupported: memory; plant zone, 06:00 shift start and closed dates: demo",
 };

@@ -9,8 +9,37 @@ export interface LayerPlanInput {
   beadWidthMm: number;
   /** null = solid print (area ÷ bead width); N = N walls along the contour. */
   shellWalls: number | null;
-  cell: Pick<CellParams, "speedMinMmS" | "speedMaxMmS" | "extruderOutputKgPerH">;
+  cell: Pick<CellParams, "speedMinMmS" | "speedMaxMmS" | "extruderOutputKgPerH" | "accelerationMmS2">;
   material: Pick<MaterialParams, "densityGPerCm3" | "minLayerTimeS" | "maxLayerTimeS">;
+  /** Shell build with ribs and skins; when absent a shell is walls only (path = walls × contour). */
+  shell?: ShellSpec;
+  /** Straight pieces of each layer's contour (from the slicer); with an acceleration, the mean speed follows from them. */
+  segments?: Uint32Array;
+  /** Parts laid side by side in each layer (default 1). */
+  copies?: number;
+}
+
+/** A thin-walled shell: walls along the contour, a rib grid inside, solid skins where the part has tops and bottoms. */
+export interface ShellSpec {
+  ribSpacingMm: number;
+  ribBeads: number;
+  /** Skin area per layer (exposed top or bottom within the skin depth), mm². */
+  skinMm2: Float64Array;
+  /** Area under a flat top that needs support ribs at `supportSpacingMm`, per layer, mm². */
+  supportMm2: Float64Array;
+  supportSpacingMm: number;
+}
+
+/**
+ * Time to lay `n` straight segments of length ℓ at programmed speed v with acceleration a, each
+ * starting and ending at rest at its corners: trapezoidal profile ℓ/v + v/a when ℓ ≥ v²/a,
+ * else triangular 2√(ℓ/a) (kinematics of uniform acceleration; common practice for motion
+ * planning estimates).
+ */
+export function segmentTimeS(lengthMm: number, n: number, vMmS: number, aMmS2: number | undefined): number {
+  if (n <= 0 || lengthMm <= 0) return 0;
+  if (!aMmS2 || aMmS2 <= 0) return (n * lengthMm) / vMmS;
+  return n * (lengthMm >= (vMmS * vMmS) / aMmS2 ? lengthMm / vMmS + vMmS / aMmS2 : 2 * Math.sqrt(lengthMm / aMmS2));
 }
 
 export interface LayerPlan {
@@ -28,6 +57,8 @@ export interface LayerPlan {
   dwellTotalS: number;
   flaggedCount: number;
   depositedMm3: number;
+  /** Mean laying speed over the whole path (deposition time only), mm/s. */
+  meanSpeedMmS: number;
 }
 
 /**
@@ -51,12 +82,43 @@ export function planLayers(inp: LayerPlanInput): LayerPlan {
   const flagged = new Uint8Array(n);
   let printS = 0, dwellTotal = 0, flaggedCount = 0, dep = 0;
   const minT = material.minLayerTimeS, maxT = material.maxLayerTimeS;
+  const acc = cell.accelerationMmS2, copies = Math.max(1, inp.copies ?? 1), sh = inp.shell, seg = inp.segments;
+  let layTotal = 0, pathTotal = 0;
   for (let k = 0; k < n; k++) {
     const a = Math.max(0, inp.areaMm2[k]!), per = Math.max(0, inp.perimeterMm[k]!);
-    const path = inp.shellWalls === null ? a / w : Math.min(per * inp.shellWalls, a / w);
+    const solidPath = a / w;
+    let path: number, tLay: number;
+    const raster = (area: number) => segmentTimeS(Math.max(w, Math.sqrt(area)), area / w / Math.max(w, Math.sqrt(area)), v, acc);
+    const walls = (count: number) => {
+      const nSeg = Math.max(1, seg?.[k] ?? 1);
+      return segmentTimeS(per / nSeg, nSeg * count, v, acc);
+    };
+    if (inp.shellWalls === null) {
+      path = solidPath; tLay = raster(a);
+    } else if (!sh) {
+      path = Math.min(per * inp.shellWalls, solidPath);
+      tLay = path < solidPath ? walls(inp.shellWalls) : raster(a);
+    } else {
+      const wallPath = per * inp.shellWalls;
+      const skin = Math.min(a, sh.skinMm2[k] ?? 0);
+      const inner = Math.max(0, a - wallPath * w - skin);
+      const support = Math.min(inner, sh.supportMm2[k] ?? 0);
+      const ribLines = sh.ribBeads * (2 * (inner - support) / sh.ribSpacingMm + 2 * support / sh.supportSpacingMm);
+      const shellPath = wallPath + ribLines + skin / w;
+      if (shellPath >= solidPath) { path = solidPath; tLay = raster(a); }
+      else {
+        path = shellPath;
+        const ribLen = Math.max(w, Math.sqrt(inner));
+        tLay = walls(inp.shellWalls) + segmentTimeS(ribLen, ribLines / ribLen, v, acc) + raster(skin);
+      }
+    }
+    // the mean speed stays inside the cell's range
+    tLay = Math.min(Math.max(tLay, path / v), path / vMin);
+    path *= copies; tLay *= copies;
     pathMm[k] = path;
     dep += path * w * h;
-    let t = path / v;
+    layTotal += tLay; pathTotal += path;
+    let t = tLay;
     let dwell = 0;
     if (t < minT) {
       const tSlow = path / vMin; // slowest allowed
@@ -68,7 +130,7 @@ export function planLayers(inp: LayerPlanInput): LayerPlan {
     timeS[k] = t; dwellS[k] = dwell;
     printS += t; dwellTotal += dwell;
   }
-  return { speedMmS: v, extruderLimited, timeS, dwellS, flagged, pathMm, printS, dwellTotalS: dwellTotal, flaggedCount, depositedMm3: dep };
+  return { speedMmS: v, extruderLimited, timeS, dwellS, flagged, pathMm, printS, dwellTotalS: dwellTotal, flaggedCount, depositedMm3: dep, meanSpeedMmS: layTotal > 0 ? pathTotal / layTotal : v };
 }
 
 /** Per-layer series reduced to at most `maxPoints` buckets: mean time and dwell, flagged if any layer is. */

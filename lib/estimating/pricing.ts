@@ -6,6 +6,8 @@ export interface PricingInput {
   massKg: number;
   materialPricePerKgCents: number;
   printHours: number;
+  /** The cell's hourly print rate; the rate card's when absent. */
+  printRateCentsPerH?: number;
   dwellHours: number;
   machiningHours: number;
   netAreaMm2: number;
@@ -39,7 +41,7 @@ export function price(inp: PricingInput, card: RateCardParams): Pricing {
   const crateM3 = (inp.crateSizeMm[0] * inp.crateSizeMm[1] * inp.crateSizeMm[2]) / 1e9;
   const lines: CostLine[] = [
     line("material", "Material (deposited, purge and start-up scrap)", inp.massKg * q, "kg", inp.materialPricePerKgCents),
-    line("print", "Printing cell time", inp.printHours * q, "h", card.printRateCentsPerH),
+    line("print", "Printing cell time", inp.printHours * q, "h", inp.printRateCentsPerH ?? card.printRateCentsPerH),
     line("dwell", "Cooling dwell between layers", inp.dwellHours * q, "h", card.dwellRateCentsPerH),
     line("machining", "CNC machining to net shape", inp.machiningHours * q, "h", card.machiningRateCentsPerH),
     line("engineering", "Engineering and build planning", card.engineeringHoursPerPart, "h", card.engineeringRateCentsPerH),

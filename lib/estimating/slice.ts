@@ -16,19 +16,30 @@ export interface Sections {
   area: Float64Array;
   /** Contour length at each plane, mm. */
   perimeter: Float64Array;
+  /** Cut segments at each plane (the section's contour is made of this many straight pieces). */
+  segments: Uint32Array;
 }
 
-export function slice(p: Float32Array, n: number, z0: number, h: number, count: number): Sections {
+/**
+ * Which coordinates play plan-a, plan-b and height for each up axis: a cyclic permutation, so
+ * the frame is a proper rotation (windings and areas keep their sign) and no rotated copy of the
+ * triangles is needed.
+ */
+const AXIS_OFFSETS = { z: [0, 1, 2], y: [2, 0, 1], x: [1, 2, 0] } as const;
+
+export function slice(p: Float32Array, n: number, z0: number, h: number, count: number, up: "x" | "y" | "z" = "z"): Sections {
+  const [ia, ib, ic] = AXIS_OFFSETS[up];
   const area = new Float64Array(count);
   const perimeter = new Float64Array(count);
+  const segments = new Uint32Array(count);
   const first = new Int32Array(n);
   const last = new Int32Array(n);
   const bucket = new Uint32Array(count + 1);
   // x–y origin for the shoelace sums (precision)
   let ox = 0, oy = 0;
-  if (n > 0) { ox = p[0]!; oy = p[1]!; }
+  if (n > 0) { ox = p[ia]!; oy = p[ib]!; }
   for (let t = 0, b = 0; t < n; t++, b += 9) {
-    const za = p[b + 2]!, zb = p[b + 5]!, zc = p[b + 8]!;
+    const za = p[b + ic]!, zb = p[b + 3 + ic]!, zc = p[b + 6 + ic]!;
     const lo = za < zb ? (za < zc ? za : zc) : (zb < zc ? zb : zc);
     const hi = za > zb ? (za > zc ? za : zc) : (zb > zc ? zb : zc);
     // A corner on a plane counts as above it (d >= 0 below), so the triangle is cut by the
@@ -52,15 +63,15 @@ export function slice(p: Float32Array, n: number, z0: number, h: number, count: 
   for (let k = 0; k < count; k++) {
     for (let i = bucket[k]!, e = bucket[k + 1]!; i < e; i++) active[na++] = order[i]!;
     const zp = z0 + (k + 0.5) * h;
-    let a2 = 0, per = 0;
+    let a2 = 0, per = 0, cuts = 0;
     for (let i = 0; i < na; ) {
       const t = active[i]!;
       if (last[t]! < k) { active[i] = active[--na]!; continue; }
       i++;
       const b = t * 9;
-      const x1 = p[b]! - ox, y1 = p[b + 1]! - oy, d1 = p[b + 2]! - zp;
-      const x2 = p[b + 3]! - ox, y2 = p[b + 4]! - oy, d2 = p[b + 5]! - zp;
-      const x3 = p[b + 6]! - ox, y3 = p[b + 7]! - oy, d3 = p[b + 8]! - zp;
+      const x1 = p[b + ia]! - ox, y1 = p[b + ib]! - oy, d1 = p[b + ic]! - zp;
+      const x2 = p[b + 3 + ia]! - ox, y2 = p[b + 3 + ib]! - oy, d2 = p[b + 3 + ic]! - zp;
+      const x3 = p[b + 6 + ia]! - ox, y3 = p[b + 6 + ib]! - oy, d3 = p[b + 6 + ic]! - zp;
       const u1 = d1 >= 0, u2 = d2 >= 0, u3 = d3 >= 0;
       // the two edges whose ends lie on opposite sides
       let px = 0, py = 0, qx = 0, qy = 0, got = 0;
@@ -78,9 +89,11 @@ export function slice(p: Float32Array, n: number, z0: number, h: number, count: 
       if (dx * -ny + dy * nx < 0) { const tx = px, ty = py; px = qx; py = qy; qx = tx; qy = ty; dx = -dx; dy = -dy; }
       a2 += px * qy - qx * py;
       per += Math.sqrt(dx * dx + dy * dy);
+      cuts++;
     }
     area[k] = a2 / 2;
     perimeter[k] = per;
+    segments[k] = cuts;
   }
-  return { z0, layerHeight: h, count, area, perimeter };
+  return { z0, layerHeight: h, count, area, perimeter, segments };
 }

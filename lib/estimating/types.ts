@@ -64,6 +64,10 @@ export interface CellParams {
   speedMaxMmS: number;
   canPrintVertical: boolean;
   calendar: WorkingCalendar;
+  /** Cell time while depositing, per hour (each cell bills its own rate; older rows fall back to the rate card's). */
+  printRateCentsPerH?: number;
+  /** Head acceleration along the path, mm/s² (corners and short segments slow down). */
+  accelerationMmS2?: number;
 }
 
 /**
@@ -129,6 +133,23 @@ export interface RateCardParams {
   packingDays: number;
   /** Mass above which the lifting caution is shown, kg. */
   liftingCautionKg: number;
+  /** Cell set-up before the first layer (bed, purge, program check), working hours on shifts. */
+  printSetupHours?: number;
+  /** Shells: net wall left after machining, mm; the printed wall holds this plus the allowance. */
+  shellNetWallMm?: number;
+  /** Shells: internal rib grid spacing, mm, and rib width in beads. */
+  ribSpacingMm?: number;
+  ribBeads?: number;
+  /** Shells: solid layers in each top and bottom skin. */
+  skinLayers?: number;
+  /** Longest span a bead bridges unsupported, mm (a flat top over ribs wider than this needs support ribs). */
+  maxBridgeMm?: number;
+  /** The plant's time zone (an IANA zone id) in which shifts and dates are counted. */
+  plantTimeZone?: string;
+  /** Local hour the first shift starts. */
+  shiftStartHour?: number;
+  /** Dates (YYYY-MM-DD, plant time) the whole bureau is closed, added to each cell's own. */
+  holidays?: string[];
   /** Where the figures come from. */
   source: string;
 }
@@ -214,7 +235,8 @@ export interface EstimateResult {
   /** Σ grown layer section areas × layer height before the sections are rescaled to the Steiner volume (see analyse.ts), for comparison. */
   slicedVolumeMm3: number;
   orientation: Orientation;
-  orientationChosenBy: "user" | "min-height";
+  /** "user": forced; "cost": the candidate search's pick ("min-height" in estimates made before the search). */
+  orientationChosenBy: "user" | "min-height" | "cost";
   fits: CellFit[];
   fitsAny: boolean;
   split: SplitSuggestion | null;
@@ -273,8 +295,76 @@ export interface EstimateResult {
     coolingEnd: string;
     machiningEnd: string;
     shipDate: string;
+    /** Set-up on shifts before the first layer. */
+    setupStart: string;
+    /** Printing runs on calendar time: deposition and dwell only, from printStart to printEnd. */
+    printContinuous: true;
+    timeZone: string;
   };
   shipDate: string;
   warnings: EstimateWarning[];
   cautions: string[];
+  /** "priced": a printable plan inside the cooling window; "needs-review": the bureau's engineer quotes it (the figures are staff's indicative ones). */
+  status: EstimateStatus;
+  reviewReasons: ReviewReason[];
+  printMode: PrintMode;
+  /** Shell build of the chosen plan (null for a solid print). */
+  shell: ShellPlanSummary | null;
+  /** Mean laying speed over the whole path from segment lengths and acceleration, mm/s (speedMmS is the programmed peak). */
+  meanSpeedMmS: number;
+  /** Cell hourly print rate of the chosen cell, cents per hour. */
+  printRateCentsPerH: number;
+  /** Parts laid side by side in one build, and how many builds. */
+  batch: { partsPerBuild: number; builds: number };
+  /** The chosen candidate's search key and the best candidate of every other cell (cheapest first). */
+  alternatives: EstimateAlternative[];
+  /** What the search tried to bring layers inside the cooling window, in order. */
+  remedies: RemedyTried[];
+  /** How many candidates (cell × orientation × preset × print mode) were planned. */
+  candidatesPlanned: number;
+}
+
+export type EstimateStatus = "priced" | "needs-review";
+export type PrintMode = "shell" | "solid";
+
+export interface ReviewReason {
+  code: string;
+  message: string;
+}
+
+export interface RemedyTried {
+  code: string;
+  tried: string;
+  result: string;
+}
+
+export interface ShellPlanSummary {
+  walls: number;
+  wallThicknessMm: number;
+  ribSpacingMm: number;
+  ribWidthMm: number;
+  skinLayers: number;
+  /** How flat tops over the ribs close: "direct" (the bead bridges the rib spacing) or "support-ribs". */
+  bridging: "direct" | "support-ribs";
+  /** True when the wall count came from the allowance and bead (not set by hand). */
+  wallsFromAllowance: boolean;
+}
+
+export interface EstimateAlternative {
+  cell: string;
+  cellName: string;
+  orientation: Orientation;
+  beadWidthMm: number;
+  layerHeightMm: number;
+  printMode: PrintMode;
+  shellWalls: number | null;
+  printHours: number;
+  dwellHours: number;
+  massKg: number;
+  flaggedLayers: number;
+  totalCents: number;
+  shipDate: string;
+  status: EstimateStatus;
+  /** Why this one was not chosen ("" for the chosen one). */
+  whyNot: string;
 }

@@ -57,6 +57,8 @@ export function linesFromEstimates(parts: PartEstimate[]): DraftLine[] {
   const out: DraftLine[] = [];
   for (const part of parts) {
     for (const l of part.lines) {
+      // a line the plan did not need (no dwell, say) is not a quote line: quotes take quantities above zero
+      if (l.quantity <= 0 && l.amountCents === 0) continue;
       out.push({
         partId: part.partId,
         kind: KIND_OF_KEY[l.key] ?? "other",

@@ -69,13 +69,43 @@ export const RATE_CARD_FIELDS: NumberField[] = [
   { name: "inspectionDays", label: "Inspection", unit: "working days", int: true },
   { name: "packingDays", label: "Packing", unit: "working days", int: true },
   { name: "liftingCautionKg", label: "Lifting caution above", unit: "kg" },
+  { name: "printSetupHours", label: "Cell set-up before printing", unit: "h", max: 48 },
+  { name: "shellNetWallMm", label: "Shell net wall after machining", unit: "mm", positive: true, max: 200 },
+  { name: "ribSpacingMm", label: "Shell rib spacing", unit: "mm", positive: true, max: 5000 },
+  { name: "ribBeads", label: "Rib width", unit: "beads", int: true, positive: true, max: 10 },
+  { name: "skinLayers", label: "Skin layers (top and bottom)", unit: "layers", int: true, positive: true, max: 50 },
+  { name: "maxBridgeMm", label: "Longest unsupported bridge", unit: "mm", positive: true, max: 2000 },
+  { name: "shiftStartHour", label: "First shift starts", unit: "h (plant time)", max: 23 },
 ];
+
+/** An IANA time zone id the runtime knows (e.g. "UTC", "Etc/GMT+6"). */
+const timeZoneRule = z
+  .string()
+  .trim()
+  .min(1, "Plant time zone: required.")
+  .max(64)
+  .refine((tz) => {
+    try {
+      new Intl.DateTimeFormat("en-US", { timeZone: tz });
+      return true;
+    } catch {
+      return false;
+    }
+  }, "Plant time zone: an IANA zone id, such as UTC or Etc/GMT+6.");
+
+const dateList = (label: string) =>
+  z
+    .union([z.string(), z.array(z.string())])
+    .transform((v) => (Array.isArray(v) ? v : v.split(/[\s,;]+/).filter(Boolean)))
+    .pipe(z.array(z.string().regex(/^\d{4}-\d{2}-\d{2}$/, `${label}: dates as YYYY-MM-DD.`)).max(120));
 
 export const rateCardSchema = z.object({
   key: keyRule,
   name: text("Name", 120),
   currency: z.string().trim().toLowerCase().regex(/^[a-z]{3}$/, "Currency: a 3-letter code."),
   source: z.string().trim().max(2000).default(""),
+  plantTimeZone: timeZoneRule,
+  holidays: dateList("Plant closed dates"),
   ...numbers(RATE_CARD_FIELDS),
 });
 
@@ -121,6 +151,8 @@ export const CELL_FIELDS: NumberField[] = [
   { name: "defaultLayerHeightMm", label: "Default layer height", unit: "mm", positive: true },
   { name: "speedMinMmS", label: "Slowest speed", unit: "mm/s", positive: true },
   { name: "speedMaxMmS", label: "Fastest speed", unit: "mm/s", positive: true },
+  { name: "printRateCentsPerH", label: "Print rate", unit: "¢/h", int: true },
+  { name: "accelerationMmS2", label: "Head acceleration", unit: "mm/s²", positive: true, max: 20_000 },
   { name: "shiftsPerDay", label: "Shifts per day", unit: "count", int: true, positive: true, max: 3 },
   { name: "hoursPerShift", label: "Hours per shift", unit: "h", positive: true, max: 12 },
 ];
@@ -148,7 +180,7 @@ const pick = (o: Record<string, unknown>, fields: NumberField[]) => Object.fromE
 /** Parsed form → the engine's typed params (the schema has checked every number). */
 export function toRateCardParams(o: z.output<typeof rateCardSchema>): RateCardParams {
   const r = o as Record<string, unknown>;
-  return { key: o.key, name: o.name, currency: o.currency, source: o.source, ...pick(r, RATE_CARD_FIELDS) } as unknown as RateCardParams;
+  return { key: o.key, name: o.name, currency: o.currency, source: o.source, plantTimeZone: o.plantTimeZone, holidays: o.holidays, ...pick(r, RATE_CARD_FIELDS) } as unknown as RateCardParams;
 }
 
 export function toMaterialParams(o: z.output<typeof materialSchema>): MaterialParams {
@@ -171,6 +203,8 @@ export function toCellParams(o: z.output<typeof cellSchema>): CellParams {
     speedMinMmS: n("speedMinMmS"),
     speedMaxMmS: n("speedMaxMmS"),
     canPrintVertical: Boolean(r.canPrintVertical),
+    printRateCentsPerH: n("printRateCentsPerH"),
+    accelerationMmS2: n("accelerationMmS2"),
     calendar: {
       workingWeekdays: [...new Set(r.workingWeekdays as number[])].sort(),
       shiftsPerDay: n("shiftsPerDay"),
@@ -178,6 +212,11 @@ export function toCellParams(o: z.output<typeof cellSchema>): CellParams {
       holidays: r.holidays as string[],
     },
   };
+}
+
+/** Rate card → form values (the closed dates as one line). */
+export function rateCardFormValues(c: RateCardParams): Record<string, unknown> {
+  return { ...c, plantTimeZone: c.plantTimeZone ?? "UTC", holidays: (c.holidays ?? []).join(", ") };
 }
 
 /** Typed params → flat form values (the inverse of the above), for prefilling the forms. */

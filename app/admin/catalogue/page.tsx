@@ -7,7 +7,7 @@ import { countVersions } from "@/db/queries/admin-catalogue";
 import { getCurrentRateCard, listCurrentCells, listCurrentMaterials } from "@/db/queries/catalogue";
 import { pagePermission } from "@/lib/auth/page-guard";
 import { formatCents } from "@/lib/money";
-import { cellFormValues } from "@/lib/validation/admin-catalogue";
+import { cellFormValues, rateCardFormValues } from "@/lib/validation/admin-catalogue";
 
 export const metadata: Metadata = { title: "Catalogue" };
 export const dynamic = "force-dynamic";
@@ -23,7 +23,7 @@ export default async function CataloguePage() {
         <Card>
           <CardTitle>Rate card {card ? <Badge tone="info">version {card.version}</Badge> : null}</CardTitle>
           <div className="mt-3">
-            {card ? <ParamsForm kind="rateCard" idPrefix="rc" initial={card.params as unknown as Record<string, unknown>} /> : <p className="text-sm text-ink-500">No rate card yet.</p>}
+            {card ? <ParamsForm kind="rateCard" idPrefix="rc" initial={rateCardFormValues(card.params)} /> : <p className="text-sm text-ink-500">No rate card yet.</p>}
           </div>
         </Card>
         <section className="space-y-2">

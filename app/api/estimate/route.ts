@@ -22,6 +22,7 @@ const bodySchema = z.object({
       materialKey: z.string().max(60).optional(),
       allowanceMm: z.number().min(0).max(100).optional(),
       cellKey: z.string().max(60).optional(),
+      printMode: z.enum(["shell", "solid"]).optional(),
       shellWalls: z.number().int().min(1).max(20).nullable().optional(),
       orientation: z.enum(["x", "y", "z"]).optional(),
       quantity: z.number().int().min(1).max(50).optional(),

@@ -103,7 +103,7 @@ export function PartCard({
         <div className="rounded bg-tide-50 px-3 py-2 text-sm text-tide-700" data-testid="part-summary">
           <Badge tone="info" className="mr-2">Automatic estimate</Badge>
           {formatSize(result.bboxMm, units)} · {result.fitsAny ? `fits ${result.fits.filter((f) => f.fits).map((f) => f.cellName).join(", ")}` : "fits no cell in one piece"} ·{" "}
-          <strong>{formatCents(result.totalCents)}</strong>
+          <strong>{result.status === "needs-review" ? "our engineer will quote it" : formatCents(result.totalCents)}</strong>
         </div>
       ) : null}
 
@@ -157,10 +157,10 @@ export function PartCard({
           <legend className="mb-1 block text-sm font-medium text-ink-700">Print</legend>
           <div className="flex gap-4 pt-2 text-sm">
             <label className="inline-flex items-center gap-2">
-              <input type="radio" value="solid" className="accent-kiln-600" {...register(`${base}.printMode`)} /> Solid
+              <input type="radio" value="shell" className="accent-kiln-600" {...register(`${base}.printMode`)} /> Shell with internal ribs (usual for molds)
             </label>
             <label className="inline-flex items-center gap-2">
-              <input type="radio" value="shell" className="accent-kiln-600" {...register(`${base}.printMode`)} /> Shell (walls only)
+              <input type="radio" value="solid" className="accent-kiln-600" {...register(`${base}.printMode`)} /> Solid
             </label>
           </div>
         </fieldset>

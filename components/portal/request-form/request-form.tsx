@@ -102,7 +102,7 @@ export function RequestForm({ initial, initialFiles, reference: initialRef, cata
       materialKey: defaultMaterial(catalogue, getValues("project")),
       allowance: u === "in" ? Math.round((catalogue.defaultAllowanceMm / 25.4) * 1000) / 1000 : catalogue.defaultAllowanceMm,
       quantity: 1,
-      printMode: "solid",
+      printMode: "shell",
       units: u,
       unitsConfirmed: false,
       cellKey: "",

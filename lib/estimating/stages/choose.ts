@@ -1,75 +1,263 @@
-import { steinerVolume } from "../grow";
-import { bestOrientation, fitCells, orientedSize, suggestSplit } from "../orient";
-import type { Axis, CellFit, CellParams, EstimateWarning, MaterialParams, Orientation, SplitSuggestion } from "../types";
+import type { MachiningPlan } from "../machining";
+import { allowedOrientations, bestOrientation, clearance, fitCells, orientedSize, suggestSplit } from "../orient";
+import type { Pricing } from "../pricing";
+import type { ContinuousSchedule, Plant } from "../schedule";
+import type {
+  Axis, CellFit, CellParams, EstimateAlternative, EstimateStatus, EstimateWarning, MaterialParams, Mesh, Orientation,
+  PrintMode, RateCardParams, RemedyTried, ReviewReason, SplitSuggestion,
+} from "../types";
 import type { Measured } from "./measure";
+import { planStage, wallsForAllowance, type BuildPlan, type ShellRules } from "./plan";
+import { priceStage } from "./price";
+import { scheduleStage } from "./schedule";
+import { sectionsAt, sliceStage, type GrownSections } from "./slice";
 
 const r2 = (v: number) => Math.round(v * 100) / 100;
+const r4 = (v: number) => Math.round(v * 1e4) / 1e4;
+const money = (c: number) => `$${(c / 100).toLocaleString("en-US", { maximumFractionDigits: 0 })}`;
 
-export interface Choice {
+/** Layer height between a quarter and a half of the bead width (common practice, checks.md). */
+export const LAYER_TO_BEAD_MIN = 0.25;
+export const LAYER_TO_BEAD_MAX = 0.5;
+/** Gap between parts printed side by side, mm (common practice: room for the nozzle and for machining). */
+export const SIDE_BY_SIDE_GAP_MM = 100;
+
+export interface SearchInput {
+  mesh: Mesh;
+  ms: Measured;
+  cells: CellParams[];
+  material: MaterialParams;
+  card: RateCardParams;
+  rules: ShellRules;
+  plant: Plant;
+  allowanceMm: number;
+  quantity: number;
+  printMode: PrintMode;
+  wallsOverride: number | null;
+  cellKey?: string;
+  orientation?: Orientation;
+  queue: Record<string, number>;
+  now: Date;
+  priceOptions: { sealingCoat?: boolean; vacuumTest?: boolean };
+  machining: MachiningPlan;
+}
+
+export interface Candidate {
   cell: CellParams;
   orientation: Orientation;
-  chosenBy: "user" | "min-height";
+  fitsCell: boolean;
+  sections: GrownSections;
+  bp: BuildPlan;
+  pricing: Pricing;
+  schedule: ContinuousSchedule;
+  status: EstimateStatus;
+  reasons: ReviewReason[];
+}
+
+export interface Choice {
+  chosen: Candidate;
+  orientationChosenBy: "user" | "cost";
   fits: CellFit[];
   fitsAny: boolean;
   split: SplitSuggestion | null;
+  alternatives: EstimateAlternative[];
+  remedies: RemedyTried[];
+  reviewReasons: ReviewReason[];
+  candidatesPlanned: number;
+}
+
+const key = (o: Orientation) => `${o.up}${o.swapped ? "'" : ""}`;
+
+/** Bead/layer presets of a cell: its default, and every pair whose layer is ¼–½ of the bead. */
+export function presetsOf(cell: CellParams): { beadWidthMm: number; layerHeightMm: number }[] {
+  const out = [{ beadWidthMm: cell.defaultBeadWidthMm, layerHeightMm: cell.defaultLayerHeightMm }];
+  for (const w of cell.beadWidthsMm) for (const h of cell.layerHeightsMm) {
+    const r = h / w;
+    if (r >= LAYER_TO_BEAD_MIN - 1e-9 && r <= LAYER_TO_BEAD_MAX + 1e-9 && !out.some((p) => p.beadWidthMm === w && p.layerHeightMm === h)) out.push({ beadWidthMm: w, layerHeightMm: h });
+  }
+  return out;
+}
+
+/** Ordering of candidates: printable first, then the lowest total, the earlier ship date, fewer hours; the rest breaks ties so the pick is stable. */
+export function compareCandidates(a: Candidate, b: Candidate): number {
+  const sa = a.status === "priced" ? 0 : 1, sb = b.status === "priced" ? 0 : 1;
+  if (sa !== sb) return sa - sb;
+  if (sa === 1 && a.bp.flaggedLayers !== b.bp.flaggedLayers && a.fitsCell === b.fitsCell) return a.bp.flaggedLayers - b.bp.flaggedLayers;
+  if (sa === 1 && a.fitsCell !== b.fitsCell) return a.fitsCell ? -1 : 1;
+  return a.pricing.totalCents - b.pricing.totalCents
+    || a.schedule.shipDate.localeCompare(b.schedule.shipDate)
+    || (a.bp.printHours + a.bp.dwellHours) - (b.bp.printHours + b.bp.dwellHours)
+    || a.cell.key.localeCompare(b.cell.key)
+    || key(a.orientation).localeCompare(key(b.orientation))
+    || a.bp.beadWidthMm - b.bp.beadWidthMm || a.bp.layerHeightMm - b.bp.layerHeightMm
+    || a.bp.partsPerBuild - b.bp.partsPerBuild;
+}
+
+/** How many grown footprints (with the gap) fit side by side on the cell's bed. */
+export function sideBySide(cell: CellParams, plan: [number, number]): number {
+  const g = SIDE_BY_SIDE_GAP_MM;
+  const fit = (ex: number, ey: number) => Math.max(0, Math.floor((ex + g) / (plan[0] + g))) * Math.max(0, Math.floor((ey + g) / (plan[1] + g)));
+  return Math.max(1, fit(cell.envelopeMm.x, cell.envelopeMm.y), fit(cell.envelopeMm.y, cell.envelopeMm.x));
 }
 
 /**
- * Stage 3: the cell and the build orientation. A forced orientation takes the first cell it
- * fits; otherwise the lowest build that fits, and among those the smallest cell whose extruder
- * lays a mean layer inside the material's cooling window (a rough Steiner-volume check).
+ * Stage 3: the candidate search. Every cell × build orientation that fits × bead/layer preset of
+ * that cell × print mode (× parts side by side when the quantity allows) is planned, priced and
+ * dated; the pick is the printable plan with the lowest total at no later ship date (ties: the
+ * earlier date). The part is sliced once per up axis at the catalogue's finest layer height
+ * (independent of which cells are searched, so forcing a cell gives exactly the figures the
+ * search computed for it); orientations and presets that cannot fit are pruned before planning.
  */
-export function chooseStage(
-  ms: Measured,
-  cells: CellParams[],
-  material: MaterialParams,
-  allowanceMm: number,
-  o: { cellKey?: string; orientation?: Axis | Orientation },
-  warnings: EstimateWarning[],
-): Choice {
-  const { grownSize, netSize, m } = ms;
-  const t = allowanceMm;
-  let orientation: Orientation;
-  let chosenBy: "user" | "min-height";
-  let cell: CellParams;
-  const candidates = o.cellKey ? cells.filter((c) => c.key === o.cellKey) : cells;
-  if (o.orientation) {
-    orientation = typeof o.orientation === "string" ? { up: o.orientation, swapped: false } : o.orientation;
-    chosenBy = "user";
-    if (o.cellKey) cell = candidates[0]!;
-    else {
-      const fitting = cells.filter((c) => Math.min(c.envelopeMm.x - orientedSize(grownSize, orientation)[0], c.envelopeMm.y - orientedSize(grownSize, orientation)[1], c.envelopeMm.z - orientedSize(grownSize, orientation)[2]) >= 0);
-      cell = fitting[0] ?? cells[0]!;
+export function chooseStage(s: SearchInput, warnings: EstimateWarning[]): Choice {
+  const { ms, cells, material, card } = s;
+  const grown = ms.grownSize;
+  const searched = s.cellKey ? cells.filter((c) => c.key === s.cellKey) : cells;
+  const fineH = Math.min(...cells.flatMap((c) => [...c.layerHeightsMm, c.defaultLayerHeightMm]).filter((h) => h > 0));
+
+  // (cell, orientation) pairs that fit, pruned before any slicing
+  const pairs: { cell: CellParams; orientation: Orientation; fits: boolean }[] = [];
+  for (const cell of searched) {
+    const options = s.orientation ? [s.orientation] : allowedOrientations(grown, cell);
+    const byUp = new Map<Axis, { o: Orientation; m: number }>();
+    for (const o of options) {
+      const m = clearance(orientedSize(grown, o), cell);
+      if (m < 0) continue;
+      const prev = byUp.get(o.up);
+      if (!prev || m > prev.m) byUp.set(o.up, { o, m });
     }
-  } else {
-    chosenBy = "min-height";
-    const ranked = candidates.map((c) => ({ c, b: bestOrientation(grownSize, c) }));
-    const fitting = ranked.filter((r) => r.b.marginMm >= 0);
-    const envVol = (c: CellParams) => c.envelopeMm.x * c.envelopeMm.y * c.envelopeMm.z;
-    fitting.sort((a, b) => a.b.heightMm - b.b.heightMm || envVol(a.c) - envVol(b.c));
-    const grownGuess = steinerVolume(Math.abs(m.volumeMm3), m.areaMm2, Math.abs(m.meanCurvatureIntegral), t);
-    const meanLayerS = (c: CellParams, heightMm: number) => {
-      const mm3PerS = Math.min((c.extruderOutputKgPerH * 1e6) / 3600 / material.densityGPerCm3, c.speedMaxMmS * c.defaultBeadWidthMm * c.defaultLayerHeightMm);
-      return (grownGuess * (c.defaultLayerHeightMm / heightMm)) / mm3PerS;
-    };
-    const lowest = fitting.length ? fitting[0]!.b.heightMm : 0;
-    const pick = fitting.find((r) => r.b.heightMm <= lowest + 1e-6 && meanLayerS(r.c, r.b.heightMm) <= material.maxLayerTimeS)
-      ?? fitting[0] ?? ranked.sort((a, b) => b.b.marginMm - a.b.marginMm)[0]!;
-    cell = pick.c; orientation = pick.b.orientation;
+    for (const { o } of byUp.values()) pairs.push({ cell, orientation: o, fits: true });
   }
-  const fits = fitCells(grownSize, cells, orientation);
+  if (pairs.length === 0) {
+    // Nothing fits whole: plan on the cell (and orientation) with the most room, for review.
+    const ranked = searched.map((c) => ({ c, b: bestOrientation(grown, c) }));
+    const best = s.orientation
+      ? { c: searched[0]!, o: s.orientation }
+      : ranked.sort((a, b) => b.b.marginMm - a.b.marginMm).map((r) => ({ c: r.c, o: r.b.orientation }))[0]!;
+    pairs.push({ cell: best.c, orientation: best.o, fits: false });
+  }
+
+  const fine = new Map<Axis, GrownSections>();
+  const sectionsFor = (up: Axis, h: number) => {
+    let f = fine.get(up);
+    if (!f) { f = sliceStage(s.mesh, s.ms, up, fineH, s.allowanceMm); fine.set(up, f); }
+    return sectionsAt(f, h);
+  };
+
+  const evaluate = (cell: CellParams, orientation: Orientation, fits: boolean, sections: GrownSections, beadWidthMm: number, printMode: PrintMode, partsPerBuild: number): Candidate => {
+    const bp = planStage(ms, { cell, beadWidthMm, sections, printMode, wallsOverride: printMode === "shell" ? s.wallsOverride : null, partsPerBuild }, material, card, s.rules, s.allowanceMm, s.quantity, s.machining);
+    const pricing = priceStage(ms, bp, cell, material, card, s.quantity, s.priceOptions);
+    const schedule = scheduleStage(s.now, cell, card, bp, s.quantity, s.queue[cell.key] ?? 0, s.plant);
+    const reasons: ReviewReason[] = [];
+    if (!fits) reasons.push({ code: "fits-no-cell", message: `The part does not fit the ${cell.name} cell in one piece.` });
+    if (bp.flaggedLayers > 0) reasons.push({ code: "layers-outside-window", message: `${bp.flaggedLayers} of ${bp.layers.timeS.length * bp.builds} layers take longer than the ${material.maxLayerTimeS} s cooling window of ${material.name}.` });
+    return { cell, orientation, fitsCell: fits, sections, bp, pricing, schedule, status: reasons.length ? "needs-review" : "priced", reasons };
+  };
+
+  const all: Candidate[] = [];
+  for (const pair of pairs) {
+    for (const preset of presetsOf(pair.cell)) {
+      const sec = sectionsFor(pair.orientation.up, preset.layerHeightMm);
+      const one = evaluate(pair.cell, pair.orientation, pair.fits, sec, preset.beadWidthMm, s.printMode, 1);
+      all.push(one);
+      if (s.quantity > 1 && pair.fits) {
+        const plan = orientedSize(grown, pair.orientation);
+        const side = Math.min(s.quantity, sideBySide(pair.cell, [plan[0], plan[1]]));
+        // Side by side lengthens each layer: worth trying when layers are short (dwell) and not already long.
+        if (side > 1 && one.bp.dwellHours > 0) all.push(evaluate(pair.cell, pair.orientation, pair.fits, sec, preset.beadWidthMm, s.printMode, side));
+      }
+    }
+  }
+  all.sort(compareCandidates);
+  const chosen = all[0]!;
+
+  // alternatives: the best candidate of each cell
+  const bestByCell = new Map<string, Candidate>();
+  for (const c of all) if (!bestByCell.has(c.cell.key)) bestByCell.set(c.cell.key, c);
+  const alternatives = [...bestByCell.values()].map((c) => alternative(c, chosen));
+
+  // remedies tried, in the order a process engineer would
+  const remedies: RemedyTried[] = [];
+  const anyFlagged = all.some((c) => c.bp.flaggedLayers > 0);
+  if (anyFlagged) {
+    const cb = chosen.bp;
+    if (s.printMode === "shell") {
+      remedies.push({
+        code: "shell-walls",
+        tried: cb.shell?.wallsFromAllowance ? `${cb.shellWalls} walls, the fewest that hold the ${r2(s.allowanceMm)} mm allowance and a ${r2(s.rules.shellNetWallMm)} mm net wall` : `${cb.shellWalls} walls as set`,
+        result: cb.flaggedLayers > 0 ? `${cb.flaggedLayers} layers still outside the window` : "layers inside the window",
+      });
+    } else {
+      const bead = cb.beadWidthMm;
+      const shellTry = evaluate(chosen.cell, chosen.orientation, chosen.fitsCell, chosen.sections, bead, "shell", cb.partsPerBuild);
+      remedies.push({
+        code: "shell-walls",
+        tried: `a shell of ${wallsForAllowance(s.allowanceMm, bead, s.rules.shellNetWallMm)} walls instead of the solid print asked for (not applied)`,
+        result: shellTry.bp.flaggedLayers > 0 ? `${shellTry.bp.flaggedLayers} layers would still be outside the window` : `all layers would be inside the window (${money(shellTry.pricing.totalCents)})`,
+      });
+    }
+    const presetCount = new Set(all.map((c) => `${c.cell.key}|${c.bp.beadWidthMm}|${c.bp.layerHeightMm}`)).size;
+    const cellsTried = [...bestByCell.keys()];
+    remedies.push({ code: "preset", tried: `${presetCount} bead/layer presets`, result: `fewest layers outside: ${Math.min(...all.map((c) => c.bp.flaggedLayers))}` });
+    remedies.push({ code: "cell", tried: `${cellsTried.length} cell${cellsTried.length === 1 ? "" : "s"} (${cellsTried.join(", ")})`, result: chosen.bp.flaggedLayers > 0 ? "no cell lays every layer inside the window" : `${chosen.cell.name} lays every layer inside the window` });
+  }
+  if (chosen.bp.dwellHours > 0 || all.some((c) => c.bp.partsPerBuild > 1)) {
+    remedies.push({ code: "dwell", tried: "dwell before the next layer where a layer is shorter than the window", result: `${r2(chosen.bp.dwellHours)} h of dwell` });
+    if (s.quantity > 1) {
+      remedies.push({ code: "side-by-side", tried: `printing up to ${s.quantity} parts side by side so each layer takes longer`, result: chosen.bp.partsPerBuild > 1 ? `${chosen.bp.partsPerBuild} parts per build, ${chosen.bp.builds} build${chosen.bp.builds === 1 ? "" : "s"}` : "one part per build was cheaper or the bed too small" });
+    }
+  }
+
+  const fits = fitCells(grown, cells, chosen.orientation);
   const fitsAny = fits.some((f) => f.fits);
-  const split = fitsAny ? null : suggestSplit(netSize, t, cells);
+  const split = fitsAny ? null : suggestSplit(ms.netSize, s.allowanceMm, cells);
+  const reviewReasons = [...chosen.reasons];
   if (!fitsAny) {
     const over = Math.max(...fits.map((f) => f.marginMm));
     warnings.push({
       code: "fits-no-cell",
       message: split
-        ? `The part fits no printing cell (short by ${r2(-over)} mm at best); split it along ${split.axis} into ${split.pieces} pieces of ${r2(split.pieceLengthMm)} mm for the ${split.cell} cell. The estimate prices it as one print on ${cell.name}.`
+        ? `The part fits no printing cell (short by ${r2(-over)} mm at best); split it along ${split.axis} into ${split.pieces} pieces of ${r2(split.pieceLengthMm)} mm for the ${split.cell} cell. The estimate prices it as one print on ${chosen.cell.name}.`
         : `The part fits no printing cell (short by ${r2(-over)} mm at best) and no split along its longest axis fits either.`,
     });
-  } else if (!fits.find((f) => f.cell === cell.key)?.fitsChosen) {
-    warnings.push({ code: "fits-not-chosen", message: `The part does not fit the ${cell.name} cell in the chosen orientation.` });
+    const i = reviewReasons.findIndex((r) => r.code === "fits-no-cell");
+    const message = split ? `The part fits no printing cell whole; it must be split (${split.pieces} pieces along ${split.axis}), and the joint designed by the bureau's engineer.` : "The part fits no printing cell whole, and no split along its longest axis fits either.";
+    if (i >= 0) reviewReasons[i] = { code: "fits-no-cell", message }; else reviewReasons.push({ code: "fits-no-cell", message });
+    if (split) remedies.push({ code: "split", tried: `a split into ${split.pieces} pieces along ${split.axis}`, result: `each piece fits the ${split.cell} cell; priced as one print until the engineer plans the pieces` });
+  } else if (!fits.find((f) => f.cell === chosen.cell.key)?.fitsChosen) {
+    warnings.push({ code: "fits-not-chosen", message: `The part does not fit the ${chosen.cell.name} cell in the chosen orientation.` });
+    if (!reviewReasons.some((r) => r.code === "fits-no-cell")) reviewReasons.push({ code: "fits-not-chosen", message: `The part does not fit the ${chosen.cell.name} cell in the chosen orientation.` });
   }
-  return { cell, orientation, chosenBy, fits, fitsAny, split };
+  if (chosen.bp.flaggedLayers > 0 && fitsAny) {
+    // the split that would shorten the longest layer into the window (pieces along the longest plan axis)
+    let longest = 0;
+    for (let k = 0; k < chosen.bp.layers.timeS.length; k++) longest = Math.max(longest, chosen.bp.layers.timeS[k]!);
+    const pieces = Math.ceil(longest / chosen.bp.partsPerBuild / material.maxLayerTimeS);
+    remedies.push({ code: "split", tried: `a split into ${pieces} pieces across the longest layers`, result: "left to the bureau's engineer: joints change the tool" });
+    reviewReasons.push({ code: "needs-engineer", message: `No cell, preset or wall count lays every layer inside the cooling window; the bureau's engineer will plan it (a split into about ${pieces} pieces, interlayer heating, or a different material).` });
+  }
+  const status: EstimateStatus = reviewReasons.length ? "needs-review" : "priced";
+  return {
+    chosen: { ...chosen, status }, orientationChosenBy: s.orientation ? "user" : "cost", fits, fitsAny, split,
+    alternatives: alternatives.map((a) => (a.cell === chosen.cell.key ? { ...a, status } : a)), remedies, reviewReasons, candidatesPlanned: all.length,
+  };
+}
+
+function alternative(c: Candidate, chosen: Candidate): EstimateAlternative {
+  let whyNot = "";
+  if (c !== chosen) {
+    const why: string[] = [];
+    if (!c.fitsCell) why.push("does not fit whole");
+    if (c.bp.flaggedLayers > 0) why.push(`${c.bp.flaggedLayers} layers outside the cooling window`);
+    const d = c.pricing.totalCents - chosen.pricing.totalCents;
+    if (d > 0) why.push(`${money(d)} more`);
+    else if (d < 0 && chosen.status === "priced" && c.status !== "priced") why.push(`${money(-d)} less but not printable as planned`);
+    if (c.schedule.shipDate > chosen.schedule.shipDate) why.push(`ships later (${c.schedule.shipDate})`);
+    else if (c.schedule.shipDate === chosen.schedule.shipDate && d === 0) why.push("same total and date; the search's tie-break");
+    whyNot = why.join("; ") || "not better on total or date";
+  }
+  return {
+    cell: c.cell.key, cellName: c.cell.name, orientation: c.orientation, beadWidthMm: c.bp.beadWidthMm, layerHeightMm: c.bp.layerHeightMm,
+    printMode: c.bp.printMode, shellWalls: c.bp.shellWalls, printHours: r4(c.bp.printHours), dwellHours: r4(c.bp.dwellHours), massKg: r4(c.bp.massKg),
+    flaggedLayers: c.bp.flaggedLayers, totalCents: c.pricing.totalCents, shipDate: c.schedule.shipDate, status: c.status, whyNot,
+  };
 }

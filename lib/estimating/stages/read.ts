@@ -1,15 +1,16 @@
 import { EstimateInputError } from "../errors";
 import { readModel, type ReadModelResult } from "../read-model";
 import type { AnalyseInput } from "../analyse";
-import type { EstimateWarning, MaterialParams } from "../types";
+import type { EstimateWarning, MaterialParams, PrintMode } from "../types";
 
 /** The options of one run, checked and with the catalogue's defaults filled in. */
 export interface ResolvedOptions {
   material: MaterialParams;
   allowanceMm: number;
-  /** null = solid print; N = N walls along the contour. */
+  /** Wall count set by hand (shell only); null = from the allowance and the bead. */
   shellWalls: number | null;
   quantity: number;
+  printMode: PrintMode;
 }
 
 export function bad(code: string, message: string): never {
@@ -29,7 +30,9 @@ export function resolveOptions(input: AnalyseInput): ResolvedOptions {
   if (walls !== null && (!Number.isInteger(walls) || walls < 1 || walls > 50)) bad("option:shell-walls", "Shell walls must be a whole number from 1 to 50.");
   const quantity = o.quantity ?? 1;
   if (!Number.isInteger(quantity) || quantity < 1 || quantity > 1000) bad("option:quantity", "The quantity must be a whole number from 1 to 1000.");
-  return { material, allowanceMm: t, shellWalls: walls, quantity };
+  if (o.printMode !== undefined && o.printMode !== "shell" && o.printMode !== "solid") bad("option:print-mode", "The print mode must be shell or solid.");
+  const printMode: PrintMode = o.printMode ?? "shell";
+  return { material, allowanceMm: t, shellWalls: printMode === "shell" ? walls : null, quantity, printMode };
 }
 
 /** Stage 1: the file's triangles in millimetres (units guessed when not given). */

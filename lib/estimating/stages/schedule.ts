@@ -1,11 +1,17 @@
-import { shipSchedule, type ShipSchedule } from "../schedule";
+import { continuousSchedule, type ContinuousSchedule, type Plant } from "../schedule";
 import type { CellParams, RateCardParams } from "../types";
 import type { BuildPlan } from "./plan";
 
-/** Stage 7: print, cooling, machining and the ship date on the cell's calendar. */
-export function scheduleStage(now: Date, cell: CellParams, card: RateCardParams, bp: BuildPlan, quantity: number, queueHours: number): ShipSchedule {
-  return shipSchedule(now, cell.calendar, {
-    queueHours, printHours: (bp.printHours + bp.dwellHours) * quantity, coolingHours: bp.coolingHours, machiningHours: bp.machining.totalHours * quantity,
+/** The plant's time zone, shift start and closed dates from the rate card (UTC and 06:00 for older rows). */
+export function plantOf(card: RateCardParams): Plant {
+  return { timeZone: card.plantTimeZone ?? "UTC", dayStartHour: card.shiftStartHour ?? 6, holidays: card.holidays ?? [] };
+}
+
+/** Stage 7: set-up on shifts, printing straight through, cooling, machining on shifts, the ship date on an open day. */
+export function scheduleStage(now: Date, cell: CellParams, card: RateCardParams, bp: BuildPlan, quantity: number, queueHours: number, plant: Plant): ContinuousSchedule {
+  return continuousSchedule(now, cell.calendar, plant, {
+    queueHours, setupHours: (card.printSetupHours ?? 0) * bp.builds,
+    printHours: bp.printHours + bp.dwellHours, coolingHours: bp.coolingHours, machiningHours: bp.machining.totalHours * quantity,
     finishingDays: card.finishingDays, inspectionDays: card.inspectionDays, packingDays: card.packingDays,
   });
 }

@@ -1,65 +1,79 @@
 import { grownSection } from "../grow";
-import { bounds, type Bounds } from "../measure";
-import { orientPositions, orientedSize } from "../orient";
 import { slice } from "../slice";
-import type { Mesh, Orientation } from "../types";
+import type { Axis, Mesh } from "../types";
 import { bad } from "./read";
 import type { Measured } from "./measure";
 
 /** Most layers a plan may have (a 9 m build at 1 mm layers is 9 000). */
 export const MAX_LAYERS = 200_000;
+const AXIS_INDEX: Record<Axis, number> = { x: 0, y: 1, z: 2 };
 
 export interface GrownSections {
   /** Height of the first layer's bottom, mm (build space). */
   z0: number;
   layerHeightMm: number;
   layerCount: number;
-  /** Net part's bounds in build space. */
-  buildBounds: Bounds;
-  /** Grown (near-net) section area and contour length per layer. */
+  /** Build height of the near-net part, mm. */
+  heightMm: number;
+  /** Grown (near-net) section area, contour length and contour pieces per layer. */
   areaMm2: Float64Array;
   perimeterMm: Float64Array;
+  segments: Uint32Array;
   /** Σ grown areas × layer height, before rescaling to the Steiner volume. */
   slicedVolumeMm3: number;
 }
 
 /**
- * Stage 4: the part turned into the build orientation and cut at every layer; each net section
- * grown by the finish allowance (beyond the net part's ends, the nearest section grown by
- * √(t² − d²)).
- * With `turnInPlace` the mesh's own positions are turned into build space (memory: no copy).
+ * Stage 4: the part cut once per up axis at a fine layer height, each net section grown by the
+ * finish allowance (beyond the net part's ends, the nearest section grown by √(t² − d²)). The
+ * candidates' coarser layers then sample these sections (`sectionsAt`), so a part is sliced at
+ * most three times however many bead/layer presets are planned. A swap of the plan axes turns a
+ * section in its plane and changes neither its area nor its contour.
  */
-export function sliceStage(mesh: Mesh, ms: Measured, orientation: Orientation, layerHeightMm: number, allowanceMm: number, opts: { turnInPlace?: boolean } = {}): GrownSections {
-  const t = allowanceMm, h = layerHeightMm;
-  const upright = orientation.up === "z" && !orientation.swapped;
-  // turnInPlace: the caller is done with the file-space mesh, so it is turned where it lies
-  const p = orientPositions(mesh.positions, orientation, opts.turnInPlace ? mesh.positions : undefined);
-  const ob = upright ? ms.m.bounds : bounds(p);
-  const zMin = ob.min[2], zMax = ob.max[2];
+export function sliceStage(mesh: Mesh, ms: Measured, up: Axis, fineHeightMm: number, allowanceMm: number): GrownSections {
+  const t = allowanceMm, h = fineHeightMm;
+  const ai = AXIS_INDEX[up];
+  const zMin = ms.m.bounds.min[ai]!, zMax = ms.m.bounds.max[ai]!;
   const height = zMax - zMin + 2 * t;
   const layerCount = Math.max(1, Math.ceil(height / h - 1e-9));
   if (layerCount > MAX_LAYERS) bad("mesh:too-tall", `The part would need ${layerCount} layers, more than the ${MAX_LAYERS} the planner accepts; check the units.`);
   const z0 = zMin - t;
-  const sec = slice(p, mesh.triangleCount, z0, h, layerCount);
-  const grownArea = new Float64Array(layerCount), grownPer = new Float64Array(layerCount);
+  const sec = slice(mesh.positions, mesh.triangleCount, z0, h, layerCount, up);
+  const grownArea = new Float64Array(layerCount), grownPer = new Float64Array(layerCount), segs = new Uint32Array(layerCount);
   let firstIn = -1, lastIn = -1;
   for (let k = 0; k < layerCount; k++) if (sec.area[k]! > 0) { if (firstIn < 0) firstIn = k; lastIn = k; }
-  const plan = orientedSize(ms.netSize, orientation);
-  const fallbackA = ms.volumeMm3 / Math.max(zMax - zMin, 1e-9), fallbackP = 2 * (plan[0] + plan[1]);
+  const planSum = ms.netSize[0] + ms.netSize[1] + ms.netSize[2] - ms.netSize[ai]!;
+  const fallbackA = ms.volumeMm3 / Math.max(zMax - zMin, 1e-9), fallbackP = 2 * planSum;
   for (let k = 0; k < layerCount; k++) {
     const z = z0 + (k + 0.5) * h;
-    let A: number, P: number, r = t;
-    if (z > zMin && z < zMax && sec.area[k]! > 0) { A = sec.area[k]!; P = sec.perimeter[k]!; }
+    let A: number, P: number, S: number, r = t;
+    if (z > zMin && z < zMax && sec.area[k]! > 0) { A = sec.area[k]!; P = sec.perimeter[k]!; S = sec.segments[k]!; }
     else {
       const idx = z <= zMin || (firstIn >= 0 && k < firstIn) ? firstIn : lastIn;
-      A = idx >= 0 ? sec.area[idx]! : fallbackA; P = idx >= 0 ? sec.perimeter[idx]! : fallbackP;
+      A = idx >= 0 ? sec.area[idx]! : fallbackA; P = idx >= 0 ? sec.perimeter[idx]! : fallbackP; S = idx >= 0 ? sec.segments[idx]! : 4;
       const d = z <= zMin ? zMin - z : z >= zMax ? z - zMax : 0;
       r = Math.sqrt(Math.max(0, t * t - d * d));
     }
     const g = grownSection(A, P, r);
-    grownArea[k] = g.area; grownPer[k] = g.perimeter;
+    grownArea[k] = g.area; grownPer[k] = g.perimeter; segs[k] = S;
   }
   let slicedVolume = 0;
   for (let k = 0; k < layerCount; k++) slicedVolume += grownArea[k]! * h;
-  return { z0, layerHeightMm: h, layerCount, buildBounds: ob, areaMm2: grownArea, perimeterMm: grownPer, slicedVolumeMm3: slicedVolume };
+  return { z0, layerHeightMm: h, layerCount, heightMm: height, areaMm2: grownArea, perimeterMm: grownPer, segments: segs, slicedVolumeMm3: slicedVolume };
+}
+
+/** The fine sections sampled at a coarser layer height: each layer takes the fine section at its mid-height. */
+export function sectionsAt(fine: GrownSections, layerHeightMm: number): GrownSections {
+  if (Math.abs(layerHeightMm - fine.layerHeightMm) < 1e-9) return fine;
+  const h = layerHeightMm, height = fine.heightMm;
+  const n = Math.max(1, Math.ceil(height / h - 1e-9));
+  if (n > MAX_LAYERS) bad("mesh:too-tall", `The part would need ${n} layers, more than the ${MAX_LAYERS} the planner accepts; check the units.`);
+  const area = new Float64Array(n), per = new Float64Array(n), seg = new Uint32Array(n);
+  let vol = 0;
+  for (let k = 0; k < n; k++) {
+    const j = Math.min(fine.layerCount - 1, Math.max(0, Math.floor(((k + 0.5) * h) / fine.layerHeightMm)));
+    area[k] = fine.areaMm2[j]!; per[k] = fine.perimeterMm[j]!; seg[k] = fine.segments[j]!;
+    vol += area[k]! * h;
+  }
+  return { z0: fine.z0, layerHeightMm: h, layerCount: n, heightMm: height, areaMm2: area, perimeterMm: per, segments: seg, slicedVolumeMm3: vol };
 }

@@ -15,6 +15,7 @@ import { PayButton, PaymentsList } from "@/components/portal/payments";
 import { QuotesSection } from "@/components/portal/quotes";
 import { RequestForm } from "@/components/portal/request-form/request-form";
 import { loadDraft, loadFormCatalogue } from "@/components/portal/request-form/load";
+import { clientEstimateOf } from "@/lib/estimating/client-view";
 import { PartReview } from "@/components/portal/request-form/part-review";
 import { StageBadge } from "@/components/portal/stage-badge";
 import { RevisionUpload } from "@/components/portal/revision-upload";
@@ -151,7 +152,7 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
                     key={part.id}
                     title={`${part.name} · ${revision.fileName}${revision.revision > 1 ? ` (revision ${revision.revision})` : ""} · qty ${part.quantity}`}
                     revisionId={revision.id}
-                    result={analysis.result as unknown as EstimateResult}
+                    result={clientEstimateOf(analysis.result) as EstimateResult}
                     fileUnits={part.units}
                     displayUnits={units}
                     cells={catalogue.cells}

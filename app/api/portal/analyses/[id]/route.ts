@@ -3,7 +3,9 @@ import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { analyses, fileRevisions, parts, requests } from "@/db/schema";
 import { assertCanSee, requireUser } from "@/lib/auth/guard";
+import { isStaff } from "@/lib/auth/policy";
 import { withErrors } from "@/lib/auth/route";
+import { clientEstimateOf } from "@/lib/estimating/client-view";
 
 /**
  * GET /api/portal/analyses/:id — progress of one analysis, polled by the progress bar; when done,
@@ -30,7 +32,8 @@ export const GET = withErrors(async (_req: Request, ctx: { params: Promise<{ id:
       progress: a.progress,
       stageLabel: a.stageLabel,
       error: a.status === "failed" ? { code: a.errorCode, message: a.errorMessage } : null,
-      result: a.status === "done" ? a.result : null,
+      // a client sees alternatives as cell, total and date, and no price on a needs-review estimate
+      result: a.status === "done" ? (isStaff(user.role) ? a.result : clientEstimateOf(a.result)) : null,
     },
     { headers: { "cache-control": "no-store" } },
   );

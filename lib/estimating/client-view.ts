@@ -1,0 +1,23 @@
+import type { EstimateResult } from "./types";
+
+/**
+ * What a client is shown of an estimate. Alternatives are cell, total and ship date only (the
+ * search's reasons and remedies are the bureau's working); a needs-review estimate withholds its
+ * price (lines, totals and the alternatives' totals), because the bureau's engineer will quote it.
+ * Staff screens and the CLI show the whole result.
+ */
+export function clientEstimate(r: EstimateResult): EstimateResult & { priceWithheld: boolean } {
+  const withheld = (r.status ?? "priced") === "needs-review";
+  const alternatives = (r.alternatives ?? []).map((a) => ({
+    cell: a.cell, cellName: a.cellName, totalCents: withheld ? 0 : a.totalCents, shipDate: a.shipDate,
+  })) as unknown as EstimateResult["alternatives"];
+  const base = { ...r, alternatives, remedies: [], priceWithheld: withheld };
+  if (!withheld) return base;
+  return { ...base, lines: [], subtotalCents: 0, marginCents: 0, taxCents: 0, totalCents: 0, depositCents: 0, balanceCents: 0, printRateCentsPerH: 0 };
+}
+
+/** A stored result (plain JSON from the database) as the client sees it; null stays null. */
+export function clientEstimateOf(result: unknown): (EstimateResult & { priceWithheld: boolean }) | null {
+  if (!result || typeof result !== "object") return null;
+  return clientEstimate(result as EstimateResult);
+}
