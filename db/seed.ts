@@ -15,6 +15,7 @@ import { FLOW } from "../lib/orders/stages";
 import { shareOfCents } from "../lib/money";
 import { binaryStl, drillFixture, hullPlugInches, layupMold, tooLongBeam, extrude, type IndexedMesh } from "../mocks/fixtures/meshes";
 import { openDb, type Db } from "./client";
+import { numberUnnumberedReceipts } from "./queries/payments";
 import * as s from "./schema";
 import type { Stage } from "./schema/common";
 import { DEMO_PASSWORDS, DEMO_REQUESTS, DEMO_USERS, FIRMS, type DemoMeshKey, type DemoRequest } from "./seed-data";
@@ -327,6 +328,8 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
       }
     });
   }
+
+  await numberUnnumberedReceipts(db);
 
   // The payment processor's side of the seeded payments, loaded into the local fake on start.
   writeFileSync(path.resolve(dataDir, "seed-processor-records.json"), JSON.stringify(processorRecords, null, 1));

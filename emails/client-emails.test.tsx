@@ -17,7 +17,7 @@ describe("client e-mail templates render their preview props", () => {
   it.each([
     ["request-received", RequestReceivedEmail, ["LW-2026-0042", "Automatic estimate (not an offer): $18,420.00"]],
     ["quote-ready", QuoteReadyEmail, ["Quote version 2", "$9,552.50", "Valid until 15 January 2027"]],
-    ["deposit-received", DepositReceivedEmail, ["$9,552.50", "PO KA-PO-7781"]],
+    ["deposit-received", DepositReceivedEmail, ["$9,552.50", "PO KA-PO-7781", "Receipt RC-2026-00042"]],
     ["scheduled", ScheduledEmail, ["Long Bed", "12 January 2027", "2 February 2027"]],
     ["shipped", ShippedEmail, ["HF-88213-04", "340 kg", "lifting procedures"]],
     ["balance-due", BalanceDueEmail, ["balance of $9,552.50"]],

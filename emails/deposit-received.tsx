@@ -7,6 +7,8 @@ export interface DepositReceivedEmailProps {
   kind: "deposit" | "balance";
   amount: string;
   poNumber: string;
+  /** The bureau's receipt number, and our receipt page for it. */
+  receiptNumber: string | null;
   receiptUrl: string | null;
   url: string;
 }
@@ -19,7 +21,7 @@ export default function DepositReceivedEmail(p: DepositReceivedEmailProps) {
         We received {p.amount} for {p.reference} “{p.projectName}” (PO {p.poNumber}).
         {p.kind === "deposit" ? " Our planners will now put the job on a printing cell's calendar and send you the dates." : " Thank you: the order is paid in full."}
       </Text>
-      {p.receiptUrl ? <Text style={paragraph}>Receipt: {p.receiptUrl}</Text> : null}
+      {p.receiptNumber && p.receiptUrl ? <Text style={paragraph}>Receipt {p.receiptNumber}: {p.receiptUrl}</Text> : null}
       <Button href={p.url} style={buttonStyle}>
         Open the order
       </Button>
@@ -33,6 +35,7 @@ DepositReceivedEmail.PreviewProps = {
   kind: "deposit",
   amount: "$9,552.50",
   poNumber: "KA-PO-7781",
-  receiptUrl: null,
+  receiptNumber: "RC-2026-00042",
+  receiptUrl: "http://localhost:3000/portal/payments/demo",
   url: "http://localhost:3000/portal/requests/demo",
 } satisfies DepositReceivedEmailProps;

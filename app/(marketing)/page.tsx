@@ -53,7 +53,7 @@ export default async function LandingPage() {
             </p>
             <div className="mt-8 flex flex-wrap gap-3">
               <ButtonLink href="/sign-up" size="lg">
-                Get an instant estimate
+                Check fit, cost and ship date
               </ButtonLink>
               <ButtonLink href="/sign-in" size="lg" variant="secondary">
                 Sign in

@@ -18,7 +18,7 @@ const mm = (v: unknown) =>
   n(v) === null ? "—" : `${Math.round(n(v)!).toLocaleString("en-US")} mm`;
 
 /** The automatic analysis beside each part: size, fit, near-net volume, hours, flagged layers, warnings. */
-export function AnalysisPanel({ part }: { part: Part }) {
+export function AnalysisPanel({ part, materialName }: { part: Part; materialName?: string }) {
   const a = part.analysis;
   const r = (a?.status === "done" ? a.result : null) as Record<
     string,
@@ -56,7 +56,7 @@ export function AnalysisPanel({ part }: { part: Part }) {
         <h3 className="font-semibold text-ink-800">{part.name}</h3>
         <span className="text-xs text-ink-500">
           {part.fileName ?? "no file"} · rev {part.revision ?? "—"} ·{" "}
-          {part.materialKey} · ×{part.quantity} · allowance {part.allowanceMm}{" "}
+          {materialName ?? (r?.material as { name?: string } | undefined)?.name ?? part.materialKey} · ×{part.quantity} · allowance {part.allowanceMm}{" "}
           mm
         </span>
       </div>

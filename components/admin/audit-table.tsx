@@ -3,6 +3,7 @@
 import { useState } from "react";
 import { DataTable, type ColumnDef } from "@/components/data-table";
 import { Field, Input, Select } from "@/components/ui/input";
+import { AUDIT_FIELD_LABEL, auditActionLabel, auditEntityLabel } from "@/lib/labels";
 import { dateTimeText } from "./format";
 import { Pager } from "./pager";
 import { useApi } from "./use-api";
@@ -25,17 +26,23 @@ interface Answer {
   options: { actors: { id: string; email: string }[]; entityTypes: string[] };
 }
 
+/** A recorded change in words: each field by its name in lib/labels.ts, then its value. */
 const short = (v: unknown) => {
   if (v === null || v === undefined) return "";
-  const s = JSON.stringify(v);
+  const s =
+    typeof v === "object" && !Array.isArray(v)
+      ? Object.entries(v as Record<string, unknown>)
+          .map(([k, x]) => `${AUDIT_FIELD_LABEL[k] ?? k}: ${typeof x === "string" ? x : JSON.stringify(x)}`)
+          .join(" · ")
+      : JSON.stringify(v);
   return s.length > 160 ? s.slice(0, 157) + "…" : s;
 };
 
 const columns: ColumnDef<AuditRow, unknown>[] = [
   { accessorKey: "at", header: "When", enableSorting: false, cell: ({ getValue }) => <span className="figures whitespace-nowrap text-ink-500">{dateTimeText(getValue() as string)}</span> },
   { accessorKey: "actorEmail", header: "Who", enableSorting: false, cell: ({ getValue }) => (getValue() as string | null) ?? "system" },
-  { accessorKey: "action", header: "Action", enableSorting: false },
-  { id: "entity", header: "Entity", enableSorting: false, cell: ({ row }) => <span>{row.original.entityType}<span className="block max-w-[10rem] truncate font-mono text-xs text-ink-400">{row.original.entityId}</span></span> },
+  { accessorKey: "action", header: "Action", enableSorting: false, cell: ({ getValue }) => auditActionLabel(getValue() as string) },
+  { id: "entity", header: "Entity", enableSorting: false, cell: ({ row }) => <span>{auditEntityLabel(row.original.entityType)}<span className="block max-w-[10rem] truncate font-mono text-xs text-ink-400">{row.original.entityId}</span></span> },
   { id: "change", header: "Change", enableSorting: false, cell: ({ row }) => <span className="block max-w-md break-all font-mono text-xs text-ink-600">{row.original.before ? <span className="text-ink-400">{short(row.original.before)} → </span> : null}{short(row.original.after)}</span> },
 ];
 
@@ -62,7 +69,7 @@ export function AuditTable() {
         <Field label="Entity" htmlFor="audit-entity">
           <Select id="audit-entity" value={entityType} onChange={(e) => reset(setEntity)(e.target.value)}>
             <option value="">any</option>
-            {data?.options.entityTypes.map((t) => <option key={t}>{t}</option>)}
+            {data?.options.entityTypes.map((t) => <option key={t} value={t}>{auditEntityLabel(t)}</option>)}
           </Select>
         </Field>
         <Field label="From" htmlFor="audit-from"><Input id="audit-from" type="date" value={from} onChange={(e) => reset(setFrom)(e.target.value)} /></Field>

@@ -1,3 +1,6 @@
+import type { Stage } from "@/db/schema/common";
+import { STAGE_LABEL } from "@/lib/labels";
+
 /** Display helpers for the back office (UTC, like the plant calendar). */
 export function dateText(v: string | Date | null | undefined): string {
   if (!v) return "—";
@@ -21,4 +24,5 @@ export function pctText(p: number | null | undefined, signed = false): string {
   return `${signed && p > 0 ? "+" : ""}${p.toFixed(1)} %`;
 }
 
-export const stageText = (s: string) => s.replace(/_/g, " ");
+/** A stage by its name in lib/labels.ts. */
+export const stageText = (s: Stage | string) => STAGE_LABEL[s as Stage] ?? s.replace(/_/g, " ");

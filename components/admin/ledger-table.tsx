@@ -8,7 +8,8 @@ import { Field, Input } from "@/components/ui/input";
 import { formatCents } from "@/lib/money";
 import { dateText } from "./format";
 import { Pager } from "./pager";
-import { StatusBadge } from "./stage-badge";
+import { PaymentStateBadge } from "@/components/stage-badge";
+import { PAYMENT_KIND_LABEL, PAYMENT_STATE_LABEL, type PaymentState } from "@/lib/labels";
 import { useServerTable } from "./use-server-table";
 
 interface LedgerRow {
@@ -16,24 +17,26 @@ interface LedgerRow {
   reference: string;
   projectName: string;
   firmName: string;
-  kind: string;
-  status: string;
+  kind: "deposit" | "balance";
+  status: PaymentState;
   amountCents: number;
   feeCents: number | null;
   refundedCents: number;
   currency: string;
   createdAt: string;
   paidAt: string | null;
+  receiptNumber: string | null;
 }
 
 const columns: ColumnDef<LedgerRow, unknown>[] = [
   { accessorKey: "reference", header: "Order", cell: ({ row }) => <Link className="font-medium text-kiln-700 underline" href={`/admin/accounts/payments/${row.original.id}`}><span className="whitespace-nowrap">{row.original.reference}</span></Link> },
   { accessorKey: "firmName", header: "Firm", enableSorting: false },
-  { accessorKey: "kind", header: "Kind", enableSorting: false },
-  { accessorKey: "status", header: "Status", cell: ({ getValue }) => <StatusBadge value={getValue() as string} /> },
+  { accessorKey: "kind", header: "Kind", enableSorting: false, cell: ({ row }) => PAYMENT_KIND_LABEL[row.original.kind] },
+  { accessorKey: "status", header: "Status", cell: ({ row }) => <PaymentStateBadge state={row.original.status} /> },
   { accessorKey: "amountCents", header: "Amount", cell: ({ row }) => <span className="figures">{formatCents(row.original.amountCents, row.original.currency)}</span> },
   { accessorKey: "feeCents", header: "Fee", enableSorting: false, cell: ({ row }) => <span className="figures">{row.original.feeCents === null ? "—" : formatCents(row.original.feeCents, row.original.currency)}</span> },
   { accessorKey: "refundedCents", header: "Refunded", enableSorting: false, cell: ({ row }) => <span className="figures">{row.original.refundedCents ? formatCents(row.original.refundedCents, row.original.currency) : "—"}</span> },
+  { accessorKey: "receiptNumber", header: "Receipt", enableSorting: false, cell: ({ getValue }) => <span className="whitespace-nowrap font-mono text-xs">{(getValue() as string | null) ?? "—"}</span> },
   { accessorKey: "paidAt", header: "Paid", cell: ({ getValue }) => dateText(getValue() as string | null) },
   { accessorKey: "createdAt", header: "Created", cell: ({ getValue }) => dateText(getValue() as string | null) },
 ];
@@ -64,10 +67,10 @@ export function LedgerTable() {
         columns={columns}
         {...table}
         filters={[
-          { columnId: "status", label: "Status", options: ["pending", "paid", "partially_refunded", "refunded", "failed", "expired"].map((v) => ({ value: v, label: v.replace("_", " ") })) },
-          { columnId: "kind", label: "Kind", options: [{ value: "deposit", label: "deposit" }, { value: "balance", label: "balance" }] },
+          { columnId: "status", label: "Status", options: (["pending", "paid", "partially_refunded", "refunded", "failed", "expired"] as const).map((v) => ({ value: v, label: PAYMENT_STATE_LABEL[v] })) },
+          { columnId: "kind", label: "Kind", options: (["deposit", "balance"] as const).map((v) => ({ value: v, label: PAYMENT_KIND_LABEL[v] })) },
         ]}
-        searchPlaceholder="Search order, firm, payment intent"
+        searchPlaceholder="Search order, firm, receipt or processor reference"
         empty={{ title: "No payments in these dates", body: "Deposits and balances appear here as clients pay." }}
       />
       {pager ? <Pager {...pager} /> : null}

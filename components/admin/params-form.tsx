@@ -5,21 +5,26 @@ import { useState, useTransition } from "react";
 import { saveCell, saveMaterial, saveRateCard } from "@/app/admin/catalogue/actions";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input, Textarea } from "@/components/ui/input";
-import { CELL_FIELDS, MATERIAL_FIELDS, RATE_CARD_FIELDS, type NumberField } from "@/lib/validation/admin-catalogue";
+import { CELL_FIELDS, MATERIAL_FIELDS, RATE_CARD_FIELDS, fromShown, shownUnit, toShown, type NumberField } from "@/lib/validation/admin-catalogue";
 
 const ACTIONS = { material: saveMaterial, cell: saveCell, rateCard: saveRateCard } as const;
 const NUMBERS: Record<keyof typeof ACTIONS, NumberField[]> = { material: MATERIAL_FIELDS, cell: CELL_FIELDS, rateCard: RATE_CARD_FIELDS };
 const TEXTS: Record<keyof typeof ACTIONS, { name: string; label: string; long?: boolean; list?: boolean }[]> = {
-  material: [{ name: "key", label: "Key" }, { name: "name", label: "Name" }, { name: "notes", label: "Notes", long: true }, { name: "source", label: "Source of the figures", long: true }],
-  cell: [{ name: "key", label: "Key" }, { name: "name", label: "Name" }, { name: "beadWidthsMm", label: "Bead widths (mm, comma separated)", list: true }, { name: "layerHeightsMm", label: "Layer heights (mm, comma separated)", list: true }, { name: "holidays", label: "Closed dates (YYYY-MM-DD, comma separated)", list: true }],
-  rateCard: [{ name: "key", label: "Key" }, { name: "name", label: "Name" }, { name: "currency", label: "Currency" }, { name: "plantTimeZone", label: "Plant time zone (IANA id)" }, { name: "holidays", label: "Plant closed dates (YYYY-MM-DD, comma separated)", list: true }, { name: "source", label: "Source of the figures", long: true }],
+  material: [{ name: "key", label: "Catalogue code (CLI and API)" }, { name: "name", label: "Name" }, { name: "notes", label: "Notes", long: true }, { name: "source", label: "Source of the figures", long: true }],
+  cell: [{ name: "key", label: "Catalogue code (CLI and API)" }, { name: "name", label: "Name" }, { name: "beadWidthsMm", label: "Bead widths (mm, comma separated)", list: true }, { name: "layerHeightsMm", label: "Layer heights (mm, comma separated)", list: true }, { name: "holidays", label: "Closed dates (YYYY-MM-DD, comma separated)", list: true }],
+  rateCard: [{ name: "key", label: "Catalogue code (CLI and API)" }, { name: "name", label: "Name" }, { name: "currency", label: "Currency" }, { name: "plantTimeZone", label: "Plant time zone (IANA id)" }, { name: "holidays", label: "Plant closed dates (YYYY-MM-DD, comma separated)", list: true }, { name: "source", label: "Source of the figures", long: true }],
 };
 const DAYS = ["Sun", "Mon", "Tue", "Wed", "Thu", "Fri", "Sat"];
 
 /** One form for a catalogue entry; saving makes a new version, the old one stays for old quotes. */
 export function ParamsForm({ kind, initial, idPrefix, keyLocked }: { kind: keyof typeof ACTIONS; initial: Record<string, unknown>; idPrefix: string; keyLocked?: boolean }) {
   const router = useRouter();
-  const [values, setValues] = useState<Record<string, unknown>>(initial);
+  // Money and shares are edited as dollars and percent; the action receives cents and basis points.
+  const [values, setValues] = useState<Record<string, unknown>>(() => {
+    const shown = { ...initial };
+    for (const f of NUMBERS[kind]) if (typeof initial[f.name] === "number") shown[f.name] = toShown(f, initial[f.name] as number);
+    return shown;
+  });
   const [errors, setErrors] = useState<Record<string, string[]>>({});
   const [msg, setMsg] = useState<{ tone: "ok" | "error"; text: string } | null>(null);
   const [pending, start] = useTransition();
@@ -31,7 +36,9 @@ export function ParamsForm({ kind, initial, idPrefix, keyLocked }: { kind: keyof
       onSubmit={(e) => {
         e.preventDefault();
         start(async () => {
-          const r = await ACTIONS[kind](values);
+          const stored = { ...values };
+          for (const f of NUMBERS[kind]) stored[f.name] = fromShown(f, values[f.name]);
+          const r = await ACTIONS[kind](stored);
           if (!r.ok) {
             setErrors(r.fieldErrors ?? {});
             return setMsg({ tone: "error", text: r.message });
@@ -55,7 +62,7 @@ export function ParamsForm({ kind, initial, idPrefix, keyLocked }: { kind: keyof
       </div>
       <div className="grid grid-cols-2 gap-3 sm:grid-cols-3 lg:grid-cols-4">
         {NUMBERS[kind].map((f) => (
-          <Field key={f.name} label={`${f.label} (${f.unit})`} htmlFor={`${idPrefix}-${f.name}`} error={errors[f.name]?.[0]}>
+          <Field key={f.name} label={`${f.label} (${shownUnit(f)})`} htmlFor={`${idPrefix}-${f.name}`} error={errors[f.name]?.[0]}>
             <Input id={`${idPrefix}-${f.name}`} inputMode="decimal" value={str(values[f.name])} aria-invalid={Boolean(errors[f.name])} onChange={(e) => set(f.name, e.target.value)} />
           </Field>
         ))}

@@ -6,7 +6,9 @@ import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { EmptyState, Skeleton } from "@/components/ui/card";
 import { BOARD_COLUMNS, BOARD_PAGE } from "@/lib/orders/board";
-import { dateText, stageText } from "./format";
+import { StageBadge } from "@/components/stage-badge";
+import type { Stage } from "@/db/schema/common";
+import { dateText } from "./format";
 import { useApi } from "./use-api";
 
 interface BoardCard {
@@ -14,8 +16,8 @@ interface BoardCard {
   reference: string;
   projectName: string;
   firmName: string;
-  stage: string;
-  heldFromStage: string | null;
+  stage: Stage;
+  heldFromStage: Stage | null;
   isControlled: boolean;
   plannedShip: string | null;
 }
@@ -88,7 +90,7 @@ function Column({ column }: { column: BoardColumn }) {
               <span className="block truncate text-xs text-ink-500">{r.projectName}</span>
               <span className="block truncate text-xs text-ink-400">{r.firmName}</span>
               <span className="mt-1 flex flex-wrap gap-1">
-                <Badge tone={r.stage === "deposit_paid" ? "ok" : "neutral"}>{stageText(r.stage)}{r.heldFromStage ? ` (${stageText(r.heldFromStage)})` : ""}</Badge>
+                <StageBadge stage={r.stage} heldFrom={r.heldFromStage} />
                 {r.isControlled ? <Badge tone="danger">controlled</Badge> : null}
               </span>
               {r.plannedShip ? <span className="mt-1 block text-xs text-ink-500">ships {dateText(r.plannedShip)}</span> : null}

@@ -6,7 +6,9 @@ import { Card } from "@/components/ui/card";
 import { formatCents } from "@/lib/money";
 import { dateText, hoursText } from "./format";
 import { Pager } from "./pager";
-import { StatusBadge } from "./stage-badge";
+import { QuoteStateBadge } from "@/components/stage-badge";
+import { Badge } from "@/components/ui/badge";
+import { QUOTE_STATE_LABEL, type QuoteState } from "@/lib/labels";
 import { useServerTable } from "./use-server-table";
 
 interface QuoteRow {
@@ -16,7 +18,7 @@ interface QuoteRow {
   projectName: string;
   firmName: string;
   version: number;
-  status: string;
+  status: QuoteState;
   isStale: boolean;
   totalCents: number;
   currency: string;
@@ -36,13 +38,13 @@ const columns: ColumnDef<QuoteRow, unknown>[] = [
   { accessorKey: "reference", header: "Request", cell: ({ row }) => <Link className="font-medium text-kiln-700 underline" href={`/admin/sales/requests/${row.original.requestId}`}>{row.original.reference}</Link> },
   { accessorKey: "version", header: "Version", enableSorting: false, cell: ({ getValue }) => `v${getValue() as number}` },
   { accessorKey: "firmName", header: "Firm", enableSorting: false },
-  { accessorKey: "status", header: "Status", cell: ({ row }) => <span className="flex gap-1"><StatusBadge value={row.original.status} />{row.original.isStale ? <StatusBadge value="stale" /> : null}</span> },
+  { accessorKey: "status", header: "Status", cell: ({ row }) => <span className="flex gap-1"><QuoteStateBadge state={row.original.status} />{row.original.isStale ? <Badge tone="warn">Out of date</Badge> : null}</span> },
   { accessorKey: "totalCents", header: "Total", cell: ({ row }) => <span className="figures">{formatCents(row.original.totalCents, row.original.currency)}</span> },
   { accessorKey: "issuedAt", header: "Issued", cell: ({ getValue }) => dateText(getValue() as string | null) },
   { accessorKey: "validUntil", header: "Valid until", enableSorting: false, cell: ({ getValue }) => dateText(getValue() as string | null) },
 ];
 
-const STATUSES = ["draft", "issued", "accepted", "expired", "declined", "superseded"];
+const STATUSES: QuoteState[] = ["draft", "issued", "accepted", "expired", "declined", "superseded"];
 
 /** Quotes by status, sorted and paged on the server, with the win rate and turnaround above. */
 export function QuotesTable() {
@@ -74,7 +76,7 @@ export function QuotesTable() {
         label="Quotes"
         columns={columns}
         {...table}
-        filters={[{ columnId: "status", label: "Status", options: STATUSES.map((v) => ({ value: v, label: v })) }]}
+        filters={[{ columnId: "status", label: "Status", options: STATUSES.map((v) => ({ value: v, label: QUOTE_STATE_LABEL[v] })) }]}
         searchPlaceholder="Search reference, project, firm"
         empty={{ title: "No quotes yet", body: "Quotes appear here once a request is priced." }}
       />

@@ -71,7 +71,7 @@ export function ReconciliationView() {
               <Badge tone={KIND[f.kind].tone}>{KIND[f.kind].label}</Badge>
               <span className="font-medium">{f.subject}{f.reference ? ` · ${f.reference}` : ""}</span>
               <span className="figures text-ink-600">ours {f.oursCents === null ? "—" : formatCents(f.oursCents)} · processor {f.theirsCents === null ? "—" : formatCents(f.theirsCents)}</span>
-              <span className="text-ink-500 sm:flex-1">{f.note}{f.processorId ? ` (${f.processorId})` : ""}</span>
+              <span className="text-ink-500 sm:flex-1">{f.note}{f.processorId ? <span className="block break-all font-mono text-xs">processor reference {f.processorId}</span> : null}</span>
               {f.paymentId && f.reference ? <Link className="text-kiln-700 underline" href={`/admin/accounts/payments/${f.paymentId}`}>Open payment</Link> : null}
             </li>
           ))}

@@ -5,6 +5,7 @@ import { useState, useTransition } from "react";
 import { refundPayment } from "@/app/admin/accounts/actions";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input, Textarea } from "@/components/ui/input";
+import { PAYMENT_STATE_LABEL } from "@/lib/labels";
 import { formatCents } from "@/lib/money";
 import { parseMoneyToCents } from "@/lib/quoting/lines";
 
@@ -30,7 +31,7 @@ export function RefundForm({ paymentId, refundableCents, currency }: { paymentId
             return setMsg({ tone: "error", text: r.message });
           }
           setErrors({});
-          setMsg({ tone: "ok", text: `Refund of ${formatCents(cents ?? 0, currency)} sent; the payment is now ${r.data.status.replace("_", " ")}.` });
+          setMsg({ tone: "ok", text: `Refund of ${formatCents(cents ?? 0, currency)} sent; the payment is now “${PAYMENT_STATE_LABEL[r.data.status]}”.` });
           setKey(crypto.randomUUID());
           setReason("");
           router.refresh();

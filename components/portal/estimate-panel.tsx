@@ -195,7 +195,7 @@ export function EstimatePanel({
             <p>
               Split along {r.split.axis} into {r.split.pieces} pieces of about{" "}
               {formatLength(r.split.pieceLengthMm, units, 0)}; each then fits
-              the {r.split.cell} cell with{" "}
+              the {r.fits.find((f) => f.cell === r.split!.cell)?.cellName ?? "largest"} cell with{" "}
               {formatLength(r.split.marginMm, units, 0)} to spare. We can
               discuss the joint design with you.
             </p>

@@ -3,15 +3,17 @@
 import Link from "next/link";
 import { useState, useSyncExternalStore } from "react";
 import { payOrder } from "@/app/(portal)/portal/requests/[id]/actions";
-import { Badge } from "@/components/ui/badge";
+import { PaymentStateBadge } from "@/components/stage-badge";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/input";
+import { PAYMENT_KIND_LABEL, type PaymentState } from "@/lib/labels";
 import { formatCents } from "@/lib/money";
 
 export interface PaymentView {
   id: string;
   kind: "deposit" | "balance";
-  status: string;
+  status: PaymentState;
+  receiptNumber: string | null;
   amountCents: number;
   currency: string;
   createdAt: string;
@@ -19,12 +21,11 @@ export interface PaymentView {
 }
 
 const day = (iso: string | null) => (iso ? new Date(iso).toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" }) : "—");
-const TONE: Record<string, "ok" | "warn" | "neutral" | "danger" | "info"> = { paid: "ok", pending: "info", expired: "neutral", failed: "danger", refunded: "warn", partially_refunded: "warn" };
 
 const noSubscription = () => () => {};
 
 /**
- * The pay button: one click opens one Checkout Session (the server reuses an open one). It stays
+ * The pay button: one click opens one payment page (the server reuses an open one). It stays
  * disabled until the page is interactive: a click before that would be lost without a word.
  */
 export function PayButton({ orderId, kind, amountCents, currency }: { orderId: string; kind: "deposit" | "balance"; amountCents: number; currency: string }) {
@@ -63,13 +64,13 @@ export function PaymentsList({ payments }: { payments: PaymentView[] }) {
     <ul className="divide-y divide-paper-200 text-sm">
       {payments.map((p) => (
         <li key={p.id} className="flex flex-wrap items-center gap-x-3 gap-y-1 py-2">
-          <span className="font-medium capitalize">{p.kind}</span>
+          <span className="font-medium">{PAYMENT_KIND_LABEL[p.kind]}</span>
           <span className="figures">{formatCents(p.amountCents, p.currency)}</span>
-          <Badge tone={TONE[p.status] ?? "neutral"}>{p.status.replace("_", " ")}</Badge>
+          <PaymentStateBadge state={p.status} />
           <span className="text-xs text-ink-500">{p.paidAt ? `paid ${day(p.paidAt)}` : `opened ${day(p.createdAt)}`}</span>
           {p.status === "paid" || p.status.includes("refunded") ? (
             <Link href={`/portal/payments/${p.id}`} className="ml-auto text-kiln-700 underline">
-              Receipt
+              Receipt{p.receiptNumber ? ` ${p.receiptNumber}` : ""}
             </Link>
           ) : null}
         </li>

@@ -2,6 +2,7 @@
 
 import { useState } from "react";
 import { acceptQuote } from "@/app/(portal)/portal/requests/[id]/actions";
+import { QuoteStateBadge } from "@/components/stage-badge";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { Card, CardTitle, EmptyState } from "@/components/ui/card";
@@ -12,8 +13,6 @@ import { FigureKind } from "./estimate-panel";
 import { day, quoteChanges, type QuoteView } from "./quote-changes";
 
 export type { QuoteView };
-
-const STATUS_TONE = { issued: "accent", accepted: "ok", superseded: "neutral", expired: "warn", declined: "danger", draft: "neutral" } as const;
 
 function AcceptForm({ quote, defaultPo }: { quote: QuoteView; defaultPo: string }) {
   const [po, setPo] = useState(defaultPo);
@@ -79,7 +78,7 @@ export function QuotesSection({ quotes, canAccept, defaultPo, now }: { quotes: Q
           <section key={q.id} className="space-y-3 border-t border-paper-200 pt-4 first:border-0 first:pt-0" aria-label={`Quote version ${q.version}`}>
             <div className="flex flex-wrap items-center gap-2">
               <h3 className="font-semibold text-ink-800">Version {q.version}</h3>
-              <Badge tone={expired ? "warn" : STATUS_TONE[q.status]}>{expired ? "expired" : q.status}</Badge>
+              <QuoteStateBadge state={expired ? "expired" : q.status} />
               <FigureKind kind="quote" />
               {q.isStale ? <Badge tone="warn">Files changed since this quote</Badge> : null}
               <span className="text-xs text-ink-500">

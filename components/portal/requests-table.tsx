@@ -10,7 +10,8 @@ import { Badge } from "@/components/ui/badge";
 import { STAGES, type Stage } from "@/db/schema/common";
 import { formatCents } from "@/lib/money";
 import { fetchJson } from "./query-provider";
-import { STAGE_LABEL, StageBadge } from "./stage-badge";
+import { StageBadge } from "@/components/stage-badge";
+import { STAGE_LABEL } from "@/lib/labels";
 
 export interface PortalRow {
   id: string;

@@ -1,7 +1,7 @@
 import type { Stage } from "@/db/schema/common";
 import { FLOW } from "@/lib/orders/stages";
 import { cn } from "@/components/ui/cn";
-import { STAGE_LABEL } from "./stage-badge";
+import { STAGE_LABEL } from "@/lib/labels";
 
 export interface TimelineEvent {
   toStage: Stage;

@@ -31,6 +31,9 @@ const ledgerColumns = {
   currency: payments.currency,
   paymentIntentId: payments.paymentIntentId,
   chargeId: payments.chargeId,
+  receiptNumber: payments.receiptNumber,
+  /** What accounts staff quote to the processor: its id of the payment (the charge, else the intent). */
+  processorReference: sql<string | null>`coalesce(${payments.chargeId}, ${payments.paymentIntentId})`,
   createdAt: payments.createdAt,
   paidAt: payments.paidAt,
 };
@@ -90,6 +93,7 @@ export async function ledgerForPeriod(db: Db, from: Date, to: Date) {
       reason: refunds.reason,
       status: refunds.status,
       stripeRefundId: refunds.stripeRefundId,
+      receiptNumber: payments.receiptNumber,
       createdAt: refunds.createdAt,
       reference: requests.reference,
       firmName: organisations.name,

@@ -1,6 +1,7 @@
-import { and, desc, eq, inArray, isNull, ne, or } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNotNull, isNull, like, ne, or, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { orders, payments, requests, webhookEvents, type PaymentStatus } from "../schema";
+import { RECEIPT_SERIES, nextReceiptNumber, receiptYear } from "../../lib/payments/receipt-number";
 import type { Tx } from "./audit";
 
 export type PaymentKind = "deposit" | "balance";
@@ -37,6 +38,7 @@ const paymentColumns = {
   checkoutSessionId: payments.checkoutSessionId,
   checkoutUrl: payments.checkoutUrl,
   receiptUrl: payments.receiptUrl,
+  receiptNumber: payments.receiptNumber,
   createdAt: payments.createdAt,
   paidAt: payments.paidAt,
 };
@@ -117,12 +119,41 @@ export async function markPaymentPaid(
   fields: { checkoutSessionId: string; paymentIntentId: string | null; chargeId?: string | null; receiptUrl?: string | null; paidAt: Date },
 ) {
   const done: PaymentStatus[] = ["paid", "refunded", "partially_refunded"];
+  // Numbered in this transaction: the unique index refuses a number given twice, and a payment
+  // already paid (the guard below) keeps the one it has.
+  const receiptNumber = await allocateReceiptNumber(tx, fields.paidAt);
   const rows = await tx
     .update(payments)
-    .set({ status: "paid", checkoutUrl: null, ...fields })
+    .set({ status: "paid", checkoutUrl: null, ...fields, receiptNumber })
     .where(and(eq(payments.id, paymentId), ...done.map((s) => ne(payments.status, s))))
     .returning({ id: payments.id });
   return rows.length === 1;
+}
+
+/** The next receipt number of the year `paidAt` falls in; call it inside the writing transaction. */
+export async function allocateReceiptNumber(tx: Db | Tx, paidAt: Date): Promise<string> {
+  const year = receiptYear(paidAt);
+  const [last] = await tx
+    .select({ n: payments.receiptNumber })
+    .from(payments)
+    .where(like(payments.receiptNumber, `${RECEIPT_SERIES}-${year}-%`))
+    .orderBy(desc(sql`length(${payments.receiptNumber})`), desc(payments.receiptNumber))
+    .limit(1);
+  return nextReceiptNumber(year, last?.n ?? null);
+}
+
+/** Give a receipt number to every received payment that has none, in the order they were paid. */
+export async function numberUnnumberedReceipts(tx: Db | Tx): Promise<number> {
+  const done: PaymentStatus[] = ["paid", "refunded", "partially_refunded"];
+  const rows = await tx
+    .select({ id: payments.id, paidAt: payments.paidAt })
+    .from(payments)
+    .where(and(isNull(payments.receiptNumber), isNotNull(payments.paidAt), inArray(payments.status, done)))
+    .orderBy(asc(payments.paidAt), asc(payments.id));
+  for (const r of rows) {
+    await tx.update(payments).set({ receiptNumber: await allocateReceiptNumber(tx, r.paidAt!) }).where(eq(payments.id, r.id));
+  }
+  return rows.length;
 }
 
 /** A session that expired (or was abandoned): the payment is closed; the next "pay" opens a new one. */

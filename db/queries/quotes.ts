@@ -36,6 +36,7 @@ export async function getRequestForSales(db: Db | Tx, requestId: string) {
       firmName: organisations.name,
       createdById: requests.createdById,
       stage: requests.stage,
+      heldFromStage: requests.heldFromStage,
       neededBy: requests.neededBy,
       submittedAt: requests.submittedAt,
       cureProcess: requests.cureProcess,

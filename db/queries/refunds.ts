@@ -30,7 +30,7 @@ export async function completeRefund(tx: Tx, refundId: string, paymentId: string
     .set({ refundedCents: sql`${payments.refundedCents} + ${amountCents}` })
     .where(eq(payments.id, paymentId))
     .returning({ amountCents: payments.amountCents, refundedCents: payments.refundedCents });
-  const status = p!.refundedCents >= p!.amountCents ? "refunded" : "partially_refunded";
+  const status: "refunded" | "partially_refunded" = p!.refundedCents >= p!.amountCents ? "refunded" : "partially_refunded";
   await tx.update(payments).set({ status }).where(eq(payments.id, paymentId));
   return { ...p!, status };
 }

@@ -28,7 +28,8 @@ export async function actualVsEstimate(db: Db) {
   for (const r of rows) {
     const parts = await partsWithEstimates(db, r.requestId);
     const est = estimateTotals(parts);
-    const material = [...new Set(parts.map((p) => p.materialKey))].join(" + ");
+    // By the material's name as the estimate recorded it (the catalogue key when there is none).
+    const material = [...new Set(parts.map((p) => (p.estimate?.material as { name?: string } | undefined)?.name ?? p.materialKey))].join(" + ");
     perOrder.push({ ...r, material, estimate: est });
     const bucket = byMaterial.get(material) ?? { print: [], kg: [], machining: [] };
     if (r.actualPrintHours != null) bucket.print.push({ estimate: est.printHours, actual: r.actualPrintHours });

@@ -28,12 +28,15 @@ export const payments = sqliteTable(
     paymentIntentId: text("payment_intent_id"),
     chargeId: text("charge_id"),
     receiptUrl: text("receipt_url"),
+    /** The bureau's own receipt number (`RC-<year>-<five digits>`), given when the money arrives. */
+    receiptNumber: text("receipt_number"),
     createdById: text("created_by_id").references(() => users.id),
     createdAt: createdAt(),
     paidAt: ts("paid_at"),
   },
   (t) => [
     uniqueIndex("payments_checkout_session_uq").on(t.checkoutSessionId),
+    uniqueIndex("payments_receipt_number_uq").on(t.receiptNumber),
     index("payments_order_idx").on(t.orderId),
     index("payments_org_idx").on(t.orgId),
   ],

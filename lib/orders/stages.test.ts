@@ -39,7 +39,7 @@ describe("checkTransition: every pair of stages", () => {
 describe("checkTransition: reasons and holds", () => {
   it("refuses skipping printing and says where the order goes", () => {
     const r = checkTransition("scheduled", "machining");
-    expect(r).toEqual({ ok: false, reason: "From scheduled the order goes to printing, not machining." });
+    expect(r).toEqual({ ok: false, reason: "From “Scheduled” the order goes to “Printing”, not “Machining”." });
   });
   it("returns a held order only to where it was", () => {
     for (const stage of HOLDABLE) {

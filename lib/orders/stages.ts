@@ -1,4 +1,5 @@
 import { STAGES, type Role, type Stage } from "../../db/schema/common";
+import { STAGE_LABEL } from "../labels";
 
 /**
  * The order's life (DESIGN.md) as a pure state machine. `next` lists the forward moves; on_hold
@@ -40,10 +41,10 @@ export function checkTransition(from: Stage, to: Stage, heldFrom?: Stage | null)
   if (to === "cancelled") {
     return CANCELLABLE.has(from)
       ? { ok: true }
-      : { ok: false, reason: `An order can not be cancelled once it is ${label(from)}; put it on hold and talk to the client.` };
+      : { ok: false, reason: `An order at ${label(from)} can not be cancelled; put it on hold and talk to the client.` };
   }
   if (to === "on_hold") {
-    return HOLDABLE.has(from) ? { ok: true } : { ok: false, reason: `An order that is ${label(from)} can not be put on hold.` };
+    return HOLDABLE.has(from) ? { ok: true } : { ok: false, reason: `An order at ${label(from)} can not be put on hold.` };
   }
   if (from === "on_hold") {
     if (!heldFrom) return { ok: false, reason: "The stage before the hold is unknown." };
@@ -66,8 +67,9 @@ export function roleMayMove(role: Role, from: Stage, to: Stage): boolean {
   return false;
 }
 
+/** A stage's name quoted inside a sentence (the words of lib/labels.ts). */
 export function label(stage: Stage): string {
-  return stage.replace("_", " ");
+  return `“${STAGE_LABEL[stage]}”`;
 }
 
 /** Where the order stands on the forward flow (for timelines): index, or -1 when held or cancelled. */

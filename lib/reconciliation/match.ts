@@ -3,6 +3,8 @@
  * one finding per payment, charge and refund out. Amounts in integer cents.
  */
 
+import { PAYMENT_STATE_LABEL } from "../labels";
+
 export interface LedgerPayment {
   id: string;
   orderId: string;
@@ -120,12 +122,12 @@ export function reconcile(input: ReconcileInput): Finding[] {
     const theirsOk = charge && charge.status === "succeeded";
     if (!MONEY_MOVED.has(p.status)) {
       if (theirsOk) {
-        findings.push({ ...base, kind: "missing_ours", processorId: charge.id, theirsCents: charge.amount, differences: [], note: `The processor took this ${p.kind}, but our ledger still says ${p.status}.` });
+        findings.push({ ...base, kind: "missing_ours", processorId: charge.id, theirsCents: charge.amount, differences: [], note: `The processor took this ${p.kind}, but our ledger still says “${PAYMENT_STATE_LABEL[p.status]}”.` });
       }
       continue;
     }
     if (!theirsOk) {
-      findings.push({ ...base, kind: "missing_theirs", processorId: charge?.id ?? null, theirsCents: null, differences: [], note: `Our ledger says this ${p.kind} was paid; the processor has no succeeded charge for it.` });
+      findings.push({ ...base, kind: "missing_theirs", processorId: charge?.id ?? null, theirsCents: null, differences: [], note: `Our ledger says this ${p.kind} was paid; the processor has no completed payment for it.` });
       continue;
     }
     const differences: Difference[] = [];

@@ -15,14 +15,32 @@ export interface NumberField {
   max?: number;
   /** Must be above zero (densities, rates that divide). */
   positive?: boolean;
+  /**
+   * How the form shows the stored value: stored ÷ divisor, in `unit` (cents as dollars, basis
+   * points as percent). The server and the API keep the stored unit.
+   */
+  display?: { unit: string; divisor: number };
 }
+
+/** The unit a form shows for a field. */
+export const shownUnit = (f: NumberField) => f.display?.unit ?? f.unit;
+/** A stored value as the form shows it, and back (rounded to the stored unit's whole numbers when `int`). */
+export const toShown = (f: NumberField, stored: number) => (f.display ? stored / f.display.divisor : stored);
+export function fromShown(f: NumberField, shown: unknown): unknown {
+  if (!f.display || shown === "" || shown === null || shown === undefined) return shown;
+  const v = Number(shown);
+  if (!Number.isFinite(v)) return shown;
+  const stored = v * f.display.divisor;
+  return f.int ? Math.round(stored) : stored;
+}
+
 
 const nonNeg = (f: NumberField) => {
   let s = z.coerce.number({ error: `${f.label}: enter a number.` }).refine(Number.isFinite, `${f.label}: enter a number.`);
   if (f.int) s = s.refine(Number.isInteger, `${f.label}: a whole number, please.`);
-  s = s.refine((v) => v >= (f.min ?? 0), f.min !== undefined ? `${f.label} can not be below ${f.min}.` : `${f.label} can not be negative.`);
+  s = s.refine((v) => v >= (f.min ?? 0), f.min !== undefined ? `${f.label} can not be below ${toShown(f, f.min)} ${shownUnit(f)}.` : `${f.label} can not be negative.`);
   if (f.positive) s = s.refine((v) => v > 0, `${f.label} must be above zero.`);
-  if (f.max !== undefined) s = s.refine((v) => v <= f.max!, `${f.label} can not exceed ${f.max}.`);
+  if (f.max !== undefined) s = s.refine((v) => v <= f.max!, `${f.label} can not exceed ${toShown(f, f.max)} ${shownUnit(f)}.`);
   return s;
 };
 
@@ -34,12 +52,12 @@ const keyRule = z.string().trim().regex(/^[a-z0-9][a-z0-9-]{1,40}$/, "Key: lower
 const text = (label: string, max = 200) => z.string().trim().min(1, `${label}: required.`).max(max);
 
 export const RATE_CARD_FIELDS: NumberField[] = [
-  { name: "printRateCentsPerH", label: "Print rate", unit: "¢/h", int: true },
-  { name: "dwellRateCentsPerH", label: "Dwell rate", unit: "¢/h", int: true },
-  { name: "machiningRateCentsPerH", label: "Machining rate", unit: "¢/h", int: true },
-  { name: "engineeringRateCentsPerH", label: "Engineering rate", unit: "¢/h", int: true },
+  { name: "printRateCentsPerH", label: "Print rate", unit: "¢/h", display: { unit: "$/h", divisor: 100 }, int: true },
+  { name: "dwellRateCentsPerH", label: "Dwell rate", unit: "¢/h", display: { unit: "$/h", divisor: 100 }, int: true },
+  { name: "machiningRateCentsPerH", label: "Machining rate", unit: "¢/h", display: { unit: "$/h", divisor: 100 }, int: true },
+  { name: "engineeringRateCentsPerH", label: "Engineering rate", unit: "¢/h", display: { unit: "$/h", divisor: 100 }, int: true },
   { name: "engineeringHoursPerPart", label: "Engineering hours per part", unit: "h" },
-  { name: "setupFeeCents", label: "Setup fee", unit: "¢", int: true },
+  { name: "setupFeeCents", label: "Setup fee", unit: "¢", display: { unit: "$", divisor: 100 }, int: true },
   { name: "purgeKg", label: "Purge per build", unit: "kg" },
   { name: "startupScrapFraction", label: "Start-up scrap", unit: "fraction", max: 1 },
   { name: "roughingRemovalMm3PerMin", label: "Roughing removal rate", unit: "mm³/min", positive: true },
@@ -49,17 +67,17 @@ export const RATE_CARD_FIELDS: NumberField[] = [
   { name: "toolChangeMinutes", label: "Tool change time", unit: "min" },
   { name: "toolChangeCount", label: "Tool changes", unit: "count", int: true },
   { name: "machiningSetupHours", label: "Machining setup", unit: "h" },
-  { name: "sealingCoatCentsPerM2", label: "Sealing coat", unit: "¢/m²", int: true },
-  { name: "vacuumTestCents", label: "Vacuum-integrity test", unit: "¢/part", int: true },
-  { name: "crateBaseCents", label: "Crate base", unit: "¢", int: true },
-  { name: "crateCentsPerKg", label: "Crate per kg", unit: "¢/kg", int: true },
-  { name: "crateCentsPerM3", label: "Crate per m³", unit: "¢/m³", int: true },
+  { name: "sealingCoatCentsPerM2", label: "Sealing coat", unit: "¢/m²", display: { unit: "$/m²", divisor: 100 }, int: true },
+  { name: "vacuumTestCents", label: "Vacuum-integrity test", unit: "¢/part", display: { unit: "$/part", divisor: 100 }, int: true },
+  { name: "crateBaseCents", label: "Crate base", unit: "¢", display: { unit: "$", divisor: 100 }, int: true },
+  { name: "crateCentsPerKg", label: "Crate per kg", unit: "¢/kg", display: { unit: "$/kg", divisor: 100 }, int: true },
+  { name: "crateCentsPerM3", label: "Crate per m³", unit: "¢/m³", display: { unit: "$/m³", divisor: 100 }, int: true },
   { name: "cratePaddingMm", label: "Crate padding per side", unit: "mm" },
-  { name: "freightBaseCents", label: "Freight base", unit: "¢", int: true },
-  { name: "freightCentsPerKg", label: "Freight per kg", unit: "¢/kg", int: true },
-  { name: "marginBp", label: "Margin", unit: "bp", int: true, max: 50_000 },
-  { name: "taxBp", label: "Tax", unit: "bp", int: true, max: 10_000 },
-  { name: "depositBp", label: "Deposit share", unit: "bp", int: true, max: 10_000 },
+  { name: "freightBaseCents", label: "Freight base", unit: "¢", display: { unit: "$", divisor: 100 }, int: true },
+  { name: "freightCentsPerKg", label: "Freight per kg", unit: "¢/kg", display: { unit: "$/kg", divisor: 100 }, int: true },
+  { name: "marginBp", label: "Margin", unit: "bp", display: { unit: "%", divisor: 100 }, int: true, max: 50_000 },
+  { name: "taxBp", label: "Tax", unit: "bp", display: { unit: "%", divisor: 100 }, int: true, max: 10_000 },
+  { name: "depositBp", label: "Deposit share", unit: "bp", display: { unit: "%", divisor: 100 }, int: true, max: 10_000 },
   { name: "quoteValidityDays", label: "Quote validity", unit: "days", int: true, min: 1, max: 365 },
   { name: "defaultAllowanceMm", label: "Default finish allowance", unit: "mm", max: 100 },
   { name: "coolingHoursBase", label: "Cooling base", unit: "h" },
@@ -111,7 +129,7 @@ export const rateCardSchema = z.object({
 
 export const MATERIAL_FIELDS: NumberField[] = [
   { name: "densityGPerCm3", label: "Density", unit: "g/cm³", positive: true, max: 5 },
-  { name: "pricePerKgCents", label: "Price per kg", unit: "¢/kg", int: true },
+  { name: "pricePerKgCents", label: "Price per kg", unit: "¢/kg", display: { unit: "$/kg", divisor: 100 }, int: true },
   { name: "meltTempMinC", label: "Melt temperature, low", unit: "°C" },
   { name: "meltTempMaxC", label: "Melt temperature, high", unit: "°C" },
   { name: "dryingTempC", label: "Drying temperature", unit: "°C" },

@@ -40,12 +40,15 @@ export function renderCheckoutPage(session: StripeObject, opts: { error?: string
   .notice { color:var(--tide); background:#ecf6f5; border:1px solid #cfe9e6; border-radius:.3rem; padding:.5rem .75rem; margin-bottom:1rem; }
   .hint { margin-top:1rem; font-size:13px; color:var(--ink5); } code { font-family:ui-monospace, monospace; }
   a { color:var(--tide); }
+  .brand { display:flex; align-items:center; gap:.5rem; margin-bottom:1rem; color:var(--ink5); font-size:14px; } .brand strong { color:var(--ink); }
 </style></head>
 <body>
 <div class="band" role="note">LOCAL TEST PAYMENT PAGE — served by the development fake; no card is charged and no money moves</div>
-<main><div class="card">
+<main>
+<header class="brand"><svg viewBox="0 0 32 32" width="28" height="28" aria-hidden="true"><rect x="3" y="21" width="22" height="6" rx="3" fill="#d9692a"/><rect x="6" y="13.5" width="20" height="6" rx="3" fill="#e98a4c"/><rect x="9" y="6" width="18" height="6" rx="3" fill="#fadfcb"/><path d="M27 4v25" stroke="#242b33" stroke-width="2.4" stroke-linecap="round"/></svg><span><strong>Layerwright</strong> · local test payment</span></header>
+<div class="card">
   <h1>Pay ${esc(total)}</h1>
-  <p class="muted">${session.customer_email ? `Receipt to ${esc(session.customer_email)} · ` : ""}reference ${esc(session.id.slice(0, 20))}…</p>
+  <p class="muted">${session.customer_email ? `Confirmation to ${esc(session.customer_email)}` : "A card payment to the bureau"}</p>
   <ul>${items}</ul>
   <div class="total"><span>Total</span><span>${esc(total)}</span></div>
   ${opts.error ? `<div class="error" role="alert">${esc(opts.error)}</div>` : ""}
@@ -61,7 +64,9 @@ export function renderCheckoutPage(session: StripeObject, opts: { error?: string
       : `<p>This payment is ${session.status === "complete" ? "complete" : "no longer open"}.</p>`
   }
   ${session.cancel_url && open ? `<p class="hint"><a href="${esc(session.cancel_url)}" id="cancel">Cancel and go back</a></p>` : ""}
-</div></main>
+</div>
+<p class="hint">This page stands in for the card processor's payment page while Layerwright runs on this machine. With the hosted service configured, clients pay on the processor's own page instead.</p>
+</main>
 </body></html>`;
 }
 

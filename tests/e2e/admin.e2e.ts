@@ -86,8 +86,8 @@ describe("back office journeys", () => {
       for await (const chunk of s) out += chunk;
       return out;
     });
-    expect(csv.split("\r\n")[0]).toMatch(/^date_utc,entry,kind,order_reference/);
-    expect(csv).toMatch(/,refund,.*-100\.00/);
+    expect(csv.split("\r\n")[0]).toMatch(/^Date \(UTC\),Entry,Kind,Order,Firm,Status,Amount,Fee,Refunded,Currency,Receipt number,Processor reference,Reason$/);
+    expect(csv).toMatch(/,Refund,.*-100\.00/);
     await page.context().close();
   }, 120_000);
 });

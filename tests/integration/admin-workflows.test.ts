@@ -313,7 +313,7 @@ describe("accounts: reconciliation and refunds against the payment fake", () => 
     res = await GET(new Request(`http://t/api/admin/reconciliation?${period}`));
     const findings = ((await res.json()) as { findings: { kind: string; paymentId: string | null; subject: string }[] }).findings.filter((f) => f.paymentId === p!.id);
     expect(findings.map((f) => `${f.subject}:${f.kind}`).sort()).toEqual(["payment:matched", "refund:matched"]);
-    expect((await db.select().from(auditLog).where(eq(auditLog.action, "refund.succeeded"))).length).toBe(1);
+    expect((await db.select().from(auditLog).where(eq(auditLog.action, "refund.made"))).length).toBe(1);
   });
 
   it("exports the ledger of a date range as CSV", async () => {
@@ -322,8 +322,8 @@ describe("accounts: reconciliation and refunds against the payment fake", () => 
     const res = await GET(new Request(`http://t/api/admin/ledger/export?${period}`));
     expect(res.headers.get("content-type")).toMatch(/text\/csv/);
     const lines = (await res.text()).trim().split("\r\n");
-    expect(lines[0]).toMatch(/^date_utc,entry,kind,order_reference/);
-    expect(lines.some((l) => l.includes(",refund,"))).toBe(true);
+    expect(lines[0]).toMatch(/^Date \(UTC\),Entry,Kind,Order,Firm,Status,Amount,Fee,Refunded,Currency,Receipt number,Processor reference,Reason$/);
+    expect(lines.some((l) => l.includes(",Refund,"))).toBe(true);
     const bad = await GET(new Request("http://t/api/admin/ledger/export?from=2027-02-01&to=2027-01-01"));
     expect(bad.status).toBe(400);
   });

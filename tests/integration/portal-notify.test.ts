@@ -79,7 +79,13 @@ describe("notify", () => {
 
     const [paid] = await db.select().from(payments).where(eq(payments.orderId, sh.id));
     await n.notifyDepositReceived(paid!.id);
-    expect((await lastMail()).subject).toMatch(new RegExp(`received for ${shipped.reference}$`));
+    const receipt = await lastMail();
+    expect(receipt.subject).toMatch(new RegExp(`received for ${shipped.reference}$`));
+    // Our receipt number and our receipt page; none of the processor's ids.
+    expect(paid!.receiptNumber).toMatch(/^RC-\d{4}-\d{5}$/);
+    expect(norm(receipt.text)).toContain(`Receipt ${paid!.receiptNumber}`);
+    expect(norm(receipt.text)).toContain(`/portal/payments/${paid!.id}`);
+    expect(receipt.text).not.toMatch(/\b(pi|ch|cs_test|re)_/);
   });
 
   it("throws for an unknown id, so the caller can log it", async () => {

@@ -4,6 +4,7 @@ import { revalidatePath } from "next/cache";
 import { writeAudit } from "@/db/queries/audit";
 import { completeRefund, failRefund, getPaymentRow, getRefundByKey, insertPendingRefund, refundedOrPendingCents } from "@/db/queries/refunds";
 import { AppError } from "@/lib/errors";
+import { PAYMENT_STATE_LABEL } from "@/lib/labels";
 import { formatCents } from "@/lib/money";
 import { createRefund } from "@/lib/payments/stripe";
 import { defineAction } from "@/lib/server/define-action";
@@ -20,7 +21,7 @@ export const refundPayment = defineAction({ access: "accounts:refund", input: re
   if (await getRefundByKey(db, input.idempotencyKey)) throw new AppError("conflict:duplicate", "This refund was already submitted; it was not sent again.");
   const payment = await getPaymentRow(db, input.paymentId);
   if (!payment) throw new AppError("not_found:payment", "That payment was not found.");
-  if (!REFUNDABLE.has(payment.status) || !payment.paymentIntentId) throw new AppError("conflict:payment", `A ${payment.status.replace("_", " ")} payment can not be refunded.`);
+  if (!REFUNDABLE.has(payment.status) || !payment.paymentIntentId) throw new AppError("conflict:payment", `A payment that is ${PAYMENT_STATE_LABEL[payment.status].toLowerCase()} can not be refunded.`);
 
   const refundId = await db.transaction(async (tx) => {
     const taken = await refundedOrPendingCents(tx, payment.id);
@@ -62,12 +63,12 @@ export const refundPayment = defineAction({ access: "accounts:refund", input: re
     const p = await completeRefund(tx, refundId, payment.id, processorRefund.id, input.amountCents);
     await writeAudit(tx, {
       actorId: user.id,
-      action: "refund.succeeded",
+      action: "refund.made",
       entityType: "payment",
       entityId: payment.id,
       orgId: payment.orgId,
       before: { refundedCents: payment.refundedCents, status: payment.status },
-      after: { refundId, stripeRefundId: processorRefund.id, refundedCents: p.refundedCents, status: p.status },
+      after: { refundId, processorReference: processorRefund.id, refundedCents: p.refundedCents, status: p.status },
     });
     return p;
   });

@@ -10,7 +10,7 @@ import { releaseCellBlocks } from "@/db/queries/schedule-blocks";
 import { transitionStage } from "@/db/queries/stages";
 import { notifyBalanceDue, notifyScheduled, notifyShipped } from "@/lib/email/notify";
 import { AppError } from "@/lib/errors";
-import { roleMayMove } from "@/lib/orders/stages";
+import { label, roleMayMove } from "@/lib/orders/stages";
 import { findConflicts, jobDurations, planBlocks } from "@/lib/scheduling/blocks";
 import { anyRecord, defineAction, fieldErrorsByPath } from "@/lib/server/define-action";
 import { actualsSchema, isConfirmedMove, moveStageSchema, scheduleSchema } from "@/lib/validation/admin-production";
@@ -34,7 +34,7 @@ export const scheduleOrder = defineAction({ access: "production:schedule", input
   if (!order) throw new AppError("not_found:order", "That order was not found.");
   const stage = order.request.stage;
   if (stage !== "deposit_paid" && stage !== "scheduled") {
-    throw new AppError("conflict:stage", stage === "accepted" ? "The deposit is not paid yet; only paid orders are scheduled." : `The order is ${stage.replace("_", " ")}; only paid orders waiting to print can be (re)scheduled.`);
+    throw new AppError("conflict:stage", stage === "accepted" ? "The deposit is not paid yet; only paid orders are scheduled." : `The order is at ${label(stage)}; only paid orders waiting to print can be (re)scheduled.`);
   }
   const cell = await getCurrentCell(db, input.cellKey);
   if (!cell || !cell.isActive) throw new AppError("not_found:cell", "That printing cell was not found or is out of service.");
@@ -90,7 +90,7 @@ export const moveStage = defineAction({ access: "production:record", input: move
   const order = await getOrderForProduction(db, input.orderId);
   if (!order) throw new AppError("not_found:order", "That order was not found.");
   const from = order.request.stage;
-  if (!roleMayMove(user.role, from, input.to)) throw new AppError("forbidden:stage", `Your role does not move orders from ${from.replace("_", " ")} to ${input.to.replace("_", " ")}.`);
+  if (!roleMayMove(user.role, from, input.to)) throw new AppError("forbidden:stage", `Your role does not move orders from ${label(from)} to ${label(input.to)}.`);
   if (input.to === "scheduled" && from !== "on_hold") throw new AppError("conflict:stage", "Schedule the order on a cell's calendar; that moves it to scheduled.");
   if (input.to === "shipped" && (!order.order.carrier || !order.order.trackingNumber)) {
     throw new AppError("conflict:shipping", "Record the carrier and tracking number before marking the order shipped.");

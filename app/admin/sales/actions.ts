@@ -5,6 +5,7 @@ import { writeAudit } from "@/db/queries/audit";
 import { getCurrentRateCard } from "@/db/queries/catalogue";
 import { createDraftQuote, createStaffMessage, getQuote, getRequestForSales, hasOrder, markIssued, updateDraftQuote } from "@/db/queries/quotes";
 import { transitionStage } from "@/db/queries/stages";
+import { label } from "@/lib/orders/stages";
 import { notifyQuoteReady, notifyStaffMessage } from "@/lib/email/notify";
 import { AppError } from "@/lib/errors";
 import { checkLines, quoteTotals, validUntil } from "@/lib/quoting/lines";
@@ -21,7 +22,7 @@ const QUOTABLE = new Set(["submitted", "quoted"]);
 export const saveQuote = defineAction({ access: "quote:manage", input: saveQuoteSchema }, async (input, { user, db }) => {
     const sales = await getRequestForSales(db, input.requestId);
     if (!sales) throw new AppError("not_found:request", "That request was not found.");
-    if (!QUOTABLE.has(sales.request.stage)) throw new AppError("conflict:stage", `The request is ${sales.request.stage.replace("_", " ")}; it can not be quoted now.`);
+    if (!QUOTABLE.has(sales.request.stage)) throw new AppError("conflict:stage", `The request is at ${label(sales.request.stage)}; it can not be quoted now.`);
     if (await hasOrder(db, input.requestId)) throw new AppError("conflict:order", "This request already has an order; it can not be re-quoted.");
 
     const problems = checkLines(input.lines);

@@ -60,7 +60,7 @@ export const uploadRouter = {
     .middleware(() => guardUpload((u) => hasPermission(u, "message:post") || isStaff(u.role)))
     .onUploadComplete(({ metadata, file }) => saveUpload("attachment", metadata, file)),
 
-  inspectionReport: f({ blob: { maxFileSize: UPLOAD_LIMITS.inspectionReport.maxFileSize, maxFileCount: 4 } })
+  inspectionReport: f({ blob: { maxFileSize: UPLOAD_LIMITS.inspectionReport.maxFileSize, maxFileCount: 1 } })
     .middleware(() => guardUpload((u) => hasPermission(u, "production:record")))
     .onUploadComplete(({ metadata, file }) => saveUpload("inspection_report", metadata, file)),
 } satisfies FileRouter;

@@ -2,9 +2,10 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { getDb } from "@/db/client";
 import { listPaymentsForOrg } from "@/db/queries/payments";
-import { Badge } from "@/components/ui/badge";
+import { PaymentStateBadge } from "@/components/stage-badge";
 import { EmptyState, PageHeader } from "@/components/ui/card";
 import { pagePermission } from "@/lib/auth/page-guard";
+import { PAYMENT_KIND_LABEL } from "@/lib/labels";
 import { formatCents } from "@/lib/money";
 
 export const metadata: Metadata = { title: "Payments" };
@@ -42,16 +43,16 @@ export default async function PaymentsPage() {
                     </Link>
                     <span className="block text-xs text-ink-500">{p.projectName}</span>
                   </td>
-                  <td className="px-4 py-2 capitalize">{p.kind}</td>
+                  <td className="px-4 py-2">{PAYMENT_KIND_LABEL[p.kind]}</td>
                   <td className="figures px-4 py-2 text-right">{formatCents(p.amountCents, p.currency)}</td>
                   <td className="px-4 py-2">
-                    <Badge tone={p.status === "paid" ? "ok" : p.status === "pending" ? "info" : "neutral"}>{p.status.replace("_", " ")}</Badge>
+                    <PaymentStateBadge state={p.status} />
                   </td>
                   <td className="whitespace-nowrap px-4 py-2">{day(p.paidAt)}</td>
                   <td className="px-4 py-2">
                     {p.status === "paid" || p.status.includes("refunded") ? (
-                      <Link href={`/portal/payments/${p.id}`} className="text-kiln-700 underline">
-                        View
+                      <Link href={`/portal/payments/${p.id}`} className="whitespace-nowrap font-mono text-kiln-700 underline">
+                        {p.receiptNumber ?? "View"}
                       </Link>
                     ) : (
                       "—"

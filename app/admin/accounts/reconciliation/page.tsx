@@ -11,7 +11,7 @@ export default async function ReconciliationPage() {
   await pagePermission("accounts:ledger", "/admin/accounts/reconciliation");
   return (
     <>
-      <PageHeader title="Reconciliation" subtitle="Our ledger against the processor's charges, payment intents, balance transactions and refunds." actions={<ButtonLink href="/admin/accounts" variant="secondary">Ledger</ButtonLink>} />
+      <PageHeader title="Reconciliation" subtitle="Our ledger against the card processor's records: payments received, their fees, and refunds." actions={<ButtonLink href="/admin/accounts" variant="secondary">Ledger</ButtonLink>} />
       <ReconciliationView />
     </>
   );

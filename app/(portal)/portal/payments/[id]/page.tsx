@@ -5,6 +5,7 @@ import { getOrderWithRequest, getPayment } from "@/db/queries/payments";
 import { Card, PageHeader } from "@/components/ui/card";
 import { assertCanSee } from "@/lib/auth/guard";
 import { orPageError, pageUser } from "@/lib/auth/page-guard";
+import { PAYMENT_KIND_LABEL } from "@/lib/labels";
 import { formatCents } from "@/lib/money";
 
 export const metadata: Metadata = { title: "Receipt" };
@@ -12,7 +13,7 @@ export const dynamic = "force-dynamic";
 
 const day = (d: Date | null) => (d ? d.toLocaleDateString("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" }) : "—");
 
-/** Our receipt for one payment (the processor's own receipt link is shown when it gave one). */
+/** Our receipt for one payment, under the bureau's own receipt number. */
 export default async function ReceiptPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const user = await pageUser(`/portal/payments/${id}`);
@@ -27,19 +28,23 @@ export default async function ReceiptPage({ params }: { params: Promise<{ id: st
   const org = await getOrganisation(db, request.orgId);
   return (
     <>
-      <PageHeader title={`Receipt · ${payment.kind}`} subtitle={`${request.reference} · ${request.projectName}`} />
+      <PageHeader title={`Receipt${payment.receiptNumber ? ` ${payment.receiptNumber}` : ""}`} subtitle={`${PAYMENT_KIND_LABEL[payment.kind]} · ${request.reference} · ${request.projectName}`} />
       <Card className="max-w-xl space-y-3 text-sm">
-        <dl className="grid grid-cols-[10rem_1fr] gap-y-2">
+        <dl className="grid grid-cols-[9rem_1fr] gap-y-2 sm:grid-cols-[10rem_1fr]">
+          <dt className="text-ink-500">Receipt number</dt>
+          <dd className="font-mono">{payment.receiptNumber ?? "being issued"}</dd>
           <dt className="text-ink-500">Received from</dt>
           <dd>{org?.name}</dd>
           <dt className="text-ink-500">Received by</dt>
           <dd>Ostrevane Additive Works</dd>
           <dt className="text-ink-500">For</dt>
           <dd>
-            {payment.kind === "deposit" ? "Deposit" : "Balance"} on order {request.reference}, PO {order.poNumber}
+            {PAYMENT_KIND_LABEL[payment.kind]} on order {request.reference}, PO {order.poNumber}
           </dd>
           <dt className="text-ink-500">Amount</dt>
           <dd className="figures font-semibold">{formatCents(payment.amountCents, payment.currency)}</dd>
+          <dt className="text-ink-500">Paid by</dt>
+          <dd>Card</dd>
           {payment.refundedCents > 0 ? (
             <>
               <dt className="text-ink-500">Refunded</dt>
@@ -50,14 +55,8 @@ export default async function ReceiptPage({ params }: { params: Promise<{ id: st
           <dd>{day(payment.paidAt)}</dd>
           <dt className="text-ink-500">Order total</dt>
           <dd className="figures">{formatCents(order.totalCents, order.currency)} (sales-approved quote)</dd>
-          <dt className="text-ink-500">Card payment ref.</dt>
-          <dd className="break-all font-mono text-xs">{payment.paymentIntentId ?? "—"}</dd>
         </dl>
-        {payment.receiptUrl ? (
-          <a href={payment.receiptUrl} className="text-kiln-700 underline" rel="noreferrer">
-            The card processor&rsquo;s receipt
-          </a>
-        ) : null}
+        <p className="text-xs text-ink-500">Quote the receipt number and the order reference in any question about this payment.</p>
       </Card>
     </>
   );

@@ -17,7 +17,7 @@ import { RequestForm } from "@/components/portal/request-form/request-form";
 import { loadDraft, loadFormCatalogue } from "@/components/portal/request-form/load";
 import { clientEstimateOf } from "@/lib/estimating/client-view";
 import { PartReview } from "@/components/portal/request-form/part-review";
-import { StageBadge } from "@/components/portal/stage-badge";
+import { StageBadge } from "@/components/stage-badge";
 import { RevisionUpload } from "@/components/portal/revision-upload";
 import { StageTimeline } from "@/components/portal/timeline";
 import { Alert } from "@/components/ui/alert";
@@ -27,6 +27,7 @@ import { assertCanSee } from "@/lib/auth/guard";
 import { orPageError, pageUser } from "@/lib/auth/page-guard";
 import { can } from "@/lib/auth/policy";
 import type { EstimateResult } from "@/lib/estimating/types";
+import { DOCUMENT_KIND_LABEL } from "@/lib/labels";
 import { formatCents } from "@/lib/money";
 import { formatTemp } from "@/lib/units";
 
@@ -133,7 +134,7 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
                     {order.trackingNumber ? `, tracking ${order.trackingNumber}` : ""}.
                   </p>
                 ) : null}
-                <PaymentsList payments={payments.map((p) => ({ id: p.id, kind: p.kind, status: p.status, amountCents: p.amountCents, currency: p.currency, createdAt: p.createdAt.toISOString(), paidAt: iso(p.paidAt) }))} />
+                <PaymentsList payments={payments.map((p) => ({ id: p.id, kind: p.kind, status: p.status, receiptNumber: p.receiptNumber, amountCents: p.amountCents, currency: p.currency, createdAt: p.createdAt.toISOString(), paidAt: iso(p.paidAt) }))} />
               </Card>
             ) : null}
 
@@ -189,7 +190,7 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
                     .filter((d) => !d.messageId)
                     .map((d) => (
                       <li key={d.id} className="flex items-center gap-2">
-                        <Badge>{d.kind.replace("_", " ")}</Badge>
+                        <Badge>{DOCUMENT_KIND_LABEL[d.kind] ?? d.kind}</Badge>
                         {d.hasFile ? (
                           <a href={`/api/files/${d.id}`} className="text-kiln-700 underline">
                             {d.title}

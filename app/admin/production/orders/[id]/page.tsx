@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { dateText, dateTimeText, hoursText, stageText } from "@/components/admin/format";
 import { ActualsForm, ScheduleForm, StageForm } from "@/components/admin/order-forms";
-import { StatusBadge } from "@/components/admin/stage-badge";
+import { StageBadge } from "@/components/stage-badge";
 import { Alert } from "@/components/ui/alert";
 import { Card, CardTitle, PageHeader } from "@/components/ui/card";
 import { getDb } from "@/db/client";
@@ -49,7 +49,7 @@ export default async function ProductionOrderPage({ params }: { params: Promise<
     <>
       <PageHeader
         title={`${o.request.reference} · ${o.request.projectName}`}
-        subtitle={<span className="flex flex-wrap items-center gap-2">{o.firmName} · PO {o.order.poNumber} · total {formatCents(o.order.totalCents, o.order.currency)} <StatusBadge value={stage} /></span>}
+        subtitle={<span className="flex flex-wrap items-center gap-2">{o.firmName} · PO {o.order.poNumber} · total {formatCents(o.order.totalCents, o.order.currency)} <StageBadge stage={stage} /></span>}
       />
       <div className="grid gap-6 lg:grid-cols-2">
         <div className="min-w-0 space-y-4">

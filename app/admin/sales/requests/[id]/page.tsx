@@ -4,15 +4,16 @@ import { AnalysisPanel } from "@/components/admin/analysis-panel";
 import { dateText } from "@/components/admin/format";
 import { MessageThread } from "@/components/admin/message-thread";
 import { QuoteEditor } from "@/components/admin/quote-editor";
-import { StatusBadge } from "@/components/admin/stage-badge";
+import { QuoteStateBadge, StageBadge } from "@/components/stage-badge";
 import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
 import { Card, CardTitle, PageHeader } from "@/components/ui/card";
 import { getDb } from "@/db/client";
-import { getCurrentRateCard } from "@/db/queries/catalogue";
+import { getCurrentRateCard, listCurrentMaterials } from "@/db/queries/catalogue";
 import { getRequestForSales, listMessages, listQuoteLines, listQuotesForRequest } from "@/db/queries/quotes";
 import { pagePermission } from "@/lib/auth/page-guard";
 import { formatCents } from "@/lib/money";
+import { label } from "@/lib/orders/stages";
 import { linesFromEstimates, type DraftLine, type EstimateCostLine } from "@/lib/quoting/lines";
 
 export const metadata: Metadata = { title: "Request" };
@@ -25,7 +26,8 @@ export default async function SalesRequestPage({ params }: { params: Promise<{ i
   const sales = await getRequestForSales(db, id);
   if (!sales) notFound();
   const { request, parts } = sales;
-  const [quotes, messages, card] = await Promise.all([listQuotesForRequest(db, id), listMessages(db, id), getCurrentRateCard(db)]);
+  const [quotes, messages, card, materials] = await Promise.all([listQuotesForRequest(db, id), listMessages(db, id), getCurrentRateCard(db), listCurrentMaterials(db, { activeOnly: false })]);
+  const materialNames = new Map(materials.map((m) => [m.key, m.params.name]));
   const draft = quotes.find((q) => q.status === "draft");
   const basisAnalysisIds = parts.map((p) => p.analysis?.id).filter((x): x is string => Boolean(x));
   const estimateLines = linesFromEstimates(
@@ -56,7 +58,7 @@ export default async function SalesRequestPage({ params }: { params: Promise<{ i
         subtitle={
           <span className="flex flex-wrap items-center gap-2">
             {request.firmName} · needed by {dateText(request.neededBy)} · submitted {dateText(request.submittedAt)} · cure {request.cureProcess}
-            {request.cureTempC ? ` at ${request.cureTempC} °C` : ""} <StatusBadge value={request.stage} />
+            {request.cureTempC ? ` at ${request.cureTempC} °C` : ""} <StageBadge stage={request.stage} heldFrom={request.heldFromStage} />
             {request.isControlled ? <Badge tone="danger">controlled</Badge> : null}
           </span>
         }
@@ -64,11 +66,11 @@ export default async function SalesRequestPage({ params }: { params: Promise<{ i
       <div className="grid gap-6 lg:grid-cols-[1fr_22rem]">
         <div className="min-w-0 space-y-4">
           {request.notes ? <Alert tone="info" title="Client notes">{request.notes}</Alert> : null}
-          {parts.length === 0 ? <Card><p className="text-sm text-ink-500">This request has no parts.</p></Card> : parts.map((p) => <AnalysisPanel key={p.id} part={p} />)}
+          {parts.length === 0 ? <Card><p className="text-sm text-ink-500">This request has no parts.</p></Card> : parts.map((p) => <AnalysisPanel key={p.id} part={p} materialName={materialNames.get(p.materialKey)} />)}
           {canQuote ? (
             <QuoteEditor key={draft?.id ?? "new"} requestId={id} quoteId={draft?.id} basisAnalysisIds={basisAnalysisIds} initial={initial} isStale={Boolean(draft?.isStale)} />
           ) : (
-            <Alert tone="info" title={`The request is ${request.stage.replace("_", " ")}`}>Quotes are made while a request is submitted or quoted.</Alert>
+            <Alert tone="info" title={`The request is at ${label(request.stage)}`}>Quotes are made while a request is submitted or quoted.</Alert>
           )}
         </div>
         <aside className="space-y-4">
@@ -80,7 +82,7 @@ export default async function SalesRequestPage({ params }: { params: Promise<{ i
               <ul className="mt-2 divide-y divide-paper-200 text-sm">
                 {quotes.map((q) => (
                   <li key={q.id} className="flex items-center justify-between gap-2 py-2">
-                    <span>v{q.version} <StatusBadge value={q.status} /> {q.isStale ? <Badge tone="warn">stale</Badge> : null}</span>
+                    <span>v{q.version} <QuoteStateBadge state={q.status} /> {q.isStale ? <Badge tone="warn">stale</Badge> : null}</span>
                     <span className="figures">{formatCents(q.totalCents, q.currency)}</span>
                   </li>
                 ))}
