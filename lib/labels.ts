@@ -96,6 +96,9 @@ export const QUOTE_STATE_TONE: Record<QuoteState, LabelTone> = {
   declined: "danger",
 };
 
+/** How the client's part is cured in the tool: sets the temperature the tool must take. */
+export const CURE_LABEL: Record<"room" | "oven" | "autoclave", string> = { room: "Room-temperature cure", oven: "Oven cure", autoclave: "Autoclave cure" };
+
 export const PAYMENT_KIND_LABEL: Record<"deposit" | "balance", string> = { deposit: "Deposit", balance: "Balance" };
 
 export const DOCUMENT_KIND_LABEL: Record<string, string> = {

@@ -8,7 +8,7 @@ describe("moveConsequences", () => {
     expect(c.lines.join(" ")).toMatch(/“On hold” on their order's timeline/);
     expect(c.lines.join(" ")).toContain("$8,797.17 received is kept");
     expect(c.lines.join(" ")).toContain("Tall Frame stays booked");
-    expect(c.lines.at(-1)).toBe("Releasing the hold sends it back to printing.");
+    expect(c.lines.at(-1)).toBe("Releasing the hold sends it back to Printing.");
   });
 
   it("a cancel: refunds are left to accounts, booked time is released, it can not be reopened", () => {

@@ -27,7 +27,7 @@ import { assertCanSee } from "@/lib/auth/guard";
 import { orPageError, pageUser } from "@/lib/auth/page-guard";
 import { can } from "@/lib/auth/policy";
 import type { EstimateResult } from "@/lib/estimating/types";
-import { DOCUMENT_KIND_LABEL } from "@/lib/labels";
+import { CURE_LABEL, DOCUMENT_KIND_LABEL } from "@/lib/labels";
 import { formatCents } from "@/lib/money";
 import { formatTemp } from "@/lib/units";
 
@@ -92,7 +92,7 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
             </span>
             {req.isControlled ? <Badge tone="warn">Controlled data</Badge> : null}
             <span>
-              {req.cureProcess} cure{req.cureTempC !== null ? ` at ${formatTemp(req.cureTempC, units)}` : ""} · needed by {day(req.neededBy)}
+              {CURE_LABEL[req.cureProcess]}{req.cureTempC !== null ? ` at ${formatTemp(req.cureTempC, units)}` : ""} · needed by {day(req.neededBy)}
             </span>
           </span>
         }

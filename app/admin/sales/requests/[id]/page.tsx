@@ -14,6 +14,7 @@ import { getRequestForSales, listMessages, listQuoteLines, listQuotesForRequest 
 import { pagePermission } from "@/lib/auth/page-guard";
 import { formatCents } from "@/lib/money";
 import { label } from "@/lib/orders/stages";
+import { CURE_LABEL } from "@/lib/labels";
 import { linesFromEstimates, type DraftLine, type EstimateCostLine } from "@/lib/quoting/lines";
 
 export const metadata: Metadata = { title: "Request" };
@@ -57,7 +58,7 @@ export default async function SalesRequestPage({ params }: { params: Promise<{ i
         title={`${request.reference} · ${request.projectName}`}
         subtitle={
           <span className="flex flex-wrap items-center gap-2">
-            {request.firmName} · needed by {dateText(request.neededBy)} · submitted {dateText(request.submittedAt)} · cure {request.cureProcess}
+            {request.firmName} · needed by {dateText(request.neededBy)} · submitted {dateText(request.submittedAt)} · {CURE_LABEL[request.cureProcess].toLowerCase()}
             {request.cureTempC ? ` at ${request.cureTempC} °C` : ""} <StageBadge stage={request.stage} heldFrom={request.heldFromStage} />
             {request.isControlled ? <Badge tone="danger">controlled</Badge> : null}
           </span>
