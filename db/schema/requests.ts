@@ -37,7 +37,14 @@ export const requests = sqliteTable(
   },
   (t) => [
     uniqueIndex("requests_reference_uq").on(t.reference),
-    index("requests_org_idx").on(t.orgId, t.updatedAt),
+    // the portal list: one index per sort it offers, firm first, id last (its tie-break), so a
+    // page is read in order from the index and stops at its last row (db/queries/requests.ts)
+    index("requests_org_idx").on(t.orgId, t.updatedAt, t.id),
+    index("requests_org_creator_idx").on(t.orgId, t.createdById, t.updatedAt, t.id),
+    index("requests_org_stage_idx").on(t.orgId, t.stage, t.updatedAt, t.id),
+    index("requests_org_reference_idx").on(t.orgId, t.reference),
+    index("requests_org_project_idx").on(t.orgId, t.projectName, t.id),
+    index("requests_org_needed_idx").on(t.orgId, t.neededBy, t.id),
     index("requests_stage_idx").on(t.stage, t.updatedAt),
   ],
 );
