@@ -1,4 +1,4 @@
-import { existsSync, readFileSync, statSync, writeFileSync } from "node:fs";
+import { existsSync, mkdirSync, readFileSync, renameSync, statSync, writeFileSync } from "node:fs";
 import path from "node:path";
 
 /**
@@ -53,7 +53,14 @@ export async function buildBundle(name) {
     external: ["occt-import-js", "@libsql/client"],
     banner: { js: "import { createRequire as __cr } from 'node:module'; const require = __cr(import.meta.url);" },
     logLevel: "warning",
+    write: false,
   });
+  // written aside and renamed into place: a process starting the old bundle meanwhile reads a whole file
+  mkdirSync(path.dirname(outfile), { recursive: true });
+  const code = result.outputFiles.find((f) => f.path === outfile) ?? result.outputFiles[0];
+  const aside = `${outfile}.${process.pid}.tmp`;
+  writeFileSync(aside, code.contents);
+  renameSync(aside, outfile);
   const inputs = Object.keys(result.metafile.inputs).filter((f) => !f.startsWith("node_modules/"));
   writeFileSync(inputsOf(outfile), JSON.stringify(inputs));
   return outfile;
