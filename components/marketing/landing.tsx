@@ -1,10 +1,12 @@
-import Link from "next/link";
 import { Logo } from "@/components/brand/logo";
-import { ButtonLink } from "@/components/ui/button";
-import { getDb } from "@/db/client";
-import { listCurrentCells, listCurrentMaterials } from "@/db/queries/catalogue";
+import { buttonClass } from "@/components/ui/button";
+import type { CellParams, MaterialParams } from "@/lib/estimating/types";
 
-export const dynamic = "force-dynamic";
+/** The catalogue the landing page shows (current, active rows). */
+export interface LandingCatalogue {
+  cells: { key: string; params: CellParams }[];
+  materials: { key: string; params: MaterialParams }[];
+}
 
 const STEPS = [
   { n: "01", title: "Upload a mesh", text: "STL, OBJ or 3MF exports of your mold, plug or fixture. We measure it on the spot: size, volume, watertightness." },
@@ -17,12 +19,12 @@ function metres(mm: number) {
   return (mm / 1000).toLocaleString("en-US", { maximumFractionDigits: 1 });
 }
 
-export default async function LandingPage() {
-  const db = getDb();
-  const [cellRows, materialRows] = await Promise.all([
-    listCurrentCells(db).catch(() => []),
-    listCurrentMaterials(db).catch(() => []),
-  ]);
+/**
+ * The public landing page's body: plain markup, no hooks and no client component, so it renders
+ * to HTML alone. Served by pages/index.tsx without Next's client runtime (links are plain
+ * anchors; nothing on this page needs JavaScript).
+ */
+export function Landing({ cells: cellRows, materials: materialRows }: LandingCatalogue) {
   const volume = (e: { x: number; y: number; z: number }) => e.x * e.y * e.z;
   const cells = [...cellRows].sort((a, b) => volume(b.params.envelopeMm) - volume(a.params.envelopeMm));
   const materials = [...materialRows].sort((a, b) => a.params.maxServiceTempC - b.params.maxServiceTempC);
@@ -31,12 +33,12 @@ export default async function LandingPage() {
       <header className="mx-auto flex max-w-6xl items-center justify-between px-5 py-5">
         <Logo />
         <nav className="flex items-center gap-2">
-          <Link href="/sign-in" className="px-3 py-2 text-sm font-medium text-ink-700 hover:text-kiln-700">
+          <a href="/sign-in" className="px-3 py-2 text-sm font-medium text-ink-700 hover:text-kiln-700">
             Sign in
-          </Link>
-          <ButtonLink href="/sign-up" size="sm">
+          </a>
+          <a href="/sign-up" className={buttonClass("primary", "sm")}>
             Create an account
-          </ButtonLink>
+          </a>
         </nav>
       </header>
 
@@ -52,12 +54,12 @@ export default async function LandingPage() {
               ship. Then follow the job through printing, machining, inspection and shipping.
             </p>
             <div className="mt-8 flex flex-wrap gap-3">
-              <ButtonLink href="/sign-up" size="lg">
+              <a href="/sign-up" className={buttonClass("primary", "lg")}>
                 Check fit, cost and ship date
-              </ButtonLink>
-              <ButtonLink href="/sign-in" size="lg" variant="secondary">
+              </a>
+              <a href="/sign-in" className={buttonClass("secondary", "lg")}>
                 Sign in
-              </ButtonLink>
+              </a>
             </div>
           </div>
           <div aria-hidden="true" className="relative hidden md:block">
