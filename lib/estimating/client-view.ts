@@ -4,11 +4,12 @@ import type { EstimateResult } from "./types";
  * What a client is shown of an estimate. Alternatives are cell, total and ship date only (the
  * search's reasons and remedies are the bureau's working); a needs-review estimate withholds its
  * price (lines, totals and the alternatives' totals), because the bureau's engineer will quote it.
- * Staff screens and the CLI show the whole result.
+ * Only printable alternatives are offered: a cheaper cell whose plan needs the engineer's review is
+ * not a choice the client can make. Staff screens and the CLI show the whole result.
  */
 export function clientEstimate(r: EstimateResult): EstimateResult & { priceWithheld: boolean } {
   const withheld = (r.status ?? "priced") === "needs-review";
-  const alternatives = (r.alternatives ?? []).map((a) => ({
+  const alternatives = (r.alternatives ?? []).filter((a) => (a.status ?? "priced") === "priced").map((a) => ({
     cell: a.cell, cellName: a.cellName, totalCents: withheld ? 0 : a.totalCents, shipDate: a.shipDate,
   })) as unknown as EstimateResult["alternatives"];
   const base = { ...r, alternatives, remedies: [], priceWithheld: withheld };
