@@ -14,6 +14,18 @@ export const DEMO_PASSWORDS: Record<Role, string> = {
   client: "demo-client-2026",
 };
 
+/**
+ * Demo staff's authenticator secrets (base32; staff must sign in with a code). Add one to an
+ * authenticator app by hand, or print the current code with `npm run demo:code -- EMAIL`; the
+ * browser tests compute codes from them. Invented values, for the demo only.
+ */
+export const DEMO_TOTP_SECRETS: Record<string, string> = {
+  "admin@ostrevane.example": "KRSXG5CBMRWWS3RAIRSW23ZAKNSWG4TF",
+  "sales@ostrevane.example": "KRSXG5CTMFWGK4ZAIRSW23ZAKNSWG4TF",
+  "production@ostrevane.example": "KRSXG5CQOJXWI5LDORUW63RAIRSW23ZA",
+  "accounts@ostrevane.example": "KRSXG5CBMNRW65LOORZSARDFNVXSAU3F",
+};
+
 export const FIRMS = [
   { key: "caldrith", name: "Caldrith Aerostructures", slug: "caldrith-aerostructures", unitsPref: "mm" as const, billingContact: "Accounts payable, Caldrith Aerostructures" },
   { key: "bramblewake", name: "Bramblewake Boatworks", slug: "bramblewake-boatworks", unitsPref: "in" as const, billingContact: "Yard office, Bramblewake Boatworks" },

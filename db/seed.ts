@@ -18,7 +18,7 @@ import { openDb, type Db } from "./client";
 import { numberUnnumberedReceipts } from "./queries/payments";
 import * as s from "./schema";
 import type { Stage } from "./schema/common";
-import { DEMO_PASSWORDS, DEMO_REQUESTS, DEMO_USERS, FIRMS, type DemoMeshKey, type DemoRequest } from "./seed-data";
+import { DEMO_PASSWORDS, DEMO_REQUESTS, DEMO_TOTP_SECRETS, DEMO_USERS, FIRMS, type DemoMeshKey, type DemoRequest } from "./seed-data";
 import { processorRecordsFor, type SeedProcessorRecord } from "./seed-processor";
 import { FileStore } from "../mocks/uploadthing/store";
 
@@ -101,6 +101,8 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
       })
       .returning({ id: s.users.id });
     userIds.set(u.email, row!.id);
+    const totpSecret = DEMO_TOTP_SECRETS[u.email];
+    if (totpSecret) await db.insert(s.twoFactor).values({ userId: row!.id, secret: totpSecret, confirmedAt: now });
     if (u.firm) await db.insert(s.memberships).values({ orgId: orgIds.get(u.firm)!, userId: row!.id });
   }
   const staffId = (email: string) => userIds.get(email)!;
@@ -337,6 +339,7 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
     console.log(`Seeded ${DEMO_USERS.length} users, ${FIRMS.length} firms, ${DEMO_REQUESTS.length} requests.`);
     console.log("Demo accounts (e-mail / password):");
     for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(13)} ${u.email.padEnd(30)} ${DEMO_PASSWORDS[u.role]}`);
+    console.log("Staff also type a code: `npm run demo:code -- EMAIL` prints the current one (or add the secret in db/seed-data.ts to an authenticator app).");
   }
   return { users: DEMO_USERS.length, requests: DEMO_REQUESTS.length, processorRecords };
 }

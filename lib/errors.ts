@@ -1,3 +1,6 @@
+import { errorFields } from "./observability/log";
+import { requestLog } from "./observability/request-id";
+
 /** One error type for expected failures; the code maps to an HTTP status and plain user text. */
 export type AppErrorCode =
   | "unauthenticated"
@@ -7,7 +10,8 @@ export type AppErrorCode =
   | "conflict"
   | "rate_limited"
   | "unavailable"
-  | "payment_failed";
+  | "payment_failed"
+  | "gone";
 
 /**
  * The one table of error → HTTP status. A code's kind (before ":") picks the status; a full code
@@ -22,6 +26,7 @@ const STATUS: Record<AppErrorCode, number> & Record<string, number> = {
   rate_limited: 429,
   unavailable: 503,
   payment_failed: 402,
+  gone: 410,
 };
 
 export class AppError extends Error {
@@ -60,6 +65,7 @@ export type ActionResult<T = undefined> =
 /** Turn an unknown throw into an action result; unexpected errors are logged, shown plainly. */
 export function toActionError(e: unknown): Extract<ActionResult<never>, { ok: false }> {
   if (isAppError(e)) return { ok: false, code: e.code, message: e.message, fieldErrors: e.fieldErrors };
-  console.error(e);
+  // The log line carries the request's id; writing it need not hold up the answer.
+  void requestLog().then((log) => log.error({ ...errorFields(e), event: "action.error" }, "server action failed"));
   return { ok: false, code: "internal", message: "Something went wrong on our side. Nothing was saved; please try again." };
 }

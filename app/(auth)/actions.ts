@@ -27,12 +27,24 @@ export async function signInWithPassword(_prev: FormResult, formData: FormData):
   if (!parsed.success) {
     return { ok: false, code: "invalid_input", message: "Check the highlighted fields.", fieldErrors: fieldErrorsOf(parsed.error) };
   }
-  const { email, password, callbackUrl } = parsed.data;
+  const { email, password, code, callbackUrl } = parsed.data;
   try {
-    await signIn("credentials", { email, password, redirect: false });
+    await signIn("credentials", { email, password, ...(code ? { code } : {}), redirect: false });
   } catch (e) {
     if (e instanceof AuthError) {
-      const locked = (e as AuthError & { code?: string }).code === "locked";
+      const reason = (e as AuthError & { code?: string }).code;
+      if (reason === "code_required") {
+        return { ok: false, code: "code_required", message: "Enter the 6-digit code from your authenticator app, or one of your recovery codes." };
+      }
+      if (reason === "code_invalid") {
+        return {
+          ok: false,
+          code: "code_invalid",
+          message: "That code did not work.",
+          fieldErrors: { code: ["Wrong, expired or already used. Wait for the app's next code and enter it."] },
+        };
+      }
+      const locked = reason === "locked";
       return {
         ok: false,
         code: locked ? "rate_limited" : "unauthenticated",

@@ -17,6 +17,7 @@ const SECTIONS: { href: string; label: string; permission: Permission }[] = [
 export default async function AdminLayout({ children }: { children: React.ReactNode }) {
   const user = await pagePermission("admin:access", "/admin");
   const nav: NavItem[] = SECTIONS.filter((s) => hasPermission(user, s.permission)).map(({ href, label }) => ({ href, label }));
+  nav.push({ href: "/two-factor", label: "Sign-in code" });
   return (
     <AppShell nav={nav} area="Bureau" userLabel={user.name ?? user.email} roleLabel={ROLE_LABELS[user.role] ?? user.role}>
       {children}

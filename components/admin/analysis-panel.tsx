@@ -10,6 +10,7 @@ import type {
 } from "@/lib/estimating/types";
 import { formatCents } from "@/lib/money";
 import { hoursText } from "./format";
+import { RetryAnalysisButton } from "./retry-analysis-button";
 
 type Part = SalesRequest["parts"][number];
 const n = (v: unknown) =>
@@ -72,6 +73,7 @@ export function AnalysisPanel({ part, materialName }: { part: Part; materialName
           }
         >
           {a.errorMessage ?? "The estimate appears here when it finishes."}
+          {a.status === "failed" ? <RetryAnalysisButton analysisId={a.id} /> : null}
         </Alert>
       ) : (
         <>

@@ -1,7 +1,7 @@
 "use client";
 
 import { useState, useTransition } from "react";
-import { inviteStaff, updateStaff } from "@/app/admin/staff/actions";
+import { inviteStaff, resetStaffTwoFactor, updateStaff } from "@/app/admin/staff/actions";
 import { DataTable, type ColumnDef } from "@/components/data-table";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input, Select } from "@/components/ui/input";
@@ -15,6 +15,7 @@ interface StaffRow {
   role: string;
   isControlledCleared: boolean;
   disabledAt: string | null;
+  twoFactorSince: string | null;
 }
 const ROLES = ["sales", "production", "accounts", "admin"];
 
@@ -41,6 +42,33 @@ export function StaffTable({ selfId }: { selfId: string }) {
       ),
     },
     { accessorKey: "isControlledCleared", header: "Controlled work", cell: ({ row }) => <label className="flex items-center gap-2 text-sm"><input type="checkbox" aria-label={`Controlled clearance of ${row.original.email}`} checked={row.original.isControlledCleared} disabled={pending} onChange={(e) => change(row.original.id, { isControlledCleared: e.target.checked })} /> cleared</label> },
+    {
+      accessorKey: "twoFactorSince",
+      header: "Sign-in code",
+      cell: ({ row }) =>
+        row.original.twoFactorSince ? (
+          <span className="flex flex-wrap items-center gap-2 text-sm">
+            App set up {dateText(row.original.twoFactorSince)}
+            <Button
+              variant="ghost"
+              size="sm"
+              disabled={pending}
+              onClick={() => {
+                if (!window.confirm(`Clear ${row.original.email}'s authenticator app? They will set up a new one at their next sign-in.`)) return;
+                start(async () => {
+                  const r = await resetStaffTwoFactor({ userId: row.original.id });
+                  setMsg(r.ok ? { tone: "ok", text: `${row.original.email} will set up a new authenticator app at their next sign-in.` } : { tone: "error", text: r.message });
+                  reload();
+                });
+              }}
+            >
+              Reset
+            </Button>
+          </span>
+        ) : (
+          <span className="text-sm text-ink-500">Not set up yet (asked at next sign-in)</span>
+        ),
+    },
     { accessorKey: "disabledAt", header: "Access", cell: ({ row }) => <Button variant="ghost" size="sm" disabled={pending} onClick={() => change(row.original.id, { disabled: !row.original.disabledAt })}>{row.original.disabledAt ? `Disabled ${dateText(row.original.disabledAt)} — restore` : "Disable"}</Button> },
   ];
   return (

@@ -1,6 +1,6 @@
 import { eq } from "drizzle-orm";
 import type { Db } from "../client";
-import { memberships, signInAttempts, users } from "../schema";
+import { memberships, signInAttempts, twoFactor, users } from "../schema";
 import type { ThrottleState } from "../../lib/auth/throttle";
 
 /** The fields the session and the policy need; never the password hash. */
@@ -15,9 +15,11 @@ export async function getSessionUser(db: Db, userId: string) {
       unitsPref: users.unitsPref,
       disabledAt: users.disabledAt,
       orgId: memberships.orgId,
+      twoFactorConfirmedAt: twoFactor.confirmedAt,
     })
     .from(users)
     .leftJoin(memberships, eq(memberships.userId, users.id))
+    .leftJoin(twoFactor, eq(twoFactor.userId, users.id))
     .where(eq(users.id, userId));
   return row ?? null;
 }

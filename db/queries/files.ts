@@ -20,7 +20,7 @@ export async function getUpload(db: Db | Tx, uploadId: string) {
 /** Add the next revision of a part's file and make it current. */
 export async function addFileRevision(
   tx: Db | Tx,
-  input: { partId: string; uploadId: string; fileKey: string; fileName: string; sizeBytes: number; sha256: string; format: string; uploadedById: string },
+  input: { partId: string; uploadId: string; fileKey: string; fileName: string; sizeBytes: number; sha256: string | null; format: string; uploadedById: string },
 ) {
   const [last] = await tx.select({ n: max(fileRevisions.revision) }).from(fileRevisions).where(eq(fileRevisions.partId, input.partId));
   const revision = (last?.n ?? 0) + 1;

@@ -1,6 +1,6 @@
 import { and, asc, eq, inArray, isNull, ne, sql } from "drizzle-orm";
 import type { Db } from "../client";
-import { STAFF_ROLES, invitations, users } from "../schema";
+import { STAFF_ROLES, invitations, twoFactor, users } from "../schema";
 import type { Tx } from "./audit";
 
 const staffColumns = {
@@ -13,8 +13,14 @@ const staffColumns = {
   createdAt: users.createdAt,
 };
 
+/** Staff with whether each has set up a second factor (the date only, never the secret). */
 export async function listStaff(db: Db) {
-  return db.select(staffColumns).from(users).where(inArray(users.role, [...STAFF_ROLES])).orderBy(asc(users.role), asc(users.email));
+  return db
+    .select({ ...staffColumns, twoFactorSince: twoFactor.confirmedAt })
+    .from(users)
+    .leftJoin(twoFactor, eq(twoFactor.userId, users.id))
+    .where(inArray(users.role, [...STAFF_ROLES]))
+    .orderBy(asc(users.role), asc(users.email));
 }
 
 export async function getStaffUser(db: Db | Tx, userId: string) {

@@ -8,3 +8,5 @@ export * from "./orders";
 export * from "./payments";
 export * from "./records";
 export * from "./change-counters";
+export * from "./two-factor";
+export * from "./retention";

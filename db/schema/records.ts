@@ -1,6 +1,6 @@
 import { index, integer, sqliteTable, text } from "drizzle-orm/sqlite-core";
 import { users } from "./auth";
-import { createdAt, id } from "./common";
+import { createdAt, id, ts } from "./common";
 import { organisations } from "./organisations";
 import { requests } from "./requests";
 
@@ -93,3 +93,36 @@ export const emailOutbox = sqliteTable(
 );
 export type OutboxMessage = typeof emailOutbox.$inferSelect;
 export type NewOutboxMessage = typeof emailOutbox.$inferInsert;
+
+export const EMAIL_JOB_STATUSES = ["queued", "sending", "sent", "failed"] as const;
+
+/**
+ * E-mails to send, as durable jobs: rendered once when queued, sent at once, and on a failure
+ * tried again with growing waits (`nextAttemptAt`) up to a bound, then `failed` for staff to see
+ * and send again. The idempotency key goes with every attempt, so the e-mail API sends it once.
+ */
+export const emailJobs = sqliteTable(
+  "email_jobs",
+  {
+    id: id(),
+    toAddresses: text("to_addresses", { mode: "json" }).$type<string[]>().notNull(),
+    fromAddress: text("from_address"),
+    replyTo: text("reply_to", { mode: "json" }).$type<string[]>(),
+    subject: text("subject").notNull(),
+    html: text("html").notNull(),
+    text: text("text").notNull(),
+    tags: text("tags", { mode: "json" }).$type<{ name: string; value: string }[]>(),
+    idempotencyKey: text("idempotency_key").notNull(),
+    status: text("status", { enum: EMAIL_JOB_STATUSES }).notNull().default("queued"),
+    attempts: integer("attempts").notNull().default(0),
+    nextAttemptAt: ts("next_attempt_at"),
+    /** While `sending`: past this instant another process may take the job over. */
+    leaseUntil: ts("lease_until"),
+    lastError: text("last_error"),
+    providerId: text("provider_id"),
+    createdAt: createdAt(),
+    sentAt: ts("sent_at"),
+  },
+  (t) => [index("email_jobs_status_next_idx").on(t.status, t.nextAttemptAt)],
+);
+export type EmailJob = typeof emailJobs.$inferSelect;

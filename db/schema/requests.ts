@@ -143,9 +143,13 @@ export const analyses = sqliteTable(
     errorCode: text("error_code"),
     errorMessage: text("error_message"),
     rateCardId: text("rate_card_id"),
+    /** Runs started (a run whose process died counts); bounded, then the row ends failed. */
+    attempts: integer("attempts").notNull().default(0),
+    /** A running job's claim: past this instant, a sweeper may take the job over. */
+    leaseUntil: ts("lease_until"),
     createdAt: createdAt(),
     finishedAt: ts("finished_at"),
   },
-  (t) => [index("analyses_revision_idx").on(t.revisionId, t.createdAt)],
+  (t) => [index("analyses_revision_idx").on(t.revisionId, t.createdAt), index("analyses_status_lease_idx").on(t.status, t.leaseUntil)],
 );
 export type Analysis = typeof analyses.$inferSelect;

@@ -1,9 +1,11 @@
 import type { Db } from "../../db/client";
+import { claimAnalysis, getAnalysisJob, listStrandedAnalyses, renewAnalysisLease, requeueAnalysis, resetFailedAnalysis, setRevisionSha256 } from "../../db/queries/analysis-jobs";
 import { loadCatalogue } from "../../db/queries/catalogue";
 import { createAnalysis, getAnalysis, updateAnalysis } from "../../db/queries/parts";
 import type { AnalyseOptions } from "../estimating/analyse";
 import { isEstimateInputError } from "../estimating/errors";
-import { EstimateJobError, getEstimatePool, QueueFullError, type EstimatePool } from "../estimating/pool";
+import { EstimateJobError, getEstimatePool, QueueFullError, type EstimatePool, type QueuePlace } from "../estimating/pool";
+import { errorFields, logFor } from "../observability/log";
 import { signedFileUrl } from "../uploads/uploadthing";
 
 export interface RunDeps {
@@ -13,10 +15,27 @@ export interface RunDeps {
   now?: () => Date;
   /** Waits between retries when the pool's queue is full, ms (tests pass 0). */
   retryDelayMs?: (retryAfterS: number) => number;
+  /** The request that started the job, for the logs. */
+  requestId?: string | null;
 }
 
 /** Largest model the analysis reads, bytes (the upload form states 256 MB). */
 export const MAX_MODEL_BYTES = 256 * 1024 * 1024;
+
+/**
+ * Analyses are durable jobs: a row in `analyses` with a lease. The process running one renews
+ * its lease while it works; if the process dies, the lease runs out and a sweeper (every server
+ * process runs one, on start and on a timer) takes the job over. Each run counts as an attempt;
+ * after MAX_ATTEMPTS the row ends `failed` with a plain message, and staff can retry it.
+ */
+export const MAX_ATTEMPTS = 3;
+export const LEASE_MS = 45_000;
+const HEARTBEAT_MS = 15_000;
+/** A queued job nobody claimed for this long is taken by the sweeper (its request normally starts it at once). */
+export const QUEUED_GRACE_MS = 30_000;
+
+/** Back-off before an interrupted job runs again: 5 s, then 30 s. */
+const retryBackoffMs = (attempt: number) => (attempt <= 1 ? 5_000 : 30_000);
 
 /**
  * Queue an analysis of one file revision and return its id at once; the work runs in the
@@ -28,30 +47,91 @@ export async function startAnalysis(
   input: { revisionId: string; fileKey: string; fileName: string; options: AnalyseOptions },
   deps: RunDeps = {},
 ): Promise<{ analysisId: string; done: Promise<void> }> {
-  const { analysisId } = await (async () => {
-    const cat = await loadCatalogue(db);
-    const row = await createAnalysis(db, { revisionId: input.revisionId, options: { ...input.options }, rateCardId: cat?.rateCardId ?? null });
-    return { analysisId: row.id };
-  })();
-  const done = runAnalysis(db, analysisId, input, deps).catch((e: unknown) => {
-    console.error("analysis crashed", analysisId, e);
-  });
-  return { analysisId, done };
+  const cat = await loadCatalogue(db);
+  const row = await createAnalysis(db, { revisionId: input.revisionId, options: { ...input.options }, rateCardId: cat?.rateCardId ?? null });
+  const done = runAnalysisJob(db, row.id, deps);
+  return { analysisId: row.id, done };
 }
 
-async function runAnalysis(db: Db, analysisId: string, input: { fileKey: string; fileName: string; options: AnalyseOptions }, deps: RunDeps) {
+/** Staff's retry of a failed analysis: attempts start again from zero. False if it was not failed. */
+export async function retryAnalysis(db: Db, analysisId: string, deps: RunDeps = {}): Promise<{ retried: boolean; done: Promise<void> }> {
+  if (!(await resetFailedAnalysis(db, analysisId))) return { retried: false, done: Promise.resolve() };
+  return { retried: true, done: runAnalysisJob(db, analysisId, deps) };
+}
+
+/**
+ * Take over analyses whose process died (lease expired) or that were never started; those out of
+ * attempts end failed. Returns what it did; the runs it started go on in the background.
+ */
+export async function sweepAnalyses(db: Db, deps: RunDeps = {}): Promise<{ resumed: string[]; failed: string[]; done: Promise<void> }> {
+  const now = (deps.now ?? (() => new Date()))();
+  const stranded = await listStrandedAnalyses(db, now, QUEUED_GRACE_MS);
+  const resumed: string[] = [];
+  const failed: string[] = [];
+  const runs: Promise<void>[] = [];
+  for (const job of stranded) {
+    if (job.attempts >= MAX_ATTEMPTS) {
+      await updateAnalysis(db, job.id, {
+        status: "failed",
+        errorCode: "job:abandoned",
+        errorMessage: `The analysis was interrupted ${job.attempts} times and was stopped. Our staff can run it again, or save the draft to retry.`,
+        finishedAt: now,
+        leaseUntil: null,
+      });
+      failed.push(job.id);
+      continue;
+    }
+    resumed.push(job.id);
+    runs.push(runAnalysisJob(db, job.id, deps));
+  }
+  if (resumed.length || failed.length) logFor({ component: "sweeper" }).info({ event: "analysis.sweep", resumed: resumed.length, failed: failed.length }, "analyses taken over");
+  return { resumed, failed, done: Promise.all(runs).then(() => undefined) };
+}
+
+/** Claim one job and run it to an end (done, failed, or back in the queue for another attempt). */
+export async function runAnalysisJob(db: Db, analysisId: string, deps: RunDeps = {}): Promise<void> {
+  const now = deps.now ?? (() => new Date());
+  const log = logFor({ requestId: deps.requestId ?? null, analysisId });
+  const attempt = await claimAnalysis(db, analysisId, now(), LEASE_MS);
+  if (attempt === null) return;
+  const heartbeat = setInterval(() => void renewAnalysisLease(db, analysisId, now(), LEASE_MS).catch(() => undefined), HEARTBEAT_MS);
+  heartbeat.unref();
+  const t0 = performance.now();
+  log.info({ event: "analysis.start", attempt }, "analysis started");
+  try {
+    const outcome = await runOnce(db, analysisId, deps);
+    const ms = Math.round(performance.now() - t0);
+    if (outcome.kind === "retry" && attempt < MAX_ATTEMPTS) {
+      await requeueAnalysis(db, analysisId, new Date(now().getTime() + retryBackoffMs(attempt)), "Interrupted; starting again shortly");
+      log.warn({ event: "analysis.requeued", attempt, ms, code: outcome.code }, "analysis interrupted; queued again");
+    } else if (outcome.kind === "retry" || outcome.kind === "failed") {
+      await updateAnalysis(db, analysisId, { status: "failed", errorCode: outcome.code, errorMessage: outcome.message, finishedAt: now(), leaseUntil: null });
+      log.info({ event: "analysis.failed", attempt, ms, code: outcome.code }, "analysis failed");
+    } else {
+      log.info({ event: "analysis.done", attempt, ms }, "analysis done");
+    }
+  } catch (e) {
+    log.error({ ...errorFields(e), event: "analysis.crash" }, "analysis crashed");
+  } finally {
+    clearInterval(heartbeat);
+  }
+}
+
+type Outcome = { kind: "done" } | { kind: "failed" | "retry"; code: string; message: string };
+
+async function runOnce(db: Db, analysisId: string, deps: RunDeps): Promise<Outcome> {
   const pool = deps.pool ?? getEstimatePool();
   const fileUrl = deps.fileUrl ?? ((k: string) => signedFileUrl(k, { expiresInS: 600 }));
   const now = deps.now ?? (() => new Date());
-  const fail = (code: string, message: string) =>
-    updateAnalysis(db, analysisId, { status: "failed", errorCode: code, errorMessage: message, finishedAt: now() });
-
   try {
-    await updateAnalysis(db, analysisId, { status: "running", progress: 0.02, stageLabel: "Fetching the file" });
+    const job = await getAnalysisJob(db, analysisId);
+    if (!job) return { kind: "failed", code: "internal", message: "The analysis's file revision is gone." };
+    await updateAnalysis(db, analysisId, { progress: 0.02, stageLabel: "Fetching the file" });
     const cat = await loadCatalogue(db);
-    if (!cat) return await fail("catalogue:missing", "The bureau's catalogue is not set up yet; our staff have been told.");
-    // The worker fetches the file itself, off the request thread.
-    const remote = { url: await fileUrl(input.fileKey), maxBytes: MAX_MODEL_BYTES };
+    if (!cat) return { kind: "failed", code: "catalogue:missing", message: "The bureau's catalogue is not set up yet; our staff have been told." };
+    // The worker fetches the file itself, off the request thread, and hashes it.
+    const remote = { url: await fileUrl(job.fileKey), maxBytes: MAX_MODEL_BYTES };
+    const options = job.options as unknown as AnalyseOptions;
 
     // Progress writes are throttled: at most one every 400 ms, and never backwards.
     let lastWrite = 0;
@@ -65,14 +145,20 @@ async function runAnalysis(db: Db, analysisId: string, input: { fileKey: string;
       pending = pending.then(() => updateAnalysis(db, analysisId, { progress: Math.min(0.99, 0.05 + 0.94 * fraction), stageLabel: stage })).catch(() => {});
     };
 
+    // While it waits its firm's turn, the row says where it stands (the browser polls it).
+    const onPlace = ({ ahead, waitS }: QueuePlace) => {
+      const label = ahead === 0 ? "Next in line for the estimator" : `In line for the estimator: ${ahead} ahead, about ${waitS < 60 ? `${Math.max(5, waitS)} s` : `${Math.round(waitS / 60)} min`}`;
+      pending = pending.then(() => updateAnalysis(db, analysisId, { stageLabel: label })).catch(() => {});
+    };
+
     let result;
     for (let attempt = 0; ; attempt++) {
       try {
-        result = await pool.run({ remote, fileName: input.fileName, options: input.options, catalogue: cat, now: now() }, onProgress);
+        result = await pool.run({ remote, fileName: job.fileName, options, catalogue: cat, now: now() }, onProgress, { lane: job.orgId, onPlace });
         break;
       } catch (e) {
         if (e instanceof QueueFullError && attempt < 5) {
-          await updateAnalysis(db, analysisId, { status: "queued", stageLabel: "Waiting for the estimator" });
+          await updateAnalysis(db, analysisId, { stageLabel: "Waiting for the estimator" });
           await new Promise((r) => setTimeout(r, deps.retryDelayMs ? deps.retryDelayMs(e.retryAfterS) : e.retryAfterS * 1000));
           continue;
         }
@@ -80,19 +166,27 @@ async function runAnalysis(db: Db, analysisId: string, input: { fileKey: string;
       }
     }
     await pending;
+    const { fileSha256, ...estimate } = result as typeof result & { fileSha256?: string };
+    if (fileSha256) await setRevisionSha256(db, job.revisionId, fileSha256);
     await updateAnalysis(db, analysisId, {
       status: "done",
       progress: 1,
       stageLabel: "Done",
-      result: result as unknown as Record<string, unknown>,
+      result: estimate as unknown as Record<string, unknown>,
       finishedAt: now(),
+      leaseUntil: null,
     });
+    return { kind: "done" };
   } catch (e) {
-    if (isEstimateInputError(e)) return await fail(e.code, e.message);
-    if (e instanceof EstimateJobError) return await fail(`job:${e.code}`, e.message);
-    if (e instanceof QueueFullError) return await fail("busy", "The estimator is busy; save the draft again in a minute to retry.");
-    console.error("analysis failed", analysisId, e);
-    await fail("internal", "The analysis could not run; please try again, or ask us to look at the file.");
+    if (isEstimateInputError(e)) return { kind: "failed", code: e.code, message: e.message };
+    if (e instanceof EstimateJobError) {
+      // A crashed worker or unreachable storage may go better next time; a time-out will not.
+      const retryable = e.code === "worker-failed" || e.code === "storage";
+      return { kind: retryable ? "retry" : "failed", code: `job:${e.code}`, message: e.message };
+    }
+    if (e instanceof QueueFullError) return { kind: "retry", code: "busy", message: "The estimator is busy; save the draft again in a minute to retry." };
+    logFor({ analysisId }).error({ ...errorFields(e), event: "analysis.error" }, "analysis failed");
+    return { kind: "retry", code: "internal", message: "The analysis could not run; please try again, or ask us to look at the file." };
   }
 }
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { readFileSync } from "node:fs";
 import { asciiStl, binaryStl, box, objFile, threeMf } from "@/mocks/fixtures/meshes";
-import { checkModelUpload, sniffModelFormat } from "./sniff";
+import { checkModelUpload, SNIFF_HEAD_BYTES, sniffModelFormat } from "./sniff";
 
 const cad = (f: string) => new Uint8Array(readFileSync(`mocks/fixtures/cad/${f}`));
 
@@ -44,5 +44,19 @@ describe("checkModelUpload", () => {
   it("refuses unknown extensions and empty files", () => {
     expect(checkModelUpload(binaryStl(box(1, 2, 3)), "part.dwg").ok).toBe(false);
     expect(checkModelUpload(new Uint8Array(), "part.stl").ok).toBe(false);
+  });
+});
+
+describe("sniffing from the head of a file only", () => {
+  it("gives the same answer from the first SNIFF_HEAD_BYTES and the whole length as from the whole file", () => {
+    const whole = binaryStl(box(600, 300, 150));
+    const text = asciiStl(box(10, 10, 10));
+    for (const [bytes, name] of [[whole, "a.stl"], [text, "b.stl"]] as const) {
+      const head = bytes.subarray(0, SNIFF_HEAD_BYTES);
+      expect(checkModelUpload(head, name, bytes.length)).toEqual(checkModelUpload(bytes, name));
+    }
+    // A binary STL whose stated facet count disagrees with the stored length is refused.
+    expect(checkModelUpload(whole.subarray(0, SNIFF_HEAD_BYTES), "a.stl", whole.length + 50).ok).toBe(false);
+    expect(checkModelUpload(new Uint8Array(0), "a.stl", 0)).toMatchObject({ ok: false, message: expect.stringContaining("empty") });
   });
 });

@@ -10,14 +10,21 @@ const ascii = (b: Uint8Array, n: number) => {
   return s;
 };
 
-export function sniffModelFormat(bytes: Uint8Array): SniffedFormat | null {
+/** Bytes of a file's beginning that decide its format (the text formats' first 4 KiB, STL's 84-byte header). */
+export const SNIFF_HEAD_BYTES = 4096;
+
+/**
+ * `bytes` may be the whole file or only its first SNIFF_HEAD_BYTES; `totalBytes` is the whole
+ * file's length (binary STL is recognised by its facet count agreeing with that length).
+ */
+export function sniffModelFormat(bytes: Uint8Array, totalBytes: number = bytes.length): SniffedFormat | null {
   if (bytes.length < 4) return null;
   // ZIP local file header "PK\x03\x04" (APPNOTE 4.3.7): 3MF is an OPC zip package.
   if (bytes[0] === 0x50 && bytes[1] === 0x4b && bytes[2] === 0x03 && bytes[3] === 0x04) return "3mf";
   // Binary STL: 80-byte header, uint32 count, 50 bytes per facet; the size must agree exactly.
   if (bytes.length >= 84) {
     const n = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength).getUint32(80, true);
-    if (n > 0 && 84 + 50 * n === bytes.length) return "stl-binary";
+    if (n > 0 && 84 + 50 * n === totalBytes) return "stl-binary";
   }
   const head = ascii(bytes, 4096).replace(/^\uFEFF|^\xEF\xBB\xBF/, "");
   const trimmed = head.trimStart();
@@ -29,7 +36,7 @@ export function sniffModelFormat(bytes: Uint8Array): SniffedFormat | null {
   if (/^solid\b/i.test(trimmed) && /\bfacet\s+normal\b/i.test(head)) return "stl-ascii";
   if (/^(?:\s*(?:#.*|v|vn|vt|f|o|g|mtllib|usemtl|s)\b.*\r?\n)+/m.test(trimmed) && /^v\s+[-+\d.eE]+\s+/m.test(head)) return "obj";
   // A tiny ASCII STL may carry its first facet after a long name; check the whole text cheaply.
-  if (/^solid\b/i.test(trimmed) && bytes.length < 4096 && /\bendsolid\b/i.test(head)) return "stl-ascii";
+  if (/^solid\b/i.test(trimmed) && totalBytes < 4096 && /\bendsolid\b/i.test(head)) return "stl-ascii";
   return null;
 }
 
@@ -49,12 +56,12 @@ export const MODEL_EXTENSIONS = Object.keys(EXT_FAMILY);
  * Check an uploaded model: the content must be a model format, and agree with the extension
  * (the engine picks its reader from the extension). Returns the format or a plain message.
  */
-export function checkModelUpload(bytes: Uint8Array, fileName: string): { ok: true; format: SniffedFormat } | { ok: false; message: string } {
+export function checkModelUpload(bytes: Uint8Array, fileName: string, totalBytes: number = bytes.length): { ok: true; format: SniffedFormat } | { ok: false; message: string } {
   const ext = fileName.includes(".") ? fileName.slice(fileName.lastIndexOf(".") + 1).toLowerCase() : "";
   const family = EXT_FAMILY[ext];
   if (!family) return { ok: false, message: `“${fileName}” is not a model file we read. Send STL, OBJ, 3MF, STEP (.step, .stp) or IGES (.igs, .iges).` };
-  if (bytes.length === 0) return { ok: false, message: `“${fileName}” is empty.` };
-  const found = sniffModelFormat(bytes);
+  if (totalBytes === 0) return { ok: false, message: `“${fileName}” is empty.` };
+  const found = sniffModelFormat(bytes, totalBytes);
   if (!found) return { ok: false, message: `“${fileName}” does not contain ${ext.toUpperCase()} data: its content is not a model file we recognise.` };
   if (!family.includes(found)) {
     return { ok: false, message: `“${fileName}” is named .${ext} but holds ${found.startsWith("stl") ? "STL" : found.toUpperCase()} data. Rename it to match, or export it again.` };

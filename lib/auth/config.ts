@@ -9,15 +9,25 @@ import { accounts, sessions, users, verificationTokens } from "@/db/schema";
 import MagicLinkEmail from "@/emails/magic-link";
 import { sendEmail } from "@/lib/email/send";
 import { verifyPassword } from "./password";
+import { checkSecondFactor, needsCodeToSignIn } from "./second-factor";
 import { ADDRESS_RULE, afterFailure, EMAIL_RULE, isLocked } from "./throttle";
 
 class LockedSignin extends CredentialsSignin {
   code = "locked";
 }
+/** Password right; the account has a second factor and no code came with it. */
+class CodeRequiredSignin extends CredentialsSignin {
+  code = "code_required";
+}
+/** Password right; the code was wrong, already used, or not a code. */
+class CodeInvalidSignin extends CredentialsSignin {
+  code = "code_invalid";
+}
 
 const credentialsSchema = z.object({
   email: z.email().max(320),
   password: z.string().min(1).max(200),
+  code: z.string().max(40).optional(),
 });
 
 function clientAddress(request: Request | undefined): string {
@@ -43,6 +53,14 @@ async function authorizeCredentials(raw: unknown, request: Request | undefined) 
     await saveThrottle(db, emailKey, afterFailure(emailState, now, EMAIL_RULE));
     await saveThrottle(db, addressKey, afterFailure(addressState, now, ADDRESS_RULE));
     return null;
+  }
+  const secondFactor = await checkSecondFactor(db, user.id, parsed.data.code, now);
+  if (secondFactor === "missing") throw new CodeRequiredSignin();
+  if (secondFactor === "wrong") {
+    // A wrong code counts like a wrong password, so six digits can not be guessed at leisure.
+    await saveThrottle(db, emailKey, afterFailure(emailState, now, EMAIL_RULE));
+    await saveThrottle(db, addressKey, afterFailure(addressState, now, ADDRESS_RULE));
+    throw new CodeInvalidSignin();
   }
   await clearThrottle(db, emailKey);
   return { id: user.id, email: user.email, name: user.name };
@@ -76,6 +94,8 @@ export const authConfig = {
         // Only existing accounts get a link; the page says the same either way.
         const user = await getUserForSignIn(getDb(), identifier);
         if (!user || user.disabledAt) return;
+        // A link would skip the second factor: staff and clients who turned it on sign in with password and code.
+        if (await needsCodeToSignIn(getDb(), user)) return;
         await sendEmail({
           to: identifier,
           subject: "Your Layerwright sign-in link",
@@ -92,7 +112,7 @@ export const authConfig = {
       if (email?.verificationRequest) return true;
       if (account?.provider === "email") {
         const existing = user.email ? await getUserForSignIn(getDb(), user.email) : null;
-        return Boolean(existing && !existing.disabledAt);
+        return Boolean(existing && !existing.disabledAt && !(await needsCodeToSignIn(getDb(), existing)));
       }
       return true;
     },

@@ -5,18 +5,22 @@ import type { Role } from "@/db/schema/common";
 import { AppError } from "@/lib/errors";
 import { canOpenFiles, canSee, hasPermission, type Permission, type PolicyResource, type PolicyUser } from "./policy";
 import { sessionUserId } from "./session";
+import { requiresTwoFactor } from "./two-factor";
 
 export interface CurrentUser extends PolicyUser {
   name: string | null;
   email: string;
   unitsPref: "mm" | "in";
+  /** Has a confirmed second factor (authenticator app). */
+  hasTwoFactor: boolean;
 }
 
 /**
- * The one server-side choke point: who is signed in, loaded fresh from the database (cached for
- * the request). Returns null when signed out or disabled.
+ * Who is signed in, loaded fresh from the database (cached for the request), whether or not they
+ * have finished setting up what their role requires. Only the enrolment page and its actions use
+ * this directly; everything else goes through `getCurrentUser`.
  */
-export const getCurrentUser = cache(async (): Promise<CurrentUser | null> => {
+export const getSignedInUser = cache(async (): Promise<CurrentUser | null> => {
   const id = await sessionUserId();
   if (!id) return null;
   const row = await getSessionUser(getDb(), id);
@@ -29,12 +33,28 @@ export const getCurrentUser = cache(async (): Promise<CurrentUser | null> => {
     orgId: row.orgId ?? null,
     isControlledCleared: row.isControlledCleared,
     unitsPref: row.unitsPref,
+    hasTwoFactor: Boolean(row.twoFactorConfirmedAt),
   };
 });
 
+/** Staff who signed in with a password but have not set up their second factor yet. */
+export function mustEnrolTwoFactor(user: CurrentUser): boolean {
+  return requiresTwoFactor(user.role) && !user.hasTwoFactor;
+}
+
+/**
+ * The one server-side choke point: who is signed in, or null when signed out, disabled, or staff
+ * still without a second factor (who may do nothing until they enrol; pages send them there).
+ */
+export const getCurrentUser = cache(async (): Promise<CurrentUser | null> => {
+  const user = await getSignedInUser();
+  return user && !mustEnrolTwoFactor(user) ? user : null;
+});
+
 export async function requireUser(): Promise<CurrentUser> {
-  const user = await getCurrentUser();
+  const user = await getSignedInUser();
   if (!user) throw new AppError("unauthenticated", "Please sign in.");
+  if (mustEnrolTwoFactor(user)) throw new AppError("forbidden:two_factor", "Set up two-factor sign-in first (/two-factor).");
   return user;
 }
 

@@ -1,7 +1,7 @@
 import { forbidden, notFound, redirect } from "next/navigation";
 import type { Role } from "@/db/schema/common";
 import { isAppError } from "@/lib/errors";
-import { getCurrentUser, type CurrentUser } from "./guard";
+import { getSignedInUser, mustEnrolTwoFactor, type CurrentUser } from "./guard";
 import { hasPermission, type Permission } from "./policy";
 
 /**
@@ -9,8 +9,10 @@ import { hasPermission, type Permission } from "./policy";
  * not visible → 404 page. Pages call these; actions and handlers call guard.ts directly.
  */
 export async function pageUser(next?: string): Promise<CurrentUser> {
-  const user = await getCurrentUser();
+  const user = await getSignedInUser();
   if (!user) redirect(next ? `/sign-in?callbackUrl=${encodeURIComponent(next)}` : "/sign-in");
+  // Staff set up their second factor before anything else.
+  if (mustEnrolTwoFactor(user)) redirect(next ? `/two-factor?callbackUrl=${encodeURIComponent(next)}` : "/two-factor");
   return user;
 }
 

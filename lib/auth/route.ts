@@ -1,6 +1,8 @@
 import { NextResponse } from "next/server";
 import { ZodError } from "zod";
 import { isAppError } from "@/lib/errors";
+import { errorFields } from "@/lib/observability/log";
+import { requestLog } from "@/lib/observability/request-id";
 
 /** Wrap a route handler: AppError → its status and plain message; zod → 400; anything else → logged 500. */
 export function withErrors<A extends unknown[]>(handler: (...args: A) => Promise<Response>) {
@@ -17,7 +19,7 @@ export function withErrors<A extends unknown[]>(handler: (...args: A) => Promise
           { status: 400 },
         );
       }
-      console.error(e);
+      (await requestLog()).error({ ...errorFields(e), event: "route.error" }, "route handler failed");
       return NextResponse.json({ error: { code: "internal", message: "Something went wrong on our side." } }, { status: 500 });
     }
   };

@@ -15,12 +15,13 @@ import StaffMessageEmail from "@/emails/staff-message";
 import { env } from "@/lib/env";
 import { formatCents } from "@/lib/money";
 import { formatMass } from "@/lib/units";
-import { sendEmail } from "./send";
+import { queueEmail } from "./outbox";
 
 /**
- * The client e-mails of the order's life. Each loads what it needs by id and sends through
- * lib/email/send.ts; the idempotency key makes a retried notice go out once. Callers decide
- * whether a failed send should fail their own work (usually not: log and carry on).
+ * The client e-mails of the order's life. Each loads what it needs by id and queues the e-mail
+ * as a durable job (lib/email/outbox.ts): tried at once, retried with back-off when the e-mail
+ * API fails, never dropped; the idempotency key makes a retried notice go out once. They throw
+ * only for an unknown id or a database failure.
  */
 
 const dateText = (d: Date | null | undefined) =>
@@ -49,20 +50,20 @@ export async function notifyRequestReceived(requestId: string, db: Db = getDb())
     estimateTotal: null,
     isControlled: c.isControlled,
   };
-  await sendEmail({
+  await queueEmail({
     to: recipients(c.creatorEmail),
     subject: `Request ${c.reference} received`,
     react: createElement(RequestReceivedEmail, { ...base, url: requestUrl(requestId), forSales: false }),
     tags: [{ name: "template", value: "request-received" }],
     idempotencyKey: `request-received/${requestId}`,
-  });
-  await sendEmail({
+  }, db);
+  await queueEmail({
     to: env().SALES_INBOX,
     subject: `New request ${c.reference} from ${c.firmName}`,
     react: createElement(RequestReceivedEmail, { ...base, url: `${env().APP_URL}/admin/sales/requests/${requestId}`, forSales: true }),
     tags: [{ name: "template", value: "request-received-sales" }],
     idempotencyKey: `request-received-sales/${requestId}`,
-  });
+  }, db);
 }
 
 export async function notifyQuoteReady(quoteId: string, db: Db = getDb()) {
@@ -70,7 +71,7 @@ export async function notifyQuoteReady(quoteId: string, db: Db = getDb()) {
   if (!row) throw new Error(`notify: quote ${quoteId} not found`);
   const { quote } = row;
   const c = await contactsOrThrow(db, row.request.id);
-  await sendEmail({
+  await queueEmail({
     to: recipients(c.creatorEmail),
     subject: `Quote ${quote.version} for ${c.reference} is ready`,
     react: createElement(QuoteReadyEmail, {
@@ -85,7 +86,7 @@ export async function notifyQuoteReady(quoteId: string, db: Db = getDb()) {
     }),
     tags: [{ name: "template", value: "quote-ready" }],
     idempotencyKey: `quote-ready/${quoteId}`,
-  });
+  }, db);
 }
 
 /** A deposit (or balance) payment recorded as paid. */
@@ -96,7 +97,7 @@ export async function notifyDepositReceived(paymentId: string, db: Db = getDb())
   if (!row) throw new Error(`notify: order ${payment.orderId} not found`);
   const c = await contactsOrThrow(db, row.request.id);
   const what = payment.kind === "deposit" ? "Deposit" : "Balance";
-  await sendEmail({
+  await queueEmail({
     to: recipients(c.creatorEmail, c.billingEmail),
     subject: `${what} received for ${c.reference}`,
     react: createElement(DepositReceivedEmail, {
@@ -111,7 +112,7 @@ export async function notifyDepositReceived(paymentId: string, db: Db = getDb())
     }),
     tags: [{ name: "template", value: "deposit-received" }],
     idempotencyKey: `payment-received/${paymentId}`,
-  });
+  }, db);
 }
 
 export async function notifyScheduled(orderId: string, db: Db = getDb()) {
@@ -119,7 +120,7 @@ export async function notifyScheduled(orderId: string, db: Db = getDb()) {
   if (!row) throw new Error(`notify: order ${orderId} not found`);
   const c = await contactsOrThrow(db, row.request.id);
   const start = row.order.plannedStart;
-  await sendEmail({
+  await queueEmail({
     to: recipients(c.creatorEmail),
     subject: `${c.reference} is scheduled`,
     react: createElement(ScheduledEmail, {
@@ -133,7 +134,7 @@ export async function notifyScheduled(orderId: string, db: Db = getDb()) {
     tags: [{ name: "template", value: "scheduled" }],
     // A re-planned order gets a fresh notice with the new dates.
     idempotencyKey: `scheduled/${orderId}/${start?.getTime() ?? "none"}/${row.order.plannedShip?.getTime() ?? "none"}`,
-  });
+  }, db);
 }
 
 export async function notifyShipped(orderId: string, db: Db = getDb()) {
@@ -141,7 +142,7 @@ export async function notifyShipped(orderId: string, db: Db = getDb()) {
   if (!row) throw new Error(`notify: order ${orderId} not found`);
   const c = await contactsOrThrow(db, row.request.id);
   const kg = row.order.actualMaterialKg;
-  await sendEmail({
+  await queueEmail({
     to: recipients(c.creatorEmail, c.billingEmail),
     subject: `${c.reference} has shipped`,
     react: createElement(ShippedEmail, {
@@ -154,14 +155,14 @@ export async function notifyShipped(orderId: string, db: Db = getDb()) {
     }),
     tags: [{ name: "template", value: "shipped" }],
     idempotencyKey: `shipped/${orderId}`,
-  });
+  }, db);
 }
 
 export async function notifyBalanceDue(orderId: string, db: Db = getDb()) {
   const row = await getOrderWithRequest(db, orderId);
   if (!row) throw new Error(`notify: order ${orderId} not found`);
   const c = await contactsOrThrow(db, row.request.id);
-  await sendEmail({
+  await queueEmail({
     to: recipients(c.creatorEmail, c.billingEmail),
     subject: `Balance due for ${c.reference}`,
     react: createElement(BalanceDueEmail, {
@@ -173,7 +174,7 @@ export async function notifyBalanceDue(orderId: string, db: Db = getDb()) {
     }),
     tags: [{ name: "template", value: "balance-due" }],
     idempotencyKey: `balance-due/${orderId}`,
-  });
+  }, db);
 }
 
 /** Longest message body copied into the notice (characters); the rest is read on the request page. */
@@ -190,7 +191,7 @@ export async function notifyStaffMessage(messageId: string, db: Db = getDb()) {
   const to = await listThreadClientEmails(db, m.requestId);
   if (to.length === 0) return;
   const body = c.isControlled ? null : m.body.slice(0, MESSAGE_EXCERPT_CHARS);
-  await sendEmail({
+  await queueEmail({
     to,
     subject: `New message on ${c.reference}`,
     react: createElement(StaffMessageEmail, {
@@ -204,5 +205,5 @@ export async function notifyStaffMessage(messageId: string, db: Db = getDb()) {
     }),
     tags: [{ name: "template", value: "staff-message" }],
     idempotencyKey: `staff-message/${messageId}`,
-  });
+  }, db);
 }

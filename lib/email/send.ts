@@ -103,3 +103,40 @@ export async function sendEmail(input: SendEmailInput, resend: Resend = getResen
   }
   return { id: data.id };
 }
+
+/** An e-mail already rendered (a durable job's stored content). */
+export interface RenderedEmail {
+  to: string[];
+  subject: string;
+  html: string;
+  text: string;
+  tags?: { name: string; value: string }[] | null;
+  from?: string | null;
+  replyTo?: string[] | null;
+  idempotencyKey: string;
+}
+
+export async function renderEmail(input: SendEmailInput): Promise<{ html: string; text: string }> {
+  const html = await render(input.react);
+  const text = input.text ?? (await render(input.react, { plainText: true }));
+  return { html, text };
+}
+
+/** Send pre-rendered content (durable jobs' attempts); throws EmailSendError like `sendEmail`. */
+export async function sendRenderedEmail(input: RenderedEmail, resend: Resend = getResend()): Promise<{ id: string }> {
+  let result: Awaited<ReturnType<Resend["emails"]["send"]>>;
+  try {
+    result = await resend.emails.send(
+      { from: input.from ?? env().EMAIL_FROM, to: input.to, subject: input.subject, html: input.html, text: input.text, tags: input.tags ?? undefined, replyTo: input.replyTo ?? undefined },
+      { idempotencyKey: input.idempotencyKey },
+    );
+  } catch (e) {
+    throw new EmailSendError(`E-mail "${input.subject}" could not be sent: ${(e as Error).message}`, "network_error", null);
+  }
+  const { data, error } = result;
+  if (error || !data) {
+    const statusCode = error && "statusCode" in error ? (error.statusCode as number | null) : null;
+    throw new EmailSendError(`E-mail "${input.subject}" was refused by the e-mail API: ${error?.message ?? "no message id returned"}`, error?.name ?? "unknown", statusCode);
+  }
+  return { id: data.id };
+}

@@ -50,7 +50,7 @@ describe("reservations: room held while a caller prepares its job", () => {
     expect("run" in a && "run" in b).toBe(true);
     // Two held: the pool is full although nothing runs yet.
     expect(pool.isFull).toBe(true);
-    expect(pool.tryReserve("u3")).toEqual({ reason: "full", retryAfterS: pool.retryAfterS });
+    expect(pool.tryReserve("u3")).toEqual({ reason: "full", retryAfterS: pool.retryAfterS, queued: expect.any(Number) });
     await expect(pool.run(input(binaryStl(box(10, 10, 10))))).rejects.toBeInstanceOf(QueueFullError);
     // Giving one back frees its room; a second release does nothing.
     if ("release" in b) { b.release(); b.release(); }
@@ -71,7 +71,7 @@ describe("reservations: room held while a caller prepares its job", () => {
     try {
       const first = p.tryReserve("busy-user");
       const second = p.tryReserve("busy-user");
-      expect(p.tryReserve("busy-user")).toEqual({ reason: "owner", retryAfterS: p.retryAfterS });
+      expect(p.tryReserve("busy-user")).toEqual({ reason: "owner", retryAfterS: p.retryAfterS, queued: expect.any(Number) });
       // Someone else still gets in.
       const other = p.tryReserve("other-user");
       expect("run" in other).toBe(true);

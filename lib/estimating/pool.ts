@@ -1,6 +1,7 @@
 import { Worker } from "node:worker_threads";
 import path from "node:path";
 import { EstimateInputError } from "./errors";
+import { FairQueue } from "./fair-queue";
 import type { AnalyseInput, ProgressFn } from "./analyse";
 import type { EstimateResult, LengthUnit, MeshFormat } from "./types";
 
@@ -40,7 +41,19 @@ export interface PoolOptions {
   workerPath?: string;
   /** Jobs one owner (e.g. a user) may have reserved, waiting or running at once (default 2). */
   maxPerOwner?: number;
+  /**
+   * Jobs one lane (a client firm) may have reserved, waiting or running at once (default: half
+   * the pool's room, so another firm always finds a place).
+   */
+  maxPerLane?: number;
 }
+
+/** Where a waiting job stands: jobs before it in the fair order, and a guess at the wait (s). */
+export interface QueuePlace {
+  ahead: number;
+  waitS: number;
+}
+export type PlaceFn = (place: QueuePlace) => void;
 
 /**
  * A read-only job: the model's triangles in millimetres, for the 3D preview. The file comes in
@@ -79,18 +92,26 @@ export type JobInput = AnalyseInput | (Omit<AnalyseInput, "bytes"> & { remote: R
  * `release` gives it back unused. Either may be called once; further calls do nothing.
  */
 export interface Reservation {
-  run(input: JobInput, onProgress?: ProgressFn): Promise<EstimateResult>;
+  run(input: JobInput, onProgress?: ProgressFn, onPlace?: PlaceFn): Promise<EstimateResult>;
   release(): void;
 }
 
-/** Why `tryReserve` said no: the whole pool is busy, or this owner already has its share. */
-export type Refusal = { reason: "full" | "owner"; retryAfterS: number };
+/**
+ * Why `tryReserve` said no: the whole pool is busy, this owner already has its share, or this
+ * firm already has its share (`lane`); with how many jobs are in line and a guess at the wait.
+ */
+export type Refusal = { reason: "full" | "owner" | "lane"; retryAfterS: number; queued: number };
 
 interface Job {
   id: number;
   input?: JobInput;
   /** Counted against this owner's in-flight limit until the job settles. */
   owner?: string;
+  /** The firm it is for: waiting jobs are served one lane at a time, in turn. */
+  lane?: string;
+  onPlace?: PlaceFn;
+  /** When a worker took it (performance.now()), for the mean job time. */
+  started: { t: number };
   read?: ReadJob;
   onProgress?: ProgressFn;
   resolve: (r: unknown) => void;
@@ -114,13 +135,17 @@ export class EstimatePool {
   private readonly heapMb: number;
   private readonly workerPath: string;
   private readonly slots: Slot[] = [];
-  private readonly queue: Job[] = [];
+  private readonly queue = new FairQueue<Job>();
   private nextId = 1;
   private closed = false;
   private started = 0;
   private reserved = 0;
   private readonly maxPerOwner: number;
   private readonly perOwner = new Map<string, number>();
+  private readonly maxPerLane: number;
+  private readonly perLane = new Map<string, number>();
+  /** Recent job durations, s (a moving average), for the waits told to waiting users. */
+  private meanJobS = 20;
 
   constructor(opts: PoolOptions = {}) {
     this.size = Math.max(1, Math.min(8, opts.size ?? 1));
@@ -129,6 +154,7 @@ export class EstimatePool {
     this.heapMb = opts.maxOldGenerationSizeMb ?? 1024;
     this.workerPath = opts.workerPath ?? defaultWorkerPath();
     this.maxPerOwner = Math.max(1, opts.maxPerOwner ?? 2);
+    this.maxPerLane = Math.max(1, opts.maxPerLane ?? Math.ceil((this.size + this.maxQueue) / 2));
   }
 
   /** Workers started so far (a retired or crashed worker is replaced by a new one). */
@@ -154,11 +180,14 @@ export class EstimatePool {
    * Hold room for one job, or say why not. Synchronous, so the check and the hold are one step:
    * a caller that gets a reservation will not be refused by `run` later.
    */
-  tryReserve(owner?: string): Reservation | Refusal {
-    if (this.closed || this.isFull) return { reason: "full", retryAfterS: this.retryAfterS };
-    if (owner !== undefined && (this.perOwner.get(owner) ?? 0) >= this.maxPerOwner) return { reason: "owner", retryAfterS: this.retryAfterS };
+  tryReserve(owner?: string, lane?: string): Reservation | Refusal {
+    const refusal = (reason: Refusal["reason"]): Refusal => ({ reason, retryAfterS: this.retryAfterS, queued: this.queue.length });
+    if (this.closed || this.isFull) return refusal("full");
+    if (owner !== undefined && (this.perOwner.get(owner) ?? 0) >= this.maxPerOwner) return refusal("owner");
+    if (lane !== undefined && (this.perLane.get(lane) ?? 0) >= this.maxPerLane) return refusal("lane");
     this.reserved += 1;
     if (owner !== undefined) this.perOwner.set(owner, (this.perOwner.get(owner) ?? 0) + 1);
+    if (lane !== undefined) this.perLane.set(lane, (this.perLane.get(lane) ?? 0) + 1);
     let held = true;
     const letGo = () => {
       if (!held) return false;
@@ -167,14 +196,40 @@ export class EstimatePool {
       return true;
     };
     return {
-      run: (input, onProgress) => {
+      run: (input, onProgress, onPlace) => {
         if (!letGo()) return Promise.reject(new Error("this reservation was already used"));
-        return this.submit<EstimateResult>({ input, onProgress, owner }, true);
+        return this.submit<EstimateResult>({ input, onProgress, onPlace, owner, lane }, true);
       },
       release: () => {
-        if (letGo() && owner !== undefined) this.ownerDone(owner);
+        if (!letGo()) return;
+        if (owner !== undefined) this.ownerDone(owner);
+        if (lane !== undefined) this.laneDone(lane);
       },
     };
+  }
+
+  private laneDone(lane: string): void {
+    const n = (this.perLane.get(lane) ?? 1) - 1;
+    if (n <= 0) this.perLane.delete(lane);
+    else this.perLane.set(lane, n);
+  }
+
+  /** A guess at the wait of a job with `ahead` jobs before it in line, s. */
+  waitFor(ahead: number): number {
+    const running = this.slots.filter((s) => s.job).length;
+    // The running jobs are about half done on average; each round of `size` workers takes one mean job.
+    return Math.round(((running > 0 ? 0.5 : 0) + Math.floor(ahead / this.size)) * this.meanJobS);
+  }
+
+  /** Tell every waiting job where it now stands (the queue is short: at most maxQueue jobs). */
+  private tellPlaces(): void {
+    this.queue.order().forEach((job, ahead) => {
+      try {
+        job.onPlace?.({ ahead, waitS: this.waitFor(ahead) });
+      } catch {
+        /* a failing listener must not stop the queue */
+      }
+    });
   }
 
   private ownerDone(owner: string): void {
@@ -193,8 +248,9 @@ export class EstimatePool {
     return { running: this.slots.filter((s) => s.job).length, queued: this.queue.length };
   }
 
-  run(input: JobInput, onProgress?: ProgressFn): Promise<EstimateResult> {
-    return this.submit<EstimateResult>({ input, onProgress });
+  /** Run a job; `lane` (a firm) puts it in that firm's turn of the fair queue. */
+  run(input: JobInput, onProgress?: ProgressFn, opts: { lane?: string; onPlace?: PlaceFn } = {}): Promise<EstimateResult> {
+    return this.submit<EstimateResult>({ input, onProgress, lane: opts.lane, onPlace: opts.onPlace });
   }
 
   /** Read (and for STEP/IGES tessellate) a model in a worker; same queue, limits and errors as `run`. */
@@ -203,10 +259,15 @@ export class EstimatePool {
   }
 
   /** `reserved`: room was already held by a reservation, so the queue bound was checked then. */
-  private submit<T>(work: Pick<Job, "input" | "read" | "onProgress" | "owner">, reserved = false): Promise<T> {
+  private submit<T>(work: Pick<Job, "input" | "read" | "onProgress" | "owner" | "lane" | "onPlace">, reserved = false): Promise<T> {
     const { owner } = work;
+    // A reserved job's lane share was taken at reservation; it is given back when the job settles.
+    const lane = reserved ? work.lane : undefined;
+    const startedAt = { t: 0 };
     const settle = () => {
       if (owner !== undefined) this.ownerDone(owner);
+      if (lane !== undefined) this.laneDone(lane);
+      if (startedAt.t > 0) this.meanJobS = 0.8 * this.meanJobS + 0.2 * ((performance.now() - startedAt.t) / 1000);
     };
     if (this.closed) {
       settle();
@@ -216,6 +277,7 @@ export class EstimatePool {
       const job: Job = {
         id: this.nextId++,
         ...work,
+        started: startedAt,
         resolve: (r) => { settle(); (resolve as (r: unknown) => void)(r); },
         reject: (e) => { settle(); reject(e); },
       };
@@ -227,13 +289,14 @@ export class EstimatePool {
       }
       const idle = this.idleSlot();
       if (idle) { this.start(idle, job); return; }
-      this.queue.push(job);
+      this.queue.push(job.lane ?? job.owner ?? "bureau", job);
+      this.tellPlaces();
     });
   }
 
   async close(): Promise<void> {
     this.closed = true;
-    for (const j of this.queue.splice(0)) j.reject(new Error("the estimate pool is closed"));
+    for (const j of this.queue.drain()) j.reject(new Error("the estimate pool is closed"));
     await Promise.all(this.slots.splice(0).map((s) => { s.job?.reject(new Error("the estimate pool is closed")); if (s.timer) clearTimeout(s.timer); return s.worker.terminate(); }));
   }
 
@@ -295,6 +358,7 @@ export class EstimatePool {
 
   private start(slot: Slot, job: Job): void {
     slot.job = job;
+    job.started.t = performance.now();
     slot.worker.ref();
     slot.timer = setTimeout(() => {
       this.remove(slot);
@@ -318,6 +382,7 @@ export class EstimatePool {
       const slot = this.idleSlot();
       if (!slot) return;
       this.start(slot, this.queue.shift()!);
+      this.tellPlaces();
     }
   }
 }

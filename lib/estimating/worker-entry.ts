@@ -1,3 +1,4 @@
+import { createHash } from "node:crypto";
 import { readlinkSync } from "node:fs";
 import { setPriority } from "node:os";
 import { parentPort } from "node:worker_threads";
@@ -40,8 +41,10 @@ port.on("message", async (msg: { id: number; input: JobInput; read?: undefined }
       return;
     }
     const input: AnalyseInput = "remote" in msg.input ? await fetched(msg.input) : msg.input;
+    // The file's SHA-256 is worked out here, where the whole file is read anyway (the request thread only reads its head).
+    const fileSha256 = "remote" in msg.input && input.bytes ? createHash("sha256").update(input.bytes).digest("hex") : undefined;
     const result = await analyse(input, (fraction, stage) => port.postMessage({ id, type: "progress", fraction, stage }));
-    port.postMessage({ id, type: "result", result, retire: shouldRetire() });
+    port.postMessage({ id, type: "result", result: fileSha256 ? { ...result, fileSha256 } : result, retire: shouldRetire() });
   } catch (e) {
     const err = e as { name?: string; code?: string; message?: string };
     port.postMessage({ id, type: "error", error: { name: err?.name ?? "Error", code: err?.code ?? "internal", message: err?.message ?? String(e) }, retire: shouldRetire() });

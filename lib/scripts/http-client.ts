@@ -5,6 +5,7 @@
  */
 import { readFileSync } from "node:fs";
 import path from "node:path";
+import { demoSignInCode } from "./demo-code";
 
 export class Session {
   private readonly jar = new Map<string, string>();
@@ -38,14 +39,18 @@ export class Session {
     return this.jar.has(name);
   }
 
-  /** Credentials sign-in as the form does (csrf token, then the callback). Returns the callback's answer. */
+  /**
+   * Credentials sign-in as the form does (csrf token, then the callback). Demo staff accounts also
+   * send the code their authenticator app would show (db/seed-data.ts). Returns the callback's answer.
+   */
   async signIn(email: string, password: string, headers: Record<string, string> = {}): Promise<{ ok: boolean; location: string; setCookies: string[] }> {
     const csrfRes = await this.fetch("/api/auth/csrf", { headers });
     const { csrfToken } = (await csrfRes.json()) as { csrfToken: string };
+    const code = await demoSignInCode(email);
     const res = await this.fetch("/api/auth/callback/credentials", {
       method: "POST",
       headers: { "content-type": "application/x-www-form-urlencoded", ...headers },
-      body: new URLSearchParams({ csrfToken, email, password, callbackUrl: `${this.baseUrl}/after-sign-in` }),
+      body: new URLSearchParams({ csrfToken, email, password, ...(code ? { code } : {}), callbackUrl: `${this.baseUrl}/after-sign-in` }),
     });
     await res.arrayBuffer();
     const location = res.headers.get("location") ?? "";

@@ -2,6 +2,8 @@ import { NextResponse } from "next/server";
 import { ZodError, type z } from "zod";
 import { getDb, type Db } from "@/db/client";
 import { AppError, isAppError } from "@/lib/errors";
+import { errorFields } from "@/lib/observability/log";
+import { requestLog } from "@/lib/observability/request-id";
 import { enter, type Access, type UserFor } from "./access";
 
 type Params = Record<string, string | string[]>;
@@ -36,7 +38,8 @@ export function errorResponse(e: unknown): Response {
   if (e instanceof ZodError) {
     return NextResponse.json({ error: { code: "invalid_input", message: "The request was not valid.", fieldErrors: e.flatten().fieldErrors } }, { status: 400 });
   }
-  console.error(e);
+  // Logged with the request's id; the answer says only that it failed.
+  void requestLog().then((log) => log.error({ ...errorFields(e), event: "route.error" }, "route handler failed"));
   return NextResponse.json({ error: { code: "internal", message: "Something went wrong on our side." } }, { status: 500 });
 }
 

@@ -123,3 +123,61 @@ export async function fetchUploadedFile(urlOrKey: string, opts: { maxBytes?: num
     throw e;
   }
 }
+
+/** A stored file opened for reading: its body as a stream, and its length when storage says it. */
+export interface OpenedFile {
+  body: ReadableStream<Uint8Array>;
+  sizeBytes: number | null;
+}
+
+/**
+ * Open a stored file as a stream (the authorized download route pipes it to the browser), so a
+ * large model never sits whole in the server's memory. Throws UploadFetchError when storage
+ * refuses or is unreachable.
+ */
+export async function openUploadedFile(urlOrKey: string, opts: { utApi?: UTApi; timeoutMs?: number } = {}): Promise<OpenedFile> {
+  const ufsUrl = await signedFileUrl(urlOrKey, { utApi: opts.utApi, expiresInS: 60 });
+  const res = await fetch(ufsUrl, { signal: AbortSignal.timeout(opts.timeoutMs ?? 10 * 60_000) }).catch((e: unknown) => {
+    throw new UploadFetchError(`File storage unreachable: ${(e as Error).message}`, null);
+  });
+  if (res.status === 404) throw new UploadFetchError("The stored file was not found.", 404);
+  if (!res.ok || !res.body) throw new UploadFetchError(`File storage answered ${res.status}.`, res.status);
+  const encoded = (res.headers.get("content-encoding") ?? "identity") !== "identity";
+  const declared = Number(res.headers.get("content-length") ?? "");
+  return { body: res.body, sizeBytes: !encoded && Number.isFinite(declared) && declared >= 0 && res.headers.has("content-length") ? declared : null };
+}
+
+/**
+ * The first `maxBytes` of a stored file and its whole length, reading no further than needed
+ * (the attach action sniffs the format from the head; the worker reads and hashes the whole).
+ */
+export async function readUploadedFileHead(urlOrKey: string, maxBytes: number, opts: { utApi?: UTApi } = {}): Promise<{ head: Uint8Array; sizeBytes: number | null }> {
+  const file = await openUploadedFile(urlOrKey, { utApi: opts.utApi, timeoutMs: 60_000 });
+  return { head: await readHead(file.body, maxBytes), sizeBytes: file.sizeBytes };
+}
+
+/** Read up to `maxBytes` from a stream, then cancel it (the rest is never fetched). */
+export async function readHead(body: ReadableStream<Uint8Array>, maxBytes: number): Promise<Uint8Array> {
+  const out = new Uint8Array(maxBytes);
+  let size = 0;
+  const reader = body.getReader();
+  try {
+    while (size < maxBytes) {
+      const { done, value } = await reader.read();
+      if (done) break;
+      const take = Math.min(value.length, maxBytes - size);
+      out.set(value.subarray(0, take), size);
+      size += take;
+    }
+  } finally {
+    await reader.cancel().catch(() => undefined);
+  }
+  return out.subarray(0, size);
+}
+
+/** Delete files from the upload store by key (retention); throws when the store refuses. */
+export async function deleteStoredFiles(keys: string[], opts: { utApi?: UTApi } = {}): Promise<void> {
+  if (keys.length === 0) return;
+  const r = await (opts.utApi ?? getUtApi()).deleteFiles(keys);
+  if (!r.success) throw new UploadFetchError("The upload store did not delete the files.", null);
+}

@@ -22,3 +22,7 @@ export const auditQuerySchema = z.object({
   page: z.coerce.number().int().min(1).max(10_000).optional(),
   pageSize: z.coerce.number().int().min(1).max(200).optional(),
 });
+
+export const resetTwoFactorSchema = z.object({
+  userId: z.string().min(1).max(64),
+});

@@ -3,6 +3,13 @@ import { z } from "zod";
 export const signInSchema = z.object({
   email: z.email("Enter a valid e-mail address.").max(320),
   password: z.string().min(1, "Enter your password.").max(200),
+  /** Second step: six digits from the authenticator app, or a recovery code. Empty means none. */
+  code: z
+    .string()
+    .trim()
+    .max(40, "That is not a code.")
+    .optional()
+    .transform((v) => v || undefined),
   callbackUrl: z.string().max(500).optional(),
 });
 export type SignInInput = z.infer<typeof signInSchema>;
@@ -29,3 +36,11 @@ export function safeCallbackPath(value: string | undefined | null): string | nul
   if (!value || !value.startsWith("/") || value.startsWith("//") || value.includes("\\")) return null;
   return value;
 }
+
+/** A code typed to confirm the authenticator app (six digits; spaces allowed). */
+export const twoFactorCodeSchema = z.object({
+  code: z
+    .string()
+    .transform((v) => v.replace(/\s+/g, ""))
+    .pipe(z.string().regex(/^\d{6}$/, "Enter the 6 digits the app shows.")),
+});

@@ -2,6 +2,7 @@ import { createClient } from "@libsql/client";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_PASSWORDS } from "../../db/seed-data";
+import { totpCodeForStep, totpStepAt } from "../../lib/auth/two-factor";
 import { launchBrowser, newPage, PHONE, shot, signIn, startStack, type TestStack } from "./harness";
 
 /** Browser journeys of the back office, one per staff role, on the seeded demo. */
@@ -186,10 +187,39 @@ describe("confirmation steps, notices and invitations", () => {
     await page.getByRole("button", { name: "Accept and set password" }).click();
     await page.waitForURL(/\/invite\/done$/);
     await signIn(page, stack.baseUrl, "new.planner@ostrevane.example", "cell-planner-2031");
-    expect(new URL(page.url()).pathname).toMatch(/^\/admin/);
+    // Staff set up an authenticator app before anything else: the back office sends them there.
+    await page.getByRole("heading", { name: "Set up two-factor sign-in" }).waitFor();
+    await page.goto(`${stack.baseUrl}/admin/production`);
+    await page.getByRole("heading", { name: "Set up two-factor sign-in" }).waitFor();
+    await shot(page, "auth-e2e-two-factor-enrol-desktop");
+    const key = (await page.locator("code").first().innerText()).replace(/\s+/g, "");
+    const now = totpStepAt(Date.now());
+    await page.getByLabel("Code from the app").fill(totpCodeForStep(key, now));
+    await page.getByRole("button", { name: "Turn on two-factor sign-in" }).click();
+    await page.getByTestId("recovery-codes").locator("li").nth(9).waitFor();
+    expect(await page.getByTestId("recovery-codes").locator("li").count()).toBe(10);
+    const recovery = await page.getByTestId("recovery-codes").locator("li").first().innerText();
+    await shot(page, "auth-e2e-two-factor-recovery-desktop");
+    await page.getByRole("link", { name: /continue/ }).click();
+    await page.waitForURL((url) => url.pathname.startsWith("/admin"));
+    expect(await sqlValue("SELECT count(*) FROM audit_log WHERE action = 'two_factor.enrolled'")).toBe("1");
+
+    // The next sign-in asks for a code; a recovery code works once.
+    await page.context().clearCookies();
+    await page.goto(`${stack.baseUrl}/sign-in`);
+    await page.getByLabel("E-mail", { exact: true }).fill("new.planner@ostrevane.example");
+    await page.getByLabel("Password").fill("cell-planner-2031");
+    await page.getByRole("button", { name: "Sign in", exact: true }).click();
+    await page.getByLabel("Code", { exact: true }).fill("000000");
+    await page.getByRole("button", { name: "Sign in", exact: true }).click();
+    await page.getByText("Wrong, expired or already used").waitFor();
+    await shot(page, "auth-e2e-two-factor-wrong-code-desktop");
+    await page.getByLabel("Code", { exact: true }).fill(recovery);
+    await page.getByRole("button", { name: "Sign in", exact: true }).click();
+    await page.waitForURL((url) => url.pathname.startsWith("/admin"));
     await page.goto(acceptUrl);
     await page.getByRole("heading", { name: "This invitation no longer works" }).waitFor();
     await shot(page, "auth-e2e-invite-used-desktop");
     await page.context().close();
-  }, 120_000);
+  }, 240_000);
 });

@@ -9,6 +9,7 @@ import path from "node:path";
 import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
 import { openDb } from "../../db/client";
 import { seed } from "../../db/seed";
+import { demoSignInCode } from "../../lib/scripts/demo-code";
 import { freePort } from "../../lib/scripts/free-port";
 import { migrateDatabase } from "../../lib/scripts/migrate";
 import { startStack as startProcesses, type RunningStack } from "../../lib/scripts/stack";
@@ -64,12 +65,17 @@ export async function newPage(browser: Browser, viewport = DESKTOP): Promise<{ c
   return { context, page };
 }
 
-/** Sign in through the real form. */
+/** Sign in through the real form; demo staff then type the code their authenticator app would show. */
 export async function signIn(page: Page, baseUrl: string, email: string, password: string) {
   await page.goto(`${baseUrl}/sign-in`);
   await page.getByLabel("E-mail", { exact: true }).fill(email);
   await page.getByLabel("Password").fill(password);
   await page.getByRole("button", { name: "Sign in", exact: true }).click();
+  const code = await demoSignInCode(email);
+  if (code) {
+    await page.getByLabel("Code", { exact: true }).fill(code);
+    await page.getByRole("button", { name: "Sign in", exact: true }).click();
+  }
   await page.waitForURL((url) => !url.pathname.startsWith("/sign-in"), { timeout: 30_000 });
 }
 

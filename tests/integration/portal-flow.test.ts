@@ -27,6 +27,16 @@ vi.mock("@/lib/uploads/uploadthing", () => ({
     return b;
   },
   signedFileUrl: async (key: string) => `${storage.base}/${key}`,
+  openUploadedFile: async (key: string) => {
+    const b = files.get(key);
+    if (!b) throw new Error("not stored");
+    return { body: new Blob([new Uint8Array(b)]).stream(), sizeBytes: b.length };
+  },
+  readUploadedFileHead: async (key: string, maxBytes: number) => {
+    const b = files.get(key);
+    if (!b) throw new Error("not stored");
+    return { head: b.subarray(0, maxBytes), sizeBytes: b.length };
+  },
 }));
 // E-mails are covered by the webhook test; here they only must not fail the flow.
 vi.mock("@/lib/email/notify", () => ({ notifyRequestReceived: async () => {}, notifyDepositReceived: async () => {} }));

@@ -15,6 +15,7 @@ export default async function PortalLayout({ children }: { children: React.React
   if (user.role === "client_admin") {
     nav.push({ href: "/portal/firm", label: "Firm & members" });
   }
+  nav.push({ href: "/two-factor", label: "Sign-in code" });
   return (
     <AppShell nav={nav} area="Client portal" userLabel={user.name ?? user.email} roleLabel={ROLE_LABELS[user.role] ?? user.role}>
       <QueryProvider>{children}</QueryProvider>

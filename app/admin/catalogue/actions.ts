@@ -6,6 +6,9 @@ import { writeAudit } from "@/db/queries/audit";
 import { AppError } from "@/lib/errors";
 import { anyRecord, defineAction } from "@/lib/server/define-action";
 import { fieldErrorsOf } from "@/lib/validation/form";
+import { setModelRetentionDays } from "@/db/queries/retention";
+import { RETENTION_DAYS_MAX, RETENTION_DAYS_MIN } from "@/lib/retention/policy";
+import { z } from "zod";
 import { cellSchema, materialSchema, rateCardSchema, toCellParams, toMaterialParams, toRateCardParams } from "@/lib/validation/admin-catalogue";
 
 /** A refused edit leads with its first problem; every field's problems show beside it. */
@@ -49,4 +52,13 @@ export const saveRateCard = defineAction({ access: "admin:catalogue", input: any
   });
   revalidatePath("/admin/catalogue");
   return { version: r.version };
+});
+
+const retentionSchema = z.object({ days: z.coerce.number().int("Whole days.").min(RETENTION_DAYS_MIN, `At least ${RETENTION_DAYS_MIN} days.`).max(RETENTION_DAYS_MAX, `At most ${RETENTION_DAYS_MAX} days.`) });
+
+/** How long clients' model files are kept after an order finishes; shown to clients; audited. */
+export const saveModelRetention = defineAction({ access: "admin:catalogue", input: anyRecord(retentionSchema), invalid: refuse }, async (input, { user, db }) => {
+  await setModelRetentionDays(db, { days: input.days, actorId: user.id, now: new Date() });
+  revalidatePath("/admin/catalogue");
+  return { days: input.days };
 });

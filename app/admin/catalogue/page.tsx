@@ -5,7 +5,9 @@ import { Card, CardTitle, PageHeader } from "@/components/ui/card";
 import { getDb } from "@/db/client";
 import { countVersions } from "@/db/queries/admin-catalogue";
 import { getCurrentRateCard, listCurrentCells, listCurrentMaterials } from "@/db/queries/catalogue";
+import { getBureauSettings } from "@/db/queries/retention";
 import { pagePermission } from "@/lib/auth/page-guard";
+import { RetentionForm } from "./_components/retention-form";
 import { formatCents } from "@/lib/money";
 import { cellFormValues, rateCardFormValues } from "@/lib/validation/admin-catalogue";
 
@@ -15,7 +17,7 @@ export const dynamic = "force-dynamic";
 export default async function CataloguePage() {
   await pagePermission("admin:catalogue", "/admin/catalogue");
   const db = getDb();
-  const [materials, cells, card, versions] = await Promise.all([listCurrentMaterials(db, { activeOnly: false }), listCurrentCells(db, { activeOnly: false }), getCurrentRateCard(db), countVersions(db)]);
+  const [materials, cells, card, versions, settings] = await Promise.all([listCurrentMaterials(db, { activeOnly: false }), listCurrentCells(db, { activeOnly: false }), getCurrentRateCard(db), countVersions(db), getBureauSettings(db)]);
   return (
     <>
       <PageHeader title="Catalogue" subtitle="Materials, printing cells and the rate card. Each save adds a version; old quotes keep the values they were made with." />
@@ -25,6 +27,14 @@ export default async function CataloguePage() {
           <div className="mt-3">
             {card ? <ParamsForm kind="rateCard" idPrefix="rc" initial={rateCardFormValues(card.params)} /> : <p className="text-sm text-ink-500">No rate card yet.</p>}
           </div>
+        </Card>
+        <Card className="space-y-3">
+          <CardTitle>Clients&apos; model files</CardTitle>
+          <p className="text-sm text-ink-600">
+            A daily job deletes the model files of orders closed or cancelled longer ago than this, and records each deletion in the
+            audit log; quotes, invoices, reports and the orders&apos; records stay. Clients see the period on their firm page.
+          </p>
+          <RetentionForm initialDays={settings.modelRetentionDays} />
         </Card>
         <section className="space-y-2">
           <CardTitle>Materials</CardTitle>

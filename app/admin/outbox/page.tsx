@@ -1,19 +1,23 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { getDb } from "@/db/client";
+import { listUndeliveredEmails } from "@/db/queries/email-jobs";
 import { listOutboxMessages } from "@/db/queries/outbox";
 import { EmptyState, PageHeader } from "@/components/ui/card";
 import { pagePermission } from "@/lib/auth/page-guard";
+import { UndeliveredEmails } from "./_components/undelivered";
 
 export const metadata: Metadata = { title: "Outbox" };
 export const dynamic = "force-dynamic";
 
 export default async function OutboxPage() {
   await pagePermission("admin:outbox", "/admin/outbox");
-  const rows = await listOutboxMessages(getDb(), 200);
+  const db = getDb();
+  const [rows, undelivered] = await Promise.all([listOutboxMessages(db, 200), listUndeliveredEmails(db)]);
   return (
     <>
       <PageHeader title="Outbox" subtitle="Every e-mail accepted by the e-mail service, newest first." />
+      <UndeliveredEmails rows={undelivered} />
       {rows.length === 0 ? (
         <EmptyState title="No e-mail sent yet">Sign-in links, quotes and order news will appear here as they go out.</EmptyState>
       ) : (

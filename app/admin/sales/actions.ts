@@ -6,11 +6,14 @@ import { getCurrentRateCard } from "@/db/queries/catalogue";
 import { createDraftQuote, createStaffMessage, getQuote, getRequestForSales, hasOrder, markIssued, updateDraftQuote } from "@/db/queries/quotes";
 import { transitionStage } from "@/db/queries/stages";
 import { label } from "@/lib/orders/stages";
+import { retryAnalysis } from "@/lib/analysis/run";
+import { currentRequestId } from "@/lib/observability/request-id";
 import { notifyQuoteReady, notifyStaffMessage } from "@/lib/email/notify";
 import { AppError } from "@/lib/errors";
 import { checkLines, quoteTotals, validUntil } from "@/lib/quoting/lines";
 import { defineAction } from "@/lib/server/define-action";
 import { saveQuoteSchema, staffMessageSchema } from "@/lib/validation/admin-quotes";
+import { z } from "zod";
 
 const QUOTABLE = new Set(["submitted", "quoted"]);
 
@@ -103,4 +106,13 @@ export const postStaffMessage = defineAction({ access: "quote:manage", input: st
     await notifyStaffMessage(m.id).catch((e: unknown) => console.error("staff message e-mail failed", e));
     revalidatePath(`/admin/sales/requests/${input.requestId}`);
     return { id: m.id };
+});
+
+/** Run a failed analysis again (staff's retry of a durable job whose attempts ran out); audited. */
+export const retryFailedAnalysis = defineAction({ access: "sales:inbox", input: z.object({ analysisId: z.string().min(1).max(64) }) }, async (input, { user, db }) => {
+  const { retried } = await retryAnalysis(db, input.analysisId, { requestId: await currentRequestId() });
+  if (!retried) throw new AppError("conflict:analysis", "That analysis has not failed (it may be running again already).");
+  await writeAudit(db, { actorId: user.id, action: "analysis.retry", entityType: "analysis", entityId: input.analysisId });
+  revalidatePath("/admin/sales");
+  return { analysisId: input.analysisId };
 });

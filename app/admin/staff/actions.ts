@@ -5,6 +5,7 @@ import { revalidatePath } from "next/cache";
 import { writeAudit } from "@/db/queries/audit";
 import { countOtherActiveAdmins, createStaffInvitation, findUserByEmail, getStaffUser, updateStaffUser } from "@/db/queries/staff";
 import { getUnacceptedStaffAccount, revokeOpenStaffInvitations } from "@/db/queries/staff-invitations";
+import { removeTwoFactor } from "@/db/queries/two-factor";
 import { users } from "@/db/schema";
 import StaffInviteEmail from "@/emails/staff-invite";
 import { INVITE_TTL_MS, invitationUrl, newInvitationToken } from "@/lib/auth/staff-invitation";
@@ -12,7 +13,7 @@ import { sendEmail } from "@/lib/email/send";
 import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
 import { defineAction } from "@/lib/server/define-action";
-import { inviteStaffSchema, updateStaffSchema } from "@/lib/validation/admin-staff";
+import { inviteStaffSchema, resetTwoFactorSchema, updateStaffSchema } from "@/lib/validation/admin-staff";
 
 const dayText = (d: Date) => new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" }).format(d);
 
@@ -76,6 +77,19 @@ export const updateStaff = defineAction({ access: "admin:staff", input: updateSt
       after: { role: input.role ?? target.role, isControlledCleared: input.isControlledCleared ?? target.isControlledCleared, disabled: input.disabled ?? Boolean(target.disabledAt) },
     });
   });
+  revalidatePath("/admin/staff");
+  return { userId: target.id };
+});
+
+/**
+ * Clear a staff member's authenticator app and recovery codes (a lost phone). Their next sign-in
+ * takes the password alone and then asks them to set up a new app before anything else. Audited.
+ */
+export const resetStaffTwoFactor = defineAction({ access: "admin:staff", input: resetTwoFactorSchema }, async (input, { user, db }) => {
+  const target = await getStaffUser(db, input.userId);
+  if (!target) throw new AppError("not_found:user", "That staff member was not found.");
+  const removed = await removeTwoFactor(db, { userId: target.id, actorId: user.id, reason: "reset_by_admin" });
+  if (!removed) throw new AppError("conflict:not_enrolled", "That staff member has no authenticator app set up.");
   revalidatePath("/admin/staff");
   return { userId: target.id };
 });

@@ -56,12 +56,20 @@ export const POST = withErrors(async (req: Request) => {
 
   // Hold room in the estimator before any costly step, or refuse at once: 503 when it is busy,
   // 429 when this user already has their share of jobs in flight.
+  // Firms are served in turn, and one firm may hold only its share of the room (lib/estimating/fair-queue.ts).
   const pool = getEstimatePool();
-  const ticket = pool.tryReserve(user.id);
+  const ticket = pool.tryReserve(user.id, user.orgId ?? `staff:${user.id}`);
   if ("reason" in ticket) {
     const status = ticket.reason === "owner" ? 429 : 503;
-    const message = ticket.reason === "owner" ? "You already have estimates running; wait for one to finish." : new QueueFullError(ticket.retryAfterS).message;
-    return NextResponse.json({ error: { code: ticket.reason === "owner" ? "busy:yours" : "busy", message } }, { status, headers: { "retry-after": String(ticket.retryAfterS) } });
+    const wait = `${ticket.queued} estimate${ticket.queued === 1 ? "" : "s"} in line; try again in about ${ticket.retryAfterS} s`;
+    const message =
+      ticket.reason === "owner"
+        ? "You already have estimates running; wait for one to finish."
+        : ticket.reason === "lane"
+          ? `Your firm's estimates already fill its share of the estimator (${wait}).`
+          : `${new QueueFullError(ticket.retryAfterS).message} (${wait}.)`;
+    const code = ticket.reason === "owner" ? "busy:yours" : ticket.reason === "lane" ? "busy:firm" : "busy";
+    return NextResponse.json({ error: { code, message, queued: ticket.queued, retryAfterS: ticket.retryAfterS } }, { status, headers: { "retry-after": String(ticket.retryAfterS) } });
   }
   try {
     const catalogue = await loadCatalogue(db);

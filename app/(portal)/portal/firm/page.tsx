@@ -2,10 +2,12 @@ import type { Metadata } from "next";
 import { getDb } from "@/db/client";
 import { listMembers } from "@/db/queries/members";
 import { getOrganisation } from "@/db/queries/organisations";
+import { getBureauSettings } from "@/db/queries/retention";
 import { BillingForm, InviteForm, RemoveMemberButton } from "@/components/portal/firm-forms";
 import { Badge } from "@/components/ui/badge";
 import { Card, CardTitle, PageHeader } from "@/components/ui/card";
 import { pagePermission } from "@/lib/auth/page-guard";
+import { retentionText } from "@/lib/retention/policy";
 import { notFound } from "next/navigation";
 
 export const metadata: Metadata = { title: "Firm & members" };
@@ -15,7 +17,7 @@ export default async function FirmPage() {
   const user = await pagePermission("members:manage", "/portal/firm");
   if (!user.orgId) notFound();
   const db = getDb();
-  const [org, members] = await Promise.all([getOrganisation(db, user.orgId), listMembers(db, user.orgId)]);
+  const [org, members, settings] = await Promise.all([getOrganisation(db, user.orgId), listMembers(db, user.orgId), getBureauSettings(db)]);
   if (!org) notFound();
   return (
     <>
@@ -37,6 +39,14 @@ export default async function FirmPage() {
             ))}
           </ul>
           <InviteForm />
+        </Card>
+        <Card className="space-y-2">
+          <CardTitle>Your model files</CardTitle>
+          <p className="text-sm text-ink-600">
+            The bureau keeps the model files you send for {retentionText(settings.modelRetentionDays)} after an order is closed or
+            cancelled, then deletes them from storage. Quotes, invoices, inspection reports and the order&apos;s record stay. On a closed
+            order&apos;s page you can have its files deleted sooner.
+          </p>
         </Card>
         <Card className="space-y-4">
           <CardTitle>Billing</CardTitle>

@@ -11,13 +11,13 @@ import { createDraftRequest, getRequest, updateDraftRequest } from "@/db/queries
 import { transitionStage } from "@/db/queries/stages";
 import { analysisOptionsFor, sameOptions } from "@/lib/analysis/options";
 import { MAX_MODEL_BYTES, startAnalysis } from "@/lib/analysis/run";
-import { checkModelUpload } from "@/lib/analysis/sniff";
+import { currentRequestId } from "@/lib/observability/request-id";
+import { checkModelUpload, SNIFF_HEAD_BYTES } from "@/lib/analysis/sniff";
 import { requirePermission, assertCanSee, type CurrentUser } from "@/lib/auth/guard";
 import { notifyRequestReceived } from "@/lib/email/notify";
 import { AppError, toActionError, type ActionResult } from "@/lib/errors";
-import { fetchUploadedFile } from "@/lib/uploads/uploadthing";
+import { readUploadedFileHead } from "@/lib/uploads/uploadthing";
 import { draftSchema, partToRow, submitSchema, toDraftFields, type DraftInput } from "@/lib/validation/request";
-import { createHash } from "node:crypto";
 import type { z } from "zod";
 
 function fieldErrorsOf(error: z.ZodError): Record<string, string[]> {
@@ -111,7 +111,7 @@ async function rerunChangedAnalyses(requestId: string): Promise<Record<string, s
     if (a && sameOptions(before, options as Record<string, unknown>)) continue;
     const rev = await getRevision(db, p.currentRevisionId!);
     if (!rev) continue;
-    const { analysisId } = await startAnalysis(db, { revisionId: rev.id, fileKey: rev.fileKey, fileName: rev.fileName, options });
+    const { analysisId } = await startAnalysis(db, { revisionId: rev.id, fileKey: rev.fileKey, fileName: rev.fileName, options }, { requestId: await currentRequestId() });
     out[p.id] = analysisId;
   }
   return out;
@@ -145,20 +145,23 @@ export async function attachPartFile(input: { requestId: string; partId: string;
     if (!part || part.requestId !== req.id) throw new AppError("not_found:part", "That part was not found; save the draft and try again.");
     const upload = await getUploadOwned(db, String(input.uploadId), user.id);
     if (!upload || upload.purpose !== "model") throw new AppError("not_found:file", "That upload was not found; upload the file again.");
-    const bytes = await fetchUploadedFile(upload.fileKey, { maxBytes: MAX_MODEL_BYTES }).catch((e: Error) => {
+    // Only the file's first bytes are read here, to check its format; the analysis worker reads,
+    // checks and hashes the whole file off the request thread.
+    const { head, sizeBytes: storedBytes } = await readUploadedFileHead(upload.fileKey, SNIFF_HEAD_BYTES).catch((e: Error) => {
       throw new AppError("unavailable", `The file could not be read back from storage (${e.message}). Upload it again.`);
     });
-    const check = checkModelUpload(bytes, upload.fileName);
+    const sizeBytes = storedBytes ?? upload.sizeBytes;
+    if (sizeBytes > MAX_MODEL_BYTES) throw new AppError("invalid_input:file", `“${upload.fileName}” is larger than ${MAX_MODEL_BYTES / 1024 / 1024} MB.`);
+    const check = checkModelUpload(head, upload.fileName, sizeBytes);
     if (!check.ok) throw new AppError("invalid_input:file", check.message);
-    const sha256 = createHash("sha256").update(bytes).digest("hex");
     const rev = await db.transaction(async (tx) => {
       const r = await addFileRevision(tx, {
         partId: part.id,
         uploadId: upload.id,
         fileKey: upload.fileKey,
         fileName: upload.fileName,
-        sizeBytes: bytes.length,
-        sha256,
+        sizeBytes,
+        sha256: null,
         format: check.format,
         uploadedById: user.id,
       });
@@ -173,7 +176,11 @@ export async function attachPartFile(input: { requestId: string; partId: string;
       await writeAudit(db, { actorId: user.id, action: "part.revision", entityType: "part", entityId: part.id, orgId: req.orgId, after: { revision: rev.revision, fileName: upload.fileName } });
     }
     const fresh = (await getPart(db, part.id))!;
-    const { analysisId } = await startAnalysis(db, { revisionId: rev.id, fileKey: upload.fileKey, fileName: upload.fileName, options: analysisOptionsFor(fresh, req) });
+    const { analysisId } = await startAnalysis(
+      db,
+      { revisionId: rev.id, fileKey: upload.fileKey, fileName: upload.fileName, options: analysisOptionsFor(fresh, req) },
+      { requestId: await currentRequestId() },
+    );
     return { ok: true, data: { revisionId: rev.id, revision: rev.revision, analysisId, fileName: upload.fileName } };
   } catch (e) {
     return toActionError(e);

@@ -1,11 +1,12 @@
 import { getDb } from "@/db/client";
 import { writeAudit } from "@/db/queries/audit";
 import { findStoredFile } from "@/db/queries/files";
+import { getFileRetention } from "@/db/queries/retention";
 import { requireUser, type CurrentUser } from "@/lib/auth/guard";
 import { canOpenFiles, isStaff } from "@/lib/auth/policy";
 import { withErrors } from "@/lib/auth/route";
 import { AppError } from "@/lib/errors";
-import { fetchUploadedFile } from "@/lib/uploads/uploadthing";
+import { openUploadedFile } from "@/lib/uploads/uploadthing";
 
 export const runtime = "nodejs";
 
@@ -37,22 +38,28 @@ export const GET = withErrors(async (req: Request, ctx: { params: Promise<{ id: 
     await writeAudit(db, { actorId: user.id, action: "file.download_refused", entityType: "file", entityId: id.slice(0, 64), orgId: file?.orgId ?? null, ip });
     throw new AppError("not_found:file", "That file was not found.");
   }
-  const bytes = await fetchUploadedFile(file.fileKey);
+  if (file.kind === "revision" && file.requestId && (await getFileRetention(db, file.requestId))?.filesDeletedAt) {
+    throw new AppError("gone:file", "This model file was deleted under the bureau's retention rule; the order's record and documents remain.");
+  }
+  // Streamed from storage to the browser: the server holds a chunk at a time, never the whole file.
+  const stored = await openUploadedFile(file.fileKey);
   await writeAudit(db, {
     actorId: user.id,
     action: "file.download",
     entityType: file.kind,
     entityId: id,
     orgId: file.orgId,
-    after: { fileName: file.fileName, sizeBytes: bytes.length, requestId: file.requestId, isControlled: file.isControlled },
+    after: { fileName: file.fileName, sizeBytes: stored.sizeBytes, requestId: file.requestId, isControlled: file.isControlled },
     ip,
   });
   const inline = new URL(req.url).searchParams.get("inline") === "1" && /^(application\/pdf|image\/(png|jpeg))$/.test(file.contentType ?? "");
-  return new Response(Buffer.from(bytes), {
+  const name = safeName(file.fileName);
+  return new Response(stored.body, {
     headers: {
       "content-type": inline ? file.contentType! : "application/octet-stream",
-      "content-length": String(bytes.length),
-      "content-disposition": `${inline ? "inline" : "attachment"}; filename="${safeName(file.fileName)}"`,
+      ...(stored.sizeBytes !== null ? { "content-length": String(stored.sizeBytes) } : {}),
+      // RFC 6266: a plain ASCII name for every browser, and the UTF-8 name (RFC 8187) for those that read it.
+      "content-disposition": `${inline ? "inline" : "attachment"}; filename="${name}"; filename*=UTF-8''${encodeURIComponent(file.fileName.slice(0, 120))}`,
       "cache-control": "private, no-store",
       "x-content-type-options": "nosniff",
     },

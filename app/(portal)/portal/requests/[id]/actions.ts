@@ -10,7 +10,11 @@ import { createMessage, getMessage } from "@/db/queries/messages";
 import { getOrderWithRequest } from "@/db/queries/payments";
 import { getRequest } from "@/db/queries/requests";
 import { transitionStage } from "@/db/queries/stages";
-import { assertCanSee, requirePermission } from "@/lib/auth/guard";
+import { getFileRetention, recordDeletionRequest } from "@/db/queries/retention";
+import { assertCanSee, requirePermission, requireRole } from "@/lib/auth/guard";
+import { FINISHED_STAGES } from "@/lib/retention/policy";
+import { deleteRequestFiles } from "@/lib/retention/run";
+import { deleteStoredFiles } from "@/lib/uploads/uploadthing";
 import { env } from "@/lib/env";
 import { AppError, toActionError, type ActionResult } from "@/lib/errors";
 import { openCheckout, type CheckoutResult } from "@/lib/payments/checkout";
@@ -115,6 +119,37 @@ export async function postMessage(input: { requestId: string; parentId?: string;
     }
     revalidatePath(`/portal/requests/${req!.id}`);
     return { ok: true, data: msg };
+  } catch (e) {
+    return toActionError(e);
+  }
+}
+
+/**
+ * A client admin has a closed or cancelled order's model files deleted now, before the bureau's
+ * retention period ends. Recorded first (so the daily job finishes it if storage fails now),
+ * audited; the order's records and documents stay.
+ */
+export async function deleteOrderFilesNow(input: { requestId: string; confirm: string }): Promise<ActionResult<{ deletedCount: number | null }>> {
+  try {
+    if (!input || typeof input !== "object" || typeof input.requestId !== "string" || input.requestId.length > 64) throw new AppError("invalid_input", "The request was not valid.");
+    if (input.confirm !== "delete") throw new AppError("invalid_input:confirmation", "Confirm that the files should be deleted.");
+    const user = await requireRole("client_admin");
+    const db = getDb();
+    const req = await getRequest(db, input.requestId);
+    assertCanSee(user, req ? { orgId: req.orgId, createdById: req.createdById } : null, "request");
+    if (!(FINISHED_STAGES as readonly string[]).includes(req!.stage)) throw new AppError("conflict:stage", "Files can be deleted early once the order is closed or cancelled.");
+    const state = await getFileRetention(db, req!.id);
+    if (state?.filesDeletedAt) throw new AppError("conflict:deleted", "This order's files are already deleted.");
+    const now = new Date();
+    await recordDeletionRequest(db, { requestId: req!.id, orgId: req!.orgId, userId: user.id, now });
+    let deletedCount: number | null = null;
+    try {
+      deletedCount = await deleteRequestFiles(db, { requestId: req!.id, orgId: req!.orgId }, { now, deleteStoredFiles, actorId: user.id, reason: "client_request" });
+    } catch {
+      // Storage did not answer: the request is recorded and the daily job deletes them.
+    }
+    revalidatePath(`/portal/requests/${req!.id}`);
+    return { ok: true, data: { deletedCount } };
   } catch (e) {
     return toActionError(e);
   }

@@ -25,6 +25,9 @@ import { Badge } from "@/components/ui/badge";
 import { Card, CardTitle, EmptyState, PageHeader } from "@/components/ui/card";
 import { assertCanSee } from "@/lib/auth/guard";
 import { orPageError, pageUser } from "@/lib/auth/page-guard";
+import { getBureauSettings, getFileRetention } from "@/db/queries/retention";
+import { FINISHED_STAGES } from "@/lib/retention/policy";
+import { ModelFilesCard } from "./_components/model-files-card";
 import { can } from "@/lib/auth/policy";
 import type { EstimateResult } from "@/lib/estimating/types";
 import { CURE_LABEL, DOCUMENT_KIND_LABEL } from "@/lib/labels";
@@ -70,6 +73,9 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
     getOrganisation(db, req.orgId),
   ]);
   const payments = order ? await listPaymentsForOrder(db, order.id) : [];
+  const isFinished = (FINISHED_STAGES as readonly string[]).includes(req.stage);
+  const [retention, fileState] = isFinished ? await Promise.all([getBureauSettings(db), getFileRetention(db, req.id)]) : [null, null];
+  const finishedAt = isFinished ? ([...events].reverse().find((e) => e.toStage === req.stage)?.at ?? null) : null;
   const paid = (kind: "deposit" | "balance") => payments.some((p) => p.kind === kind && (p.status === "paid" || p.status.includes("refunded")));
   const acceptedQuote = quotes.find((q) => q.status === "accepted");
   const planned: Partial<Record<Stage, Date | null>> = {
@@ -173,6 +179,9 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
           </div>
 
           <div className="min-w-0 space-y-6">
+            {retention ? (
+              <ModelFilesCard requestId={req.id} finishedAt={finishedAt} retentionDays={retention.modelRetentionDays} state={fileState} canDelete={user.role === "client_admin"} />
+            ) : null}
             <Card>
               <CardTitle className="mb-3">Timeline</CardTitle>
               <StageTimeline stage={req.stage} events={[

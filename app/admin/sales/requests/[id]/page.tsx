@@ -11,7 +11,9 @@ import { Card, CardTitle, PageHeader } from "@/components/ui/card";
 import { getDb } from "@/db/client";
 import { getCurrentRateCard, listCurrentMaterials } from "@/db/queries/catalogue";
 import { getRequestForSales, listMessages, listQuoteLines, listQuotesForRequest } from "@/db/queries/quotes";
+import { getBureauSettings } from "@/db/queries/retention";
 import { pagePermission } from "@/lib/auth/page-guard";
+import { retentionText } from "@/lib/retention/policy";
 import { formatCents } from "@/lib/money";
 import { label } from "@/lib/orders/stages";
 import { CURE_LABEL } from "@/lib/labels";
@@ -27,7 +29,7 @@ export default async function SalesRequestPage({ params }: { params: Promise<{ i
   const sales = await getRequestForSales(db, id);
   if (!sales) notFound();
   const { request, parts } = sales;
-  const [quotes, messages, card, materials] = await Promise.all([listQuotesForRequest(db, id), listMessages(db, id), getCurrentRateCard(db), listCurrentMaterials(db, { activeOnly: false })]);
+  const [quotes, messages, card, materials, settings] = await Promise.all([listQuotesForRequest(db, id), listMessages(db, id), getCurrentRateCard(db), listCurrentMaterials(db, { activeOnly: false }), getBureauSettings(db)]);
   const materialNames = new Map(materials.map((m) => [m.key, m.params.name]));
   const draft = quotes.find((q) => q.status === "draft");
   const basisAnalysisIds = parts.map((p) => p.analysis?.id).filter((x): x is string => Boolean(x));
@@ -47,7 +49,7 @@ export default async function SalesRequestPage({ params }: { params: Promise<{ i
         taxBp: rc?.taxBp ?? 0,
         depositBp: rc?.depositBp ?? 5000,
         validityDays: rc?.quoteValidityDays ?? 30,
-        terms: "Deposit due on acceptance; balance due on shipment. Prices exclude duties. Parts are made to the files supplied; the client's own engineering sign-off governs use.",
+        terms: `Deposit due on acceptance; balance due on shipment. Prices exclude duties. Parts are made to the files supplied; the client's own engineering sign-off governs use. Model files are deleted ${retentionText(settings.modelRetentionDays)} after the order closes; documents are kept.`,
         notes: "",
         shipDate: (parts[0]?.analysis?.result as { shipDate?: string } | null)?.shipDate ?? null,
       };
