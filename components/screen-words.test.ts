@@ -12,9 +12,9 @@ import { AUDIT_ACTION_LABEL, DOCUMENT_KIND_LABEL, PAYMENT_STATE_LABEL, QUOTE_STA
  */
 const root = path.resolve(import.meta.dirname, "..");
 
-/** Pages, layouts and components of every screen, the e-mail templates, and the web manifest. */
+/** Pages (the landing page is in pages/), layouts and components of every screen, the e-mail templates, and the web manifest. */
 function screenSources(): string[] {
-  const tracked = execFileSync("git", ["ls-files", "-co", "--exclude-standard", "app", "components", "emails", "public"], { cwd: root, encoding: "utf8" }).split("\n");
+  const tracked = execFileSync("git", ["ls-files", "-co", "--exclude-standard", "app", "pages", "components", "emails", "public"], { cwd: root, encoding: "utf8" }).split("\n");
   return tracked.filter(
     (f) =>
       /\.(tsx?|webmanifest|txt|svg)$/.test(f) &&
@@ -45,7 +45,7 @@ describe("words on screens and in e-mails", () => {
 
   it("finds the screens' sources", () => {
     expect(files.length).toBeGreaterThan(60);
-    expect(files).toContain("app/(marketing)/page.tsx");
+    expect(files).toContain("pages/index.tsx");
     expect(files).toContain("emails/deposit-received.tsx");
     expect(files).toContain("public/manifest.webmanifest");
   });
