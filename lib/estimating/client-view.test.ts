@@ -4,8 +4,8 @@ import type { EstimateAlternative, EstimateResult } from "./types";
 
 function alt(cell: string, status: EstimateAlternative["status"], totalCents: number): EstimateAlternative {
   return {
-    cell, cellName: cell, orientation: "z" as EstimateAlternative["orientation"], beadWidthMm: 10, layerHeightMm: 5,
-    printMode: "shell" as EstimateAlternative["printMode"], shellWalls: 2, printHours: 4, dwellHours: 0, massKg: 90,
+    cell, cellName: cell, orientation: { up: "z", swapped: false }, beadWidthMm: 10, layerHeightMm: 5,
+    printMode: "shell", shellWalls: 2, printHours: 4, dwellHours: 0, massKg: 90,
     flaggedLayers: status === "priced" ? 0 : 12, totalCents, shipDate: "2027-03-09", status, whyNot: status === "priced" ? "dearer" : "layers outside the cooling window",
   };
 }
