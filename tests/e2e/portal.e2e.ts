@@ -68,7 +68,10 @@ describe("client portal journey", () => {
     await page.getByRole("button", { name: "3. Review & submit" }).click();
     await page.getByRole("button", { name: "Continue" }).click().catch(() => {});
     await page.getByTestId("bounding-size").waitFor({ timeout: 90_000 });
-    await expect(page.getByTestId("bounding-size").textContent()).resolves.toMatch(/2,400 × 1,200 × 400 mm|1,200 × 2,400 × 400 mm/);
+    // The size as built follows the orientation the estimator chose by cost and date: any order of the part's three sides.
+    const asBuilt = (await page.getByTestId("bounding-size").textContent()) ?? "";
+    expect(asBuilt).toMatch(/mm/);
+    expect((asBuilt.match(/\d[\d,]*/g) ?? []).map((n) => Number(n.replace(/,/g, ""))).sort((a, b) => a - b)).toEqual([400, 1200, 2400]);
     await expect(page.getByTestId("estimate-panel").textContent()).resolves.toContain("Automatic estimate");
     await expect(page.locator("canvas").count()).resolves.toBeGreaterThan(0);
     await both(page, "new-review");
@@ -108,7 +111,9 @@ describe("client portal journey", () => {
     await both(page, "request-paid");
     await page.goto(`${stack.baseUrl}/portal/payments`);
     await both(page, "payments");
-    await page.getByRole("link", { name: "View" }).first().click();
+    // The link to a receipt is its bureau receipt number.
+    await page.getByRole("link", { name: /^RC-\d{4}-\d{5}$/ }).first().click();
+    await expect(page.locator("body").textContent()).resolves.toMatch(/RC-\d{4}-\d{5}/);
     await both(page, "receipt");
     await page.goto(`${stack.baseUrl}/portal/firm`);
     await both(page, "firm");
