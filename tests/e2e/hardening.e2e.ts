@@ -80,7 +80,8 @@ describe("security headers", () => {
     await page.getByRole("table").first().waitFor({ timeout: 30_000 });
     const seeded = await db.execute("SELECT r.id FROM requests r JOIN organisations o ON o.id = r.org_id WHERE o.name LIKE 'Caldrith%' ORDER BY r.stage = 'quoted' DESC LIMIT 1");
     await page.goto(`${stack.baseUrl}/portal/requests/${String(seeded.rows[0]!.id)}`);
-    await page.waitForLoadState("networkidle");
+    // Pages now poll (analysis progress, the queue's place), so the network never idles: let each settle.
+    await settle(page);
 
     await page.goto(`${stack.baseUrl}/portal/requests/new`);
     await fillProject(page, { name: "Header check tool", neededBy: "2027-06-30", cureC: 120 });
@@ -117,7 +118,7 @@ describe("security headers", () => {
     for (const p of ["/admin", "/admin/production", "/admin/accounts", "/admin/production/report", "/admin/sales", "/admin/audit", `/admin/outbox/${String(mail.rows[0]?.id ?? "")}`]) {
       const res = await page.goto(stack.baseUrl + p);
       expect(res?.status(), p).toBeLessThan(400);
-      await page.waitForLoadState("networkidle");
+      await settle(page);
     }
     const frame = page.locator('iframe[title="Rendered e-mail"]');
     await frame.waitFor();
@@ -204,3 +205,9 @@ describe("password reset in the browser", () => {
     await context.close();
   });
 });
+
+/** Loaded, then a moment for late scripts and fetches to run and any CSP violation to be reported. */
+async function settle(page: Page): Promise<void> {
+  await page.waitForLoadState("load");
+  await page.waitForTimeout(2000);
+}
