@@ -55,7 +55,7 @@ const nextConfig = {
   async headers() {
     return [{ source: "/:path*", headers: securityHeaders }];
   },
-  serverExternalPackages: ["@libsql/client", "libsql", "occt-import-js", "manifold-3d"],
+  serverExternalPackages: ["@libsql/client", "libsql", "occt-import-js", "manifold-3d", "@react-pdf/renderer"],
   experimental: {
     authInterrupts: true,
     serverActions: { bodySizeLimit: "2mb" },

@@ -19,6 +19,7 @@ import { numberUnnumberedReceipts } from "./queries/payments";
 import * as s from "./schema";
 import type { Stage } from "./schema/common";
 import { DEMO_PASSWORDS, DEMO_REQUESTS, DEMO_TOTP_SECRETS, DEMO_USERS, FIRMS, type DemoMeshKey, type DemoRequest } from "./seed-data";
+import { DEMO_TERMS, seedDocuments } from "./seed-documents";
 import { processorRecordsFor, type SeedProcessorRecord } from "./seed-processor";
 import { FileStore } from "../mocks/uploadthing/store";
 
@@ -38,10 +39,10 @@ const MESHES: Record<DemoMeshKey, { name: string; make: () => IndexedMesh; file:
 
 /** Tables in an order that respects foreign keys when deleting. */
 const WIPE_ORDER = [
-  "audit_log", "email_outbox", "webhook_events", "refunds", "payments", "schedule_blocks", "stage_events", "documents", "messages",
+  "issued_documents", "document_series", "audit_log", "email_outbox", "webhook_events", "refunds", "payments", "schedule_blocks", "stage_events", "documents", "messages",
   "orders", "quote_lines", "quotes", "analyses", "file_revisions", "uploads", "parts", "requests", "invitations", "memberships",
   "organisations", "password_reset_tokens", "sign_in_attempts", "sessions", "accounts", "verification_tokens",
-  "rate_cards", "cells", "materials", "users",
+  "rate_cards", "cells", "materials", "terms_of_sale", "users",
 ];
 
 export interface SeedOptions {
@@ -73,6 +74,7 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
   await db.insert(s.cells).values(defaultCells.map((p) => ({ key: p.key, params: p })));
   const [rateCard] = await db.insert(s.rateCards).values({ version: 1, params: defaultRateCard }).returning({ id: s.rateCards.id });
   const catalogue = { materials: defaultMaterials, cells: defaultCells, rateCard: defaultRateCard };
+  await db.insert(s.termsOfSale).values({ version: 1, title: DEMO_TERMS.title, body: DEMO_TERMS.body, createdAt: new Date(now.getTime() - 400 * DAY) });
 
   // ---- firms and users ----
   const orgIds = new Map<string, string>();
@@ -262,6 +264,7 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
           depositCents: result.depositCents,
           validityDays: defaultRateCard.quoteValidityDays,
           terms: "Deposit of half the total on acceptance; balance on shipping. Tool use stays with the client's engineering sign-off.",
+          termsVersion: 1,
           shipDate: new Date(result.shipDate),
           rateCardId: rateCard!.id,
           createdById: staffId("sales@ostrevane.example"),
@@ -297,6 +300,7 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
           orgId,
           quoteId: quote!.id,
           poNumber: `PO-${r.firm.slice(0, 3).toUpperCase()}-${4400 + n}`,
+          termsVersion: 1,
           totalCents: result.totalCents,
           depositCents: result.depositCents,
           balanceCents: result.totalCents - result.depositCents,
@@ -332,11 +336,12 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
   }
 
   await numberUnnumberedReceipts(db);
+  const documentCount = await seedDocuments(db);
 
   // The payment processor's side of the seeded payments, loaded into the local fake on start.
   writeFileSync(path.resolve(dataDir, "seed-processor-records.json"), JSON.stringify(processorRecords, null, 1));
   if (!opts.quiet) {
-    console.log(`Seeded ${DEMO_USERS.length} users, ${FIRMS.length} firms, ${DEMO_REQUESTS.length} requests.`);
+    console.log(`Seeded ${DEMO_USERS.length} users, ${FIRMS.length} firms, ${DEMO_REQUESTS.length} requests, ${documentCount} issued documents.`);
     console.log("Demo accounts (e-mail / password):");
     for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(13)} ${u.email.padEnd(30)} ${DEMO_PASSWORDS[u.role]}`);
     console.log("Staff also type a code: `npm run demo:code -- EMAIL` prints the current one (or add the secret in db/seed-data.ts to an authenticator app).");

@@ -1,4 +1,5 @@
 import { Button, Text } from "@react-email/components";
+import { AttachedDocuments } from "./_components/attached";
 import { buttonStyle, EmailShell, paragraph } from "./_components/shell";
 
 export interface BalanceDueEmailProps {
@@ -6,6 +7,8 @@ export interface BalanceDueEmailProps {
   projectName: string;
   balance: string;
   poNumber: string;
+  /** Labels of the PDFs sent with the notice. */
+  attached?: string[] | null;
   url: string;
 }
 
@@ -16,6 +19,7 @@ export default function BalanceDueEmail(p: BalanceDueEmailProps) {
         {p.reference} “{p.projectName}” (PO {p.poNumber}) has shipped. The remaining balance of {p.balance} is now due; you
         can pay it by card from the order page.
       </Text>
+      <AttachedDocuments labels={p.attached} />
       <Button href={p.url} style={buttonStyle}>
         Pay the balance
       </Button>

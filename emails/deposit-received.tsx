@@ -1,4 +1,5 @@
 import { Button, Text } from "@react-email/components";
+import { AttachedDocuments } from "./_components/attached";
 import { buttonStyle, EmailShell, paragraph } from "./_components/shell";
 
 export interface DepositReceivedEmailProps {
@@ -10,6 +11,8 @@ export interface DepositReceivedEmailProps {
   /** The bureau's receipt number, and our receipt page for it. */
   receiptNumber: string | null;
   receiptUrl: string | null;
+  /** Labels of the PDFs sent with the notice. */
+  attached?: string[] | null;
   url: string;
 }
 
@@ -22,6 +25,7 @@ export default function DepositReceivedEmail(p: DepositReceivedEmailProps) {
         {p.kind === "deposit" ? " Our planners will now put the job on a printing cell's calendar and send you the dates." : " Thank you: the order is paid in full."}
       </Text>
       {p.receiptNumber && p.receiptUrl ? <Text style={paragraph}>Receipt {p.receiptNumber}: {p.receiptUrl}</Text> : null}
+      <AttachedDocuments labels={p.attached} />
       <Button href={p.url} style={buttonStyle}>
         Open the order
       </Button>

@@ -1,4 +1,5 @@
 import { Button, Text } from "@react-email/components";
+import { AttachedDocuments } from "./_components/attached";
 import { buttonStyle, EmailShell, paragraph } from "./_components/shell";
 
 export interface QuoteReadyEmailProps {
@@ -9,6 +10,8 @@ export interface QuoteReadyEmailProps {
   deposit: string;
   validUntil: string;
   shipDate: string | null;
+  /** Labels of the PDFs sent with the notice. */
+  attached?: string[] | null;
   url: string;
 }
 
@@ -22,6 +25,7 @@ export default function QuoteReadyEmail(p: QuoteReadyEmailProps) {
       <Text style={paragraph}>
         Valid until {p.validUntil}.{p.shipDate ? ` Earliest ship date: ${p.shipDate}.` : ""}
       </Text>
+      <AttachedDocuments labels={p.attached} />
       <Button href={p.url} style={buttonStyle}>
         Review and accept
       </Button>

@@ -1,4 +1,5 @@
 import { Button, Text } from "@react-email/components";
+import { AttachedDocuments } from "./_components/attached";
 import { buttonStyle, EmailShell, paragraph } from "./_components/shell";
 
 export interface ShippedEmailProps {
@@ -7,6 +8,8 @@ export interface ShippedEmailProps {
   carrier: string | null;
   trackingNumber: string | null;
   massText: string | null;
+  /** Labels of the PDFs sent with the notice. */
+  attached?: string[] | null;
   url: string;
 }
 
@@ -21,6 +24,7 @@ export default function ShippedEmail(p: ShippedEmailProps) {
         Caution: {p.massText ? `the crate holds a part of about ${p.massText}. ` : ""}Large tools are heavy: unload and lift
         with suitable equipment and trained people, following your site&rsquo;s lifting procedures and local codes.
       </Text>
+      <AttachedDocuments labels={p.attached} />
       <Button href={p.url} style={buttonStyle}>
         Open the order
       </Button>

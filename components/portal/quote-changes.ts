@@ -12,6 +12,10 @@ export interface QuoteView {
   depositCents: number;
   currency: string;
   terms: string;
+  /** The terms-of-sale version the quote is offered on, printed on its PDF. */
+  termsVersion?: number | null;
+  /** The quotation PDF, when one was issued. */
+  pdf?: { number: string; url: string } | null;
   notes: string;
   shipDate: string | null;
   issuedAt: string | null;

@@ -46,7 +46,24 @@ function AcceptForm({ quote, defaultPo }: { quote: QuoteView; defaultPo: string 
       </Field>
       <label className="flex items-start gap-2 text-sm">
         <input type="checkbox" className="mt-1 accent-kiln-600" checked={terms} onChange={(e) => setTerms(e.target.checked)} />
-        <span>I accept the terms of this quote on behalf of my firm{quote.terms ? `: ${quote.terms}` : "."}</span>
+        <span>
+          I accept the terms of this quote on behalf of my firm{quote.terms ? `: ${quote.terms}` : "."}
+          {quote.termsVersion ? (
+            <>
+              {" "}and the bureau&rsquo;s terms of sale, version {quote.termsVersion}
+              {quote.pdf ? (
+                <>
+                  {" "}(printed on{" "}
+                  <a href={quote.pdf.url} className="text-kiln-700 underline">
+                    quotation {quote.pdf.number}
+                  </a>
+                  )
+                </>
+              ) : null}
+              .
+            </>
+          ) : null}
+        </span>
       </label>
       {errors.acceptTerms ? <p className="text-xs text-signal-danger" role="alert">{errors.acceptTerms[0]}</p> : null}
       <FormMessage>{message}</FormMessage>

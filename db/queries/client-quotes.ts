@@ -21,6 +21,7 @@ const quoteColumns = {
   depositCents: quotes.depositCents,
   currency: quotes.currency,
   terms: quotes.terms,
+  termsVersion: quotes.termsVersion,
   notes: quotes.notes,
   shipDate: quotes.shipDate,
   issuedAt: quotes.issuedAt,
@@ -82,7 +83,7 @@ export async function getLatestIssuedVersion(db: Db | Tx, requestId: string) {
  */
 export async function acceptQuoteAndCreateOrder(
   tx: Tx,
-  input: { quoteId: string; requestId: string; orgId: string; acceptedById: string; poNumber: string; totalCents: number; depositCents: number; balanceCents: number; currency: string; now: Date },
+  input: { quoteId: string; requestId: string; orgId: string; acceptedById: string; poNumber: string; termsVersion: number | null; totalCents: number; depositCents: number; balanceCents: number; currency: string; now: Date },
 ) {
   const updated = await tx
     .update(quotes)
@@ -101,6 +102,7 @@ export async function acceptQuoteAndCreateOrder(
       orgId: input.orgId,
       quoteId: input.quoteId,
       poNumber: input.poNumber,
+      termsVersion: input.termsVersion,
       totalCents: input.totalCents,
       depositCents: input.depositCents,
       balanceCents: input.balanceCents,

@@ -2,7 +2,7 @@ import { and, desc, eq, inArray, isNull, lt, lte, or, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { emailJobs, type EmailJob } from "../schema";
 
-export type NewEmailJob = Pick<EmailJob, "toAddresses" | "subject" | "html" | "text" | "idempotencyKey"> & Partial<Pick<EmailJob, "tags" | "fromAddress" | "replyTo">>;
+export type NewEmailJob = Pick<EmailJob, "toAddresses" | "subject" | "html" | "text" | "idempotencyKey"> & Partial<Pick<EmailJob, "tags" | "fromAddress" | "replyTo" | "attachments">>;
 
 /** Queue an e-mail already claimed for its first attempt by the caller (status sending, attempt 1). */
 export async function insertEmailJob(db: Db, job: NewEmailJob, now: Date, leaseMs: number): Promise<EmailJob> {

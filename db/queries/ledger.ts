@@ -20,6 +20,7 @@ export interface LedgerQuery {
 const ledgerColumns = {
   id: payments.id,
   orderId: payments.orderId,
+  requestId: requests.id,
   reference: requests.reference,
   projectName: requests.projectName,
   firmName: organisations.name,

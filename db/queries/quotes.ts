@@ -157,14 +157,15 @@ async function replaceLines(tx: Tx, quoteId: string, lines: QuoteWrite["lines"])
 }
 
 /** Issue a draft; every other draft or issued version of the request becomes superseded. */
-export async function markIssued(tx: Tx, quoteId: string, requestId: string, actorId: string, issuedAt: Date, validUntil: Date) {
+/** Issue a draft: other open versions are superseded; `termsVersion` is the terms of sale it is offered on. */
+export async function markIssued(tx: Tx, quoteId: string, requestId: string, actorId: string, issuedAt: Date, validUntil: Date, termsVersion: number | null = null) {
   await tx
     .update(quotes)
     .set({ status: "superseded" })
     .where(and(eq(quotes.requestId, requestId), ne(quotes.id, quoteId), inArray(quotes.status, ["draft", "issued"])));
   const done = await tx
     .update(quotes)
-    .set({ status: "issued", issuedAt, issuedById: actorId, validUntil, isStale: false })
+    .set({ status: "issued", issuedAt, issuedById: actorId, validUntil, isStale: false, termsVersion })
     .where(and(eq(quotes.id, quoteId), eq(quotes.status, "draft")))
     .returning({ id: quotes.id });
   return done.length === 1;

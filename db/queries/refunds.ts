@@ -43,3 +43,9 @@ export async function getPaymentRow(db: Db | Tx, paymentId: string) {
   const [p] = await db.select().from(payments).where(eq(payments.id, paymentId));
   return p ?? null;
 }
+
+/** A refund with the payment it returns money from. */
+export async function getRefundWithPayment(db: Db | Tx, refundId: string) {
+  const [row] = await db.select({ refund: refunds, payment: payments }).from(refunds).innerJoin(payments, eq(payments.id, refunds.paymentId)).where(eq(refunds.id, refundId));
+  return row ?? null;
+}

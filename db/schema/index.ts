@@ -10,3 +10,4 @@ export * from "./records";
 export * from "./change-counters";
 export * from "./two-factor";
 export * from "./retention";
+export * from "./issued-documents";

@@ -20,6 +20,8 @@ export const orders = sqliteTable(
       .notNull()
       .references(() => quotes.id),
     poNumber: text("po_number").notNull(),
+    /** The terms-of-sale version the client accepted (the one printed on the accepted quote). */
+    termsVersion: integer("terms_version"),
     totalCents: integer("total_cents").notNull(),
     depositCents: integer("deposit_cents").notNull(),
     balanceCents: integer("balance_cents").notNull(),

@@ -29,6 +29,8 @@ export const quotes = sqliteTable(
     currency: text("currency").notNull().default("usd"),
     validityDays: integer("validity_days").notNull().default(30),
     terms: text("terms").notNull().default(""),
+    /** The terms-of-sale version current when the quote was issued; printed on its PDF. */
+    termsVersion: integer("terms_version"),
     notes: text("notes").notNull().default(""),
     shipDate: ts("ship_date"),
     rateCardId: text("rate_card_id").references(() => rateCards.id),

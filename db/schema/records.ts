@@ -87,6 +87,8 @@ export const emailOutbox = sqliteTable(
     html: text("html"),
     text: text("text"),
     tags: text("tags", { mode: "json" }).$type<{ name: string; value: string }[]>(),
+    /** What was attached (name, type, size, SHA-256), not the bytes. */
+    attachments: text("attachments", { mode: "json" }).$type<{ filename: string; contentType: string | null; sizeBytes: number; sha256: string }[]>(),
     createdAt: createdAt(),
   },
   (t) => [index("email_outbox_created_idx").on(t.createdAt)],
@@ -112,6 +114,8 @@ export const emailJobs = sqliteTable(
     html: text("html").notNull(),
     text: text("text").notNull(),
     tags: text("tags", { mode: "json" }).$type<{ name: string; value: string }[]>(),
+    /** Files sent with it (issued documents' PDFs), base64, kept until the job is sent so a retry carries them. */
+    attachments: text("attachments", { mode: "json" }).$type<StoredAttachment[]>(),
     idempotencyKey: text("idempotency_key").notNull(),
     status: text("status", { enum: EMAIL_JOB_STATUSES }).notNull().default("queued"),
     attempts: integer("attempts").notNull().default(0),
@@ -126,3 +130,9 @@ export const emailJobs = sqliteTable(
   (t) => [index("email_jobs_status_next_idx").on(t.status, t.nextAttemptAt)],
 );
 export type EmailJob = typeof emailJobs.$inferSelect;
+/** An e-mail job's attachment as stored: its bytes in base64. */
+export interface StoredAttachment {
+  filename: string;
+  contentType: string | null;
+  contentBase64: string;
+}

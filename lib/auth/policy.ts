@@ -88,6 +88,21 @@ export function can(user: PolicyUser, permission: Permission, resource?: PolicyR
   return resource ? canSee(user, resource) : true;
 }
 
+/** The issued documents each staff role's work needs; clients see every kind on what they may see. */
+export const STAFF_DOCUMENT_KINDS: Record<"sales" | "production" | "accounts" | "admin", ReadonlySet<string>> = {
+  sales: new Set(["quote", "deposit_invoice", "invoice"]),
+  production: new Set(["packing_list"]),
+  accounts: new Set(["quote", "deposit_invoice", "invoice", "credit_note"]),
+  admin: new Set(["quote", "deposit_invoice", "invoice", "credit_note", "packing_list"]),
+};
+
+/** May this user open an issued document of this kind on this record? */
+export function canReadDocument(user: PolicyUser, kind: string, resource: PolicyResource): boolean {
+  if (!canSee(user, resource)) return false;
+  if (user.role === "client" || user.role === "client_admin") return true;
+  return STAFF_DOCUMENT_KINDS[user.role].has(kind);
+}
+
 /** Where each role lands after signing in. */
 export function homePathFor(role: Role): string {
   switch (role) {

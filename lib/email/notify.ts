@@ -15,7 +15,13 @@ import StaffMessageEmail from "@/emails/staff-message";
 import { env } from "@/lib/env";
 import { formatCents } from "@/lib/money";
 import { formatMass } from "@/lib/units";
+import { issueDocument, type IssueRequest } from "@/lib/documents/issue";
+import { KIND_TITLES } from "@/lib/documents/numbering";
+import RefundIssuedEmail from "@/emails/refund-issued";
+import { getRefundWithPayment } from "@/db/queries/refunds";
+import { errorFields, logFor } from "@/lib/observability/log";
 import { queueEmail } from "./outbox";
+import type { SendEmailInput } from "./send";
 
 /**
  * The client e-mails of the order's life. Each loads what it needs by id and queues the e-mail
@@ -37,6 +43,21 @@ async function contactsOrThrow(db: Db, requestId: string) {
   const c = await getRequestContacts(db, requestId);
   if (!c) throw new Error(`notify: request ${requestId} not found`);
   return c;
+}
+
+/**
+ * The PDF of the document a notice announces, issued now if its event's transaction did not
+ * (idempotent per kind and source), ready to attach. A document that cannot be made is logged
+ * and the notice goes without it: the order page lists it once it exists.
+ */
+async function documentAttachment(db: Db, r: IssueRequest): Promise<{ attachments: NonNullable<SendEmailInput["attachments"]>; labels: string[] }> {
+  try {
+    const doc = await issueDocument(db, r);
+    return { attachments: [{ filename: `${doc.number}.pdf`, content: doc.pdf, contentType: "application/pdf" }], labels: [`${KIND_TITLES[r.kind]} ${doc.number}`] };
+  } catch (e) {
+    logFor({ documentKind: r.kind, sourceId: r.sourceId }).error({ ...errorFields(e), event: "email.attachment_failed" }, "document could not be attached; the notice goes without it");
+    return { attachments: [], labels: [] };
+  }
 }
 
 /** To the client who submitted, and a copy to the bureau's sales inbox. */
@@ -71,9 +92,11 @@ export async function notifyQuoteReady(quoteId: string, db: Db = getDb()) {
   if (!row) throw new Error(`notify: quote ${quoteId} not found`);
   const { quote } = row;
   const c = await contactsOrThrow(db, row.request.id);
+  const doc = await documentAttachment(db, { kind: "quote", sourceId: quote.id });
   await queueEmail({
     to: recipients(c.creatorEmail),
     subject: `Quote ${quote.version} for ${c.reference} is ready`,
+    attachments: doc.attachments,
     react: createElement(QuoteReadyEmail, {
       reference: c.reference,
       projectName: c.projectName,
@@ -82,6 +105,7 @@ export async function notifyQuoteReady(quoteId: string, db: Db = getDb()) {
       deposit: formatCents(quote.depositCents, quote.currency),
       validUntil: dateText(quote.validUntil) ?? "see the quote",
       shipDate: dateText(quote.shipDate),
+      attached: doc.labels,
       url: requestUrl(c.id),
     }),
     tags: [{ name: "template", value: "quote-ready" }],
@@ -97,7 +121,9 @@ export async function notifyDepositReceived(paymentId: string, db: Db = getDb())
   if (!row) throw new Error(`notify: order ${payment.orderId} not found`);
   const c = await contactsOrThrow(db, row.request.id);
   const what = payment.kind === "deposit" ? "Deposit" : "Balance";
+  const doc = payment.kind === "deposit" ? await documentAttachment(db, { kind: "deposit_invoice", sourceId: payment.id }) : { attachments: [], labels: [] };
   await queueEmail({
+    attachments: doc.attachments,
     to: recipients(c.creatorEmail, c.billingEmail),
     subject: `${what} received for ${c.reference}`,
     react: createElement(DepositReceivedEmail, {
@@ -108,6 +134,7 @@ export async function notifyDepositReceived(paymentId: string, db: Db = getDb())
       poNumber: row.order.poNumber,
       receiptNumber: payment.receiptNumber,
       receiptUrl: `${env().APP_URL}/portal/payments/${payment.id}`,
+      attached: doc.labels,
       url: requestUrl(c.id),
     }),
     tags: [{ name: "template", value: "deposit-received" }],
@@ -142,7 +169,9 @@ export async function notifyShipped(orderId: string, db: Db = getDb()) {
   if (!row) throw new Error(`notify: order ${orderId} not found`);
   const c = await contactsOrThrow(db, row.request.id);
   const kg = row.order.actualMaterialKg;
+  const doc = await documentAttachment(db, { kind: "packing_list", sourceId: orderId });
   await queueEmail({
+    attachments: doc.attachments,
     to: recipients(c.creatorEmail, c.billingEmail),
     subject: `${c.reference} has shipped`,
     react: createElement(ShippedEmail, {
@@ -151,6 +180,7 @@ export async function notifyShipped(orderId: string, db: Db = getDb()) {
       carrier: row.order.carrier,
       trackingNumber: row.order.trackingNumber,
       massText: kg ? formatMass(kg, c.unitsPref) : null,
+      attached: doc.labels,
       url: requestUrl(c.id),
     }),
     tags: [{ name: "template", value: "shipped" }],
@@ -162,7 +192,9 @@ export async function notifyBalanceDue(orderId: string, db: Db = getDb()) {
   const row = await getOrderWithRequest(db, orderId);
   if (!row) throw new Error(`notify: order ${orderId} not found`);
   const c = await contactsOrThrow(db, row.request.id);
+  const doc = await documentAttachment(db, { kind: "invoice", sourceId: orderId });
   await queueEmail({
+    attachments: doc.attachments,
     to: recipients(c.creatorEmail, c.billingEmail),
     subject: `Balance due for ${c.reference}`,
     react: createElement(BalanceDueEmail, {
@@ -170,10 +202,36 @@ export async function notifyBalanceDue(orderId: string, db: Db = getDb()) {
       projectName: c.projectName,
       balance: formatCents(row.order.balanceCents, row.order.currency),
       poNumber: row.order.poNumber,
+      attached: doc.labels,
       url: requestUrl(c.id),
     }),
     tags: [{ name: "template", value: "balance-due" }],
     idempotencyKey: `balance-due/${orderId}`,
+  }, db);
+}
+
+/** A refund that went through, with its credit note. */
+export async function notifyRefund(refundId: string, db: Db = getDb()) {
+  const r = await getRefundWithPayment(db, refundId);
+  if (!r || r.refund.status !== "succeeded") throw new Error(`notify: succeeded refund ${refundId} not found`);
+  const row = await getOrderWithRequest(db, r.payment.orderId);
+  if (!row) throw new Error(`notify: order ${r.payment.orderId} not found`);
+  const c = await contactsOrThrow(db, row.request.id);
+  const doc = await documentAttachment(db, { kind: "credit_note", sourceId: refundId });
+  await queueEmail({
+    to: recipients(c.creatorEmail, c.billingEmail),
+    subject: `Refund on ${c.reference}`,
+    attachments: doc.attachments,
+    react: createElement(RefundIssuedEmail, {
+      reference: c.reference,
+      projectName: c.projectName,
+      amount: formatCents(r.refund.amountCents, r.payment.currency),
+      reason: r.refund.reason,
+      attached: doc.labels,
+      url: requestUrl(c.id),
+    }),
+    tags: [{ name: "template", value: "refund-issued" }],
+    idempotencyKey: `refund/${refundId}`,
   }, db);
 }
 

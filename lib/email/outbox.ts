@@ -4,7 +4,7 @@ import { createOutboxMessage } from "../../db/queries/outbox";
 import type { EmailJob } from "../../db/schema";
 import { env } from "../env";
 import { errorFields, logFor } from "../observability/log";
-import { EmailSendError, renderEmail, sendRenderedEmail, type SendEmailInput } from "./send";
+import { attachmentRecords, EmailSendError, renderEmail, sendRenderedEmail, type SendEmailInput } from "./send";
 
 /** Attempts before an e-mail is given up on and shown to staff as failed. */
 export const MAX_EMAIL_ATTEMPTS = 8;
@@ -43,6 +43,7 @@ export async function queueEmail(input: SendEmailInput, db: Db = getDb(), deps: 
       html,
       text,
       tags: input.tags ?? null,
+      attachments: input.attachments?.length ? input.attachments.map((a) => ({ filename: a.filename, contentType: a.contentType ?? null, contentBase64: a.content.toString("base64") })) : null,
       fromAddress: input.from ?? null,
       replyTo: input.replyTo ? (Array.isArray(input.replyTo) ? input.replyTo : [input.replyTo]) : null,
       idempotencyKey: input.idempotencyKey ?? `email-job/${crypto.randomUUID()}`,
@@ -57,6 +58,7 @@ export async function queueEmail(input: SendEmailInput, db: Db = getDb(), deps: 
 async function attempt(db: Db, job: EmailJob, deps: EmailDeps): Promise<boolean> {
   const now = deps.now ?? (() => new Date());
   const log = logFor({ emailJobId: job.id, template: job.tags?.find((t) => t.name === "template")?.value });
+  const attachments = job.attachments?.map((a) => ({ filename: a.filename, contentType: a.contentType, content: Buffer.from(a.contentBase64, "base64") })) ?? null;
   try {
     const { id } = await (deps.send ?? sendRenderedEmail)({
       to: job.toAddresses,
@@ -67,10 +69,11 @@ async function attempt(db: Db, job: EmailJob, deps: EmailDeps): Promise<boolean>
       from: job.fromAddress,
       replyTo: job.replyTo,
       idempotencyKey: job.idempotencyKey,
+      attachments,
     });
     await markEmailSent(db, job.id, id, now());
     // The back office's list of sent mail (as sendEmail keeps it); a failure here loses only that copy.
-    await createOutboxMessage(db, { providerId: id, fromAddress: job.fromAddress ?? env().EMAIL_FROM, toAddresses: job.toAddresses, subject: job.subject, html: job.html, text: job.text, tags: job.tags ?? [] }).catch((e: unknown) =>
+    await createOutboxMessage(db, { providerId: id, fromAddress: job.fromAddress ?? env().EMAIL_FROM, toAddresses: job.toAddresses, subject: job.subject, html: job.html, text: job.text, tags: job.tags ?? [], attachments: attachmentRecords(attachments) }).catch((e: unknown) =>
       log.error({ ...errorFields(e), event: "email.outbox_copy" }, "e-mail sent but not written to the outbox"),
     );
     if (job.attempts > 1) log.info({ event: "email.sent", attempts: job.attempts }, "e-mail sent after retries");

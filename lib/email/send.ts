@@ -1,3 +1,4 @@
+import { createHash } from "node:crypto";
 import { render } from "@react-email/render";
 import type { ReactElement } from "react";
 import { Resend } from "resend";
@@ -18,6 +19,8 @@ export interface SendEmailInput {
   replyTo?: string | string[];
   /** Resend de-duplicates sends with the same key for 24 h. */
   idempotencyKey?: string;
+  /** Files sent with the message (issued documents' PDFs). */
+  attachments?: { filename: string; content: Buffer; contentType?: string }[];
 }
 
 /** A send the e-mail API refused or could not take; `name` is Resend's error name. */
@@ -72,6 +75,7 @@ export async function sendEmail(input: SendEmailInput, resend: Resend = getResen
         text,
         tags: input.tags,
         replyTo: input.replyTo,
+        attachments: input.attachments?.map((a) => ({ filename: a.filename, content: a.content, contentType: a.contentType })),
       },
       input.idempotencyKey ? { idempotencyKey: input.idempotencyKey } : undefined,
     );
@@ -96,6 +100,7 @@ export async function sendEmail(input: SendEmailInput, resend: Resend = getResen
       html,
       text,
       tags: input.tags ?? [],
+      attachments: attachmentRecords(input.attachments),
     });
   } catch (e) {
     // The message is on its way; only the back office's copy is missing. Say so in the log.
@@ -114,6 +119,12 @@ export interface RenderedEmail {
   from?: string | null;
   replyTo?: string[] | null;
   idempotencyKey: string;
+  attachments?: { filename: string; content: Buffer; contentType?: string | null }[] | null;
+}
+
+/** What the outbox keeps of an attachment: name, type, size and SHA-256, not the bytes. */
+export function attachmentRecords(attachments: { filename: string; content: Buffer; contentType?: string | null }[] | null | undefined) {
+  return (attachments ?? []).map((a) => ({ filename: a.filename, contentType: a.contentType ?? null, sizeBytes: a.content.length, sha256: createHash("sha256").update(a.content).digest("hex") }));
 }
 
 export async function renderEmail(input: SendEmailInput): Promise<{ html: string; text: string }> {
@@ -127,7 +138,16 @@ export async function sendRenderedEmail(input: RenderedEmail, resend: Resend = g
   let result: Awaited<ReturnType<Resend["emails"]["send"]>>;
   try {
     result = await resend.emails.send(
-      { from: input.from ?? env().EMAIL_FROM, to: input.to, subject: input.subject, html: input.html, text: input.text, tags: input.tags ?? undefined, replyTo: input.replyTo ?? undefined },
+      {
+        from: input.from ?? env().EMAIL_FROM,
+        to: input.to,
+        subject: input.subject,
+        html: input.html,
+        text: input.text,
+        tags: input.tags ?? undefined,
+        replyTo: input.replyTo ?? undefined,
+        attachments: input.attachments?.length ? input.attachments.map((a) => ({ filename: a.filename, content: a.content, contentType: a.contentType ?? undefined })) : undefined,
+      },
       { idempotencyKey: input.idempotencyKey },
     );
   } catch (e) {

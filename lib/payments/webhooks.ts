@@ -5,6 +5,7 @@ import { payments } from "../../db/schema";
 import { writeAudit, type Tx } from "../../db/queries/audit";
 import { getOrderWithRequest, getPayment, getPaymentBySession, markPaymentExpired, markPaymentPaid, recordWebhookEvent, isWebhookEventRecorded } from "../../db/queries/payments";
 import { transitionStage } from "../../db/queries/stages";
+import { issueDocumentInTx } from "../documents/issue";
 
 /** What happened to one event; written to webhook_events.outcome and the log. */
 export type WebhookOutcome =
@@ -75,6 +76,8 @@ async function onCompleted(tx: Tx, session: Stripe.Checkout.Session, now: Date):
     after: { kind: payment.kind, amountCents: payment.amountCents, session: session.id, paymentIntentId },
   });
   if (payment.kind === "deposit") {
+    // The deposit invoice is numbered in the same transaction that records the money.
+    await issueDocumentInTx(tx, { kind: "deposit_invoice", sourceId: payment.id, now });
     const row = await getOrderWithRequest(tx, payment.orderId);
     if (row && row.request.stage === "accepted") {
       await transitionStage(tx, { requestId: row.request.id, to: "deposit_paid", actorId: null, note: "Deposit received", expectedFrom: "accepted" });

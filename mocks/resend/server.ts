@@ -1,4 +1,4 @@
-import { randomUUID } from "node:crypto";
+import { createHash, randomUUID } from "node:crypto";
 import { createServer, type IncomingMessage, type ServerResponse } from "node:http";
 import type { AddressInfo } from "node:net";
 import { pathToFileURL } from "node:url";
@@ -16,7 +16,16 @@ export interface FakeEmail {
   text: string | null;
   tags: { name: string; value: string }[];
   headers: Record<string, string>;
+  /** Attachments as received (base64 content decoded to count and hash it). */
+  attachments: FakeAttachment[];
   createdAt: Date;
+}
+
+export interface FakeAttachment {
+  filename: string;
+  contentType: string | null;
+  sizeBytes: number;
+  sha256: string;
 }
 
 export interface ResendFakeOptions {
@@ -106,7 +115,18 @@ export function validateEmail(body: unknown): Omit<FakeEmail, "id" | "createdAt"
   if (b.headers && typeof b.headers === "object") {
     for (const [k, v] of Object.entries(b.headers)) if (typeof v === "string") headers[k] = v;
   }
-  return { from: b.from.trim(), to, cc, bcc, replyTo, subject: b.subject, html, text, tags, headers };
+  const attachmentsRaw = b.attachments ?? [];
+  if (!Array.isArray(attachmentsRaw)) throw new ResendError(422, "validation_error", "The `attachments` field must be an array.");
+  const attachments = attachmentsRaw.map((a: unknown): FakeAttachment => {
+    const att = a as { filename?: unknown; content?: unknown; content_type?: unknown };
+    if (typeof att?.filename !== "string" || att.filename === "") throw new ResendError(422, "validation_error", "Each attachment needs a `filename`.");
+    if (typeof att.content !== "string" || !/^[A-Za-z0-9+/]*={0,2}$/.test(att.content)) {
+      throw new ResendError(422, "validation_error", "Attachment `content` must be base64 (a `path` to fetch is not supported by the local fake).");
+    }
+    const bytes = Buffer.from(att.content, "base64");
+    return { filename: att.filename, contentType: typeof att.content_type === "string" ? att.content_type : null, sizeBytes: bytes.length, sha256: createHash("sha256").update(bytes).digest("hex") };
+  });
+  return { from: b.from.trim(), to, cc, bcc, replyTo, subject: b.subject, html, text, tags, headers, attachments };
 }
 
 async function readJson(req: IncomingMessage): Promise<unknown> {

@@ -20,6 +20,7 @@ vi.mock("@/lib/email/notify", () => ({
   notifyShipped: vi.fn(async () => undefined),
   notifyBalanceDue: vi.fn(async () => undefined),
   notifyStaffMessage: vi.fn(async () => undefined),
+  notifyRefund: vi.fn(async () => undefined),
 }));
 vi.mock("@/lib/email/send", () => ({ sendEmail: vi.fn(async () => ({ id: "test" })) }));
 

@@ -27,6 +27,7 @@ const notify = vi.hoisted(() => ({
   notifyShipped: vi.fn(async (_id: string) => undefined),
   notifyBalanceDue: vi.fn(async (_id: string) => undefined),
   notifyStaffMessage: vi.fn(async (_id: string) => undefined),
+  notifyRefund: vi.fn(async (_id: string) => undefined),
 }));
 vi.mock("@/lib/email/notify", () => notify);
 

@@ -3,12 +3,13 @@
  * API takes it (with the same idempotency key each time); a refusal that cannot change, or too
  * many attempts, ends `failed` for staff to send again; nothing is dropped.
  */
+import { createHash } from "node:crypto";
 import { eq } from "drizzle-orm";
 import { createElement } from "react";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "../../db/client";
 import { emailBacklog, listUndeliveredEmails } from "../../db/queries/email-jobs";
-import { emailJobs } from "../../db/schema";
+import { emailJobs, emailOutbox } from "../../db/schema";
 import WelcomeEmail from "../../emails/welcome";
 import { emailBackoffMs, MAX_EMAIL_ATTEMPTS, queueEmail, resendFailedEmail, sweepEmails } from "../../lib/email/outbox";
 import { EmailSendError, type RenderedEmail } from "../../lib/email/send";
@@ -72,6 +73,26 @@ describe("durable e-mails", () => {
     expect(await sweepEmails(db, { send: api.send, now: clock })).toEqual({ attempted: 1, sent: 1 });
     expect(await jobOf(r.jobId)).toMatchObject({ status: "sent", attempts: 3 });
     expect(new Set(api.calls.map((c) => c.idempotencyKey))).toEqual(new Set(["k-flaky"]));
+  });
+
+  it("an attachment is kept with the job and sent whole on the retry; the outbox records its name, size and hash", async () => {
+    const api = flakyApi(1);
+    let now = new Date("2027-03-02T09:00:00Z");
+    const clock = () => now;
+    // Bytes that are not valid UTF-8, so a text round trip would change them.
+    const pdf = Buffer.from([0x25, 0x50, 0x44, 0x46, 0x2d, 0xff, 0xfe, 0x00, 0x80, 0x0a]);
+    const r = await queueEmail({ ...mail("k-attached"), attachments: [{ filename: "INV-2027-00001.pdf", content: pdf, contentType: "application/pdf" }] }, db, { send: api.send, now: clock });
+    expect(r.sent).toBe(false);
+    now = new Date(now.getTime() + emailBackoffMs(1));
+    expect(await sweepEmails(db, { send: api.send, now: clock })).toEqual({ attempted: 1, sent: 1 });
+    expect(api.calls).toHaveLength(2);
+    for (const c of api.calls) {
+      expect(c.attachments).toHaveLength(1);
+      expect(c.attachments![0]).toMatchObject({ filename: "INV-2027-00001.pdf", contentType: "application/pdf" });
+      expect(Buffer.compare(c.attachments![0]!.content, pdf)).toBe(0);
+    }
+    const [copy] = await db.select().from(emailOutbox).where(eq(emailOutbox.providerId, "msg-2"));
+    expect(copy!.attachments).toEqual([{ filename: "INV-2027-00001.pdf", contentType: "application/pdf", sizeBytes: pdf.length, sha256: createHash("sha256").update(pdf).digest("hex") }]);
   });
 
   it("a refusal that cannot change fails at once; staff send it again", async () => {

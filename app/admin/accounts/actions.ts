@@ -3,6 +3,8 @@
 import { revalidatePath } from "next/cache";
 import { writeAudit } from "@/db/queries/audit";
 import { completeRefund, failRefund, getPaymentRow, getRefundByKey, insertPendingRefund, refundedOrPendingCents } from "@/db/queries/refunds";
+import { issueDocumentInTx } from "@/lib/documents/issue";
+import { notifyRefund } from "@/lib/email/notify";
 import { AppError } from "@/lib/errors";
 import { PAYMENT_STATE_LABEL } from "@/lib/labels";
 import { formatCents } from "@/lib/money";
@@ -61,6 +63,7 @@ export const refundPayment = defineAction({ access: "accounts:refund", input: re
 
   const after = await db.transaction(async (tx) => {
     const p = await completeRefund(tx, refundId, payment.id, processorRefund.id, input.amountCents);
+    await issueDocumentInTx(tx, { kind: "credit_note", sourceId: refundId, actorId: user.id });
     await writeAudit(tx, {
       actorId: user.id,
       action: "refund.made",
@@ -72,6 +75,7 @@ export const refundPayment = defineAction({ access: "accounts:refund", input: re
     });
     return p;
   });
+  await notifyRefund(refundId).catch((e: unknown) => console.error("refund e-mail failed", e));
   revalidatePath("/admin/accounts");
   revalidatePath(`/admin/accounts/payments/${payment.id}`);
   return { refundId, status: after.status };

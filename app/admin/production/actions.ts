@@ -8,6 +8,7 @@ import { getCurrentRateCard } from "@/db/queries/catalogue";
 import { attachInspectionReport, ensureBalancePayment, getOrderForProduction, listCellBlocks, saveSchedule, updateActuals } from "@/db/queries/orders";
 import { releaseCellBlocks } from "@/db/queries/schedule-blocks";
 import { transitionStage } from "@/db/queries/stages";
+import { issueDocumentInTx } from "@/lib/documents/issue";
 import { notifyBalanceDue, notifyScheduled, notifyShipped } from "@/lib/email/notify";
 import { AppError } from "@/lib/errors";
 import { label, roleMayMove } from "@/lib/orders/stages";
@@ -103,6 +104,9 @@ export const moveStage = defineAction({ access: "production:record", input: move
     }
     if (input.to === "shipped") {
       const balanceId = await ensureBalancePayment(tx, order.order, user.id);
+      // The packing list and the balance invoice are numbered with the shipment itself.
+      await issueDocumentInTx(tx, { kind: "packing_list", sourceId: order.order.id, actorId: user.id });
+      if (order.order.balanceCents > 0) await issueDocumentInTx(tx, { kind: "invoice", sourceId: order.order.id, actorId: user.id });
       await writeAudit(tx, { actorId: user.id, action: "order.ship", entityType: "order", entityId: order.order.id, orgId: order.order.orgId, after: { carrier: order.order.carrier, trackingNumber: order.order.trackingNumber, balancePaymentId: balanceId } });
     }
     return r;

@@ -8,6 +8,8 @@ import { transitionStage } from "@/db/queries/stages";
 import { label } from "@/lib/orders/stages";
 import { retryAnalysis } from "@/lib/analysis/run";
 import { currentRequestId } from "@/lib/observability/request-id";
+import { getCurrentTerms } from "@/db/queries/issued-documents";
+import { issueDocumentInTx } from "@/lib/documents/issue";
 import { notifyQuoteReady, notifyStaffMessage } from "@/lib/email/notify";
 import { AppError } from "@/lib/errors";
 import { checkLines, quoteTotals, validUntil } from "@/lib/quoting/lines";
@@ -77,8 +79,11 @@ export const saveQuote = defineAction({ access: "quote:manage", input: saveQuote
         after: { version: q.version, ...write.totals, lines: input.lines.length, edited: input.lines.filter((l) => l.editReason).map((l) => ({ description: l.description, reason: l.editReason })) },
       });
       if (!input.issue) return { quoteId: q.id, version: q.version, status: "draft" as const };
-      const ok = await markIssued(tx, q.id, input.requestId, user.id, now, validUntil(now, input.validityDays));
+      const terms = await getCurrentTerms(tx);
+      const ok = await markIssued(tx, q.id, input.requestId, user.id, now, validUntil(now, input.validityDays), terms?.version ?? null);
       if (!ok) throw new AppError("conflict:quote", "This version was issued meanwhile; reload.");
+      // The quotation PDF is numbered and frozen with the issue itself.
+      await issueDocumentInTx(tx, { kind: "quote", sourceId: q.id, actorId: user.id, now });
       await transitionStage(tx, { requestId: input.requestId, to: "quoted", actorId: user.id, note: `Quote version ${q.version} issued` });
       await writeAudit(tx, { actorId: user.id, action: "quote.issue", entityType: "quote", entityId: q.id, orgId: sales.request.orgId, after: { version: q.version, totalCents: totals.totalCents, validityDays: input.validityDays } });
       return { quoteId: q.id, version: q.version, status: "issued" as const };

@@ -5,6 +5,7 @@ import { getDb } from "@/db/client";
 import { writeAudit } from "@/db/queries/audit";
 import { acceptQuoteAndCreateOrder, getLatestIssuedVersion, getQuoteWithRequest } from "@/db/queries/client-quotes";
 import { createDocument } from "@/db/queries/documents";
+import { getCurrentTerms } from "@/db/queries/issued-documents";
 import { getUploadOwned } from "@/db/queries/files";
 import { createMessage, getMessage } from "@/db/queries/messages";
 import { getOrderWithRequest } from "@/db/queries/payments";
@@ -52,6 +53,8 @@ export async function acceptQuote(input: AcceptQuoteInput): Promise<ActionResult
     if (request.stage !== "quoted") throw new AppError("conflict:stage", "This request is not waiting for a quote to be accepted.");
 
     const split = splitDeposit(quote.totalCents, quote.depositBp);
+    // The terms printed on the quote are the ones accepted; a quote from before versioned terms takes the current ones.
+    const termsVersion = quote.termsVersion ?? (await getCurrentTerms(db))?.version ?? null;
     const order = await db.transaction(async (tx) => {
       const o = await acceptQuoteAndCreateOrder(tx, {
         quoteId: quote.id,
@@ -59,6 +62,7 @@ export async function acceptQuote(input: AcceptQuoteInput): Promise<ActionResult
         orgId: request.orgId,
         acceptedById: user.id,
         poNumber: parsed.data.poNumber,
+        termsVersion,
         totalCents: quote.totalCents,
         depositCents: quote.depositCents > 0 ? quote.depositCents : split.depositCents,
         balanceCents: quote.totalCents - (quote.depositCents > 0 ? quote.depositCents : split.depositCents),
@@ -67,7 +71,7 @@ export async function acceptQuote(input: AcceptQuoteInput): Promise<ActionResult
       });
       if (!o) throw new AppError("conflict:quote", "This quote changed meanwhile; reload the page.");
       await transitionStage(tx, { requestId: request.id, to: "accepted", actorId: user.id, note: `Quote v${quote.version} accepted, PO ${parsed.data.poNumber}`, expectedFrom: "quoted" });
-      await writeAudit(tx, { actorId: user.id, action: "quote.accept", entityType: "quote", entityId: quote.id, orgId: request.orgId, after: { poNumber: parsed.data.poNumber, totalCents: quote.totalCents } });
+      await writeAudit(tx, { actorId: user.id, action: "quote.accept", entityType: "quote", entityId: quote.id, orgId: request.orgId, after: { poNumber: parsed.data.poNumber, totalCents: quote.totalCents, termsVersion } });
       return o;
     });
     const checkout = await openCheckout(db, { orderId: order.id, kind: "deposit", userId: user.id, email: user.email, appUrl: env().APP_URL }).catch((e: unknown) => {

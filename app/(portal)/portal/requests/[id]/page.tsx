@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { getDb } from "@/db/client";
 import { listClientQuotes } from "@/db/queries/client-quotes";
 import { listDocuments } from "@/db/queries/documents";
+import { listIssuedDocuments } from "@/db/queries/issued-documents";
 import { listMessages } from "@/db/queries/messages";
 import { getOrganisation } from "@/db/queries/organisations";
 import { listPartsWithAnalysis } from "@/db/queries/parts";
@@ -20,6 +21,7 @@ import { PartReview } from "@/components/portal/request-form/part-review";
 import { StageBadge } from "@/components/stage-badge";
 import { RevisionUpload } from "@/components/portal/revision-upload";
 import { StageTimeline } from "@/components/portal/timeline";
+import { IssuedDocumentsList } from "@/components/issued-documents";
 import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
 import { Card, CardTitle, EmptyState, PageHeader } from "@/components/ui/card";
@@ -28,7 +30,8 @@ import { orPageError, pageUser } from "@/lib/auth/page-guard";
 import { getBureauSettings, getFileRetention } from "@/db/queries/retention";
 import { FINISHED_STAGES } from "@/lib/retention/policy";
 import { ModelFilesCard } from "./_components/model-files-card";
-import { can } from "@/lib/auth/policy";
+import { can, canReadDocument } from "@/lib/auth/policy";
+import { documentUrl } from "@/lib/documents/links";
 import type { EstimateResult } from "@/lib/estimating/types";
 import { CURE_LABEL, DOCUMENT_KIND_LABEL } from "@/lib/labels";
 import { formatCents } from "@/lib/money";
@@ -62,7 +65,7 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
     );
   }
 
-  const [parts, quotes, order, events, messages, documents, catalogue, org] = await Promise.all([
+  const [parts, quotes, order, events, messages, documents, catalogue, org, issuedAll] = await Promise.all([
     listPartsWithAnalysis(db, req.id),
     listClientQuotes(db, req.id),
     getOrderByRequest(db, req.id),
@@ -71,7 +74,9 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
     listDocuments(db, req.id),
     loadFormCatalogue(db, units),
     getOrganisation(db, req.orgId),
+    listIssuedDocuments(db, req.id),
   ]);
+  const issued = issuedAll.filter((d) => canReadDocument(user, d.kind, { orgId: req.orgId, createdById: req.createdById }));
   const payments = order ? await listPaymentsForOrder(db, order.id) : [];
   const isFinished = (FINISHED_STAGES as readonly string[]).includes(req.stage);
   const [retention, fileState] = isFinished ? await Promise.all([getBureauSettings(db), getFileRetention(db, req.id)]) : [null, null];
@@ -145,7 +150,10 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
             ) : null}
 
             <QuotesSection
-              quotes={quotes.map((q) => ({ ...q, shipDate: iso(q.shipDate), issuedAt: iso(q.issuedAt), validUntil: iso(q.validUntil) }))}
+              quotes={quotes.map((q) => {
+                const doc = issued.find((d) => d.kind === "quote" && d.sourceId === q.id);
+                return { ...q, shipDate: iso(q.shipDate), issuedAt: iso(q.issuedAt), validUntil: iso(q.validUntil), pdf: doc ? { number: doc.number, url: documentUrl(doc.id) } : null };
+              })}
               canAccept={can(user, "quote:accept", { orgId: req.orgId, createdById: req.createdById }) && req.stage === "quoted"}
               defaultPo={org?.defaultPoNumber ?? ""}
               now={new Date().toISOString()}
@@ -191,26 +199,28 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
             </Card>
             <Card>
               <CardTitle className="mb-3">Documents</CardTitle>
-              {documents.filter((d) => !d.messageId).length === 0 ? (
-                <p className="text-sm text-ink-500">Inspection reports, invoices and quote pages appear here.</p>
-              ) : (
-                <ul className="space-y-2 text-sm">
-                  {documents
-                    .filter((d) => !d.messageId)
-                    .map((d) => (
-                      <li key={d.id} className="flex items-center gap-2">
-                        <Badge>{DOCUMENT_KIND_LABEL[d.kind] ?? d.kind}</Badge>
-                        {d.hasFile ? (
-                          <a href={`/api/files/${d.id}`} className="text-kiln-700 underline">
-                            {d.title}
-                          </a>
-                        ) : (
-                          <span>{d.title}</span>
-                        )}
-                      </li>
-                    ))}
-                </ul>
-              )}
+              <IssuedDocumentsList docs={issued} empty="Quotations, invoices, credit notes and the packing list appear here as PDFs once issued." />
+              {documents.filter((d) => !d.messageId).length > 0 ? (
+                <div className="mt-4 border-t border-paper-200 pt-3">
+                  <p className="text-xs font-medium uppercase tracking-wide text-ink-500">Reports and attachments</p>
+                  <ul className="mt-1 space-y-2 text-sm">
+                    {documents
+                      .filter((d) => !d.messageId)
+                      .map((d) => (
+                        <li key={d.id} className="flex items-center gap-2">
+                          <Badge>{DOCUMENT_KIND_LABEL[d.kind] ?? d.kind}</Badge>
+                          {d.hasFile ? (
+                            <a href={`/api/files/${d.id}`} className="text-kiln-700 underline">
+                              {d.title}
+                            </a>
+                          ) : (
+                            <span>{d.title}</span>
+                          )}
+                        </li>
+                      ))}
+                  </ul>
+                </div>
+              ) : null}
               {parts.some((p) => p.revision) ? (
                 <div className="mt-4 border-t border-paper-200 pt-3">
                   <p className="text-xs font-medium uppercase tracking-wide text-ink-500">Your files</p>

@@ -3,6 +3,7 @@ import { notFound } from "next/navigation";
 import { dateText, dateTimeText } from "@/components/admin/format";
 import { RefundForm } from "@/components/admin/refund-form";
 import { PaymentStateBadge, RefundStateBadge } from "@/components/stage-badge";
+import { OrderDocumentsCard } from "@/components/admin/order-documents";
 import { Card, CardTitle, PageHeader } from "@/components/ui/card";
 import { getDb } from "@/db/client";
 import { getLedgerPayment, listRefundsForPayments } from "@/db/queries/ledger";
@@ -44,6 +45,7 @@ export default async function PaymentPage({ params }: { params: Promise<{ id: st
             </ul>
           )}
         </Card>
+        <OrderDocumentsCard requestId={p.requestId} user={user} />
         <Card>
           <CardTitle>Refund</CardTitle>
           <div className="mt-2">

@@ -4,6 +4,7 @@ import { dateText, dateTimeText, hoursText, stageText } from "@/components/admin
 import { ActualsForm, ScheduleForm, StageForm } from "@/components/admin/order-forms";
 import { StageBadge } from "@/components/stage-badge";
 import { Alert } from "@/components/ui/alert";
+import { OrderDocumentsCard } from "@/components/admin/order-documents";
 import { Card, CardTitle, PageHeader } from "@/components/ui/card";
 import { getDb } from "@/db/client";
 import { listCurrentCells } from "@/db/queries/catalogue";
@@ -90,6 +91,7 @@ export default async function ProductionOrderPage({ params }: { params: Promise<
               {canRecord ? <ActualsForm orderId={id} initial={{ actualPrintHours: o.order.actualPrintHours, actualMaterialKg: o.order.actualMaterialKg, actualMachiningHours: o.order.actualMachiningHours, inspectionResult: o.order.inspectionResult, inspectionNotes: o.order.inspectionNotes, carrier: o.order.carrier, trackingNumber: o.order.trackingNumber }} /> : <p className="text-sm text-ink-500">Your role views the board only.</p>}
             </div>
           </Card>
+          <OrderDocumentsCard requestId={o.request.id} user={user} />
           <Card>
             <CardTitle>History</CardTitle>
             {o.events.length === 0 ? <p className="mt-2 text-sm text-ink-500">No stage changes recorded.</p> : (

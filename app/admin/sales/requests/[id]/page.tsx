@@ -7,6 +7,7 @@ import { QuoteEditor } from "@/components/admin/quote-editor";
 import { QuoteStateBadge, StageBadge } from "@/components/stage-badge";
 import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
+import { OrderDocumentsCard } from "@/components/admin/order-documents";
 import { Card, CardTitle, PageHeader } from "@/components/ui/card";
 import { getDb } from "@/db/client";
 import { getCurrentRateCard, listCurrentMaterials } from "@/db/queries/catalogue";
@@ -24,7 +25,7 @@ export const dynamic = "force-dynamic";
 
 export default async function SalesRequestPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  await pagePermission("sales:inbox", `/admin/sales/requests/${id}`);
+  const user = await pagePermission("sales:inbox", `/admin/sales/requests/${id}`);
   const db = getDb();
   const sales = await getRequestForSales(db, id);
   if (!sales) notFound();
@@ -92,6 +93,7 @@ export default async function SalesRequestPage({ params }: { params: Promise<{ i
               </ul>
             )}
           </Card>
+          <OrderDocumentsCard requestId={request.id} user={user} />
           <Card>
             <CardTitle>Messages</CardTitle>
             <div className="mt-2">

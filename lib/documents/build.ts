@@ -1,0 +1,222 @@
+import { and, asc, eq, inArray } from "drizzle-orm";
+import type { Db } from "../../db/client";
+import type { Tx } from "../../db/queries/audit";
+import { getIssuedDocumentBySource, getTermsVersion } from "../../db/queries/issued-documents";
+import { listPartsWithAnalysis } from "../../db/queries/parts";
+import { orders, organisations, payments, quoteLines, quotes, refunds, requests } from "../../db/schema";
+import type { EstimateResult } from "../estimating/types";
+import { bureauParty } from "./bureau";
+import type { BalanceInvoiceData, CreditNoteData, DepositInvoiceData, DocumentLine, DocumentTotals, PackingListData, Party, QuoteData } from "./types";
+
+type Q = Db | Tx;
+
+/** Printed on every document of a part that can hurt someone, beside the analysis' own cautions. */
+export const GENERAL_CAUTION =
+  "Large printed tools are heavy and may be hot after printing or machining: use lifting equipment rated for the load, gloves and eye protection, and follow local codes, licensed rigging practice and your own engineering sign-off.";
+
+async function requestAndFirm(q: Q, requestId: string) {
+  const [row] = await q
+    .select({ request: requests, firm: { name: organisations.name, billingContact: organisations.billingContact, billingEmail: organisations.billingEmail } })
+    .from(requests)
+    .innerJoin(organisations, eq(organisations.id, requests.orgId))
+    .where(eq(requests.id, requestId));
+  if (!row) throw new Error(`documents: request ${requestId} not found`);
+  return row;
+}
+
+function clientParty(firm: { name: string; billingContact: string | null; billingEmail: string | null }): Party {
+  return { name: firm.name, lines: [firm.billingContact, firm.billingEmail].filter((x): x is string => Boolean(x)) };
+}
+
+/** The cautions of every part's analysis, de-duplicated, then the general one. */
+async function cautionsFor(q: Q, requestId: string): Promise<{ cautions: string[]; parts: Awaited<ReturnType<typeof listPartsWithAnalysis>> }> {
+  const parts = await listPartsWithAnalysis(q, requestId);
+  const seen = new Set<string>();
+  for (const p of parts) {
+    const r = p.analysis?.status === "done" ? (p.analysis.result as unknown as EstimateResult | null) : null;
+    for (const c of r?.cautions ?? []) seen.add(`${parts.length > 1 ? `${p.part.name}: ` : ""}${c}`);
+  }
+  return { cautions: [...seen, GENERAL_CAUTION], parts };
+}
+
+async function quoteWithLines(q: Q, quoteId: string) {
+  const [quote] = await q.select().from(quotes).where(eq(quotes.id, quoteId));
+  if (!quote) throw new Error(`documents: quote ${quoteId} not found`);
+  const lines = await q.select().from(quoteLines).where(eq(quoteLines.quoteId, quoteId)).orderBy(asc(quoteLines.sort));
+  return { quote, lines: lines.map((l): DocumentLine => ({ description: l.description, quantity: l.quantity, unitCents: l.unitCents, amountCents: l.amountCents })) };
+}
+
+function quoteTotals(quote: { subtotalCents: number; marginCents: number; taxBp: number; taxCents: number; totalCents: number }): DocumentTotals {
+  return { subtotalCents: quote.subtotalCents, marginCents: quote.marginCents, taxBp: quote.taxBp, taxCents: quote.taxCents, totalCents: quote.totalCents };
+}
+
+/** A gross amount's tax share at the quote's rate, so tax on a part payment matches the whole. */
+export function taxIncluded(grossCents: number, orderTotalCents: number, orderTaxCents: number): number {
+  if (orderTotalCents === 0) return 0;
+  return Math.round((grossCents * orderTaxCents) / orderTotalCents);
+}
+
+export async function buildQuoteData(q: Q, quoteId: string, now: Date): Promise<QuoteData> {
+  const { quote, lines } = await quoteWithLines(q, quoteId);
+  const { request, firm } = await requestAndFirm(q, quote.requestId);
+  const { cautions } = await cautionsFor(q, request.id);
+  const terms = quote.termsVersion ? await getTermsVersion(q, quote.termsVersion) : null;
+  return {
+    kind: "quote",
+    issuedAt: (quote.issuedAt ?? now).toISOString(),
+    currency: quote.currency,
+    bureau: bureauParty(),
+    client: clientParty(firm),
+    requestId: request.id,
+    orgId: request.orgId,
+    reference: request.reference,
+    projectName: request.projectName,
+    poNumber: null,
+    cautions,
+    version: quote.version,
+    validUntil: quote.validUntil?.toISOString() ?? null,
+    shipDate: quote.shipDate?.toISOString() ?? null,
+    lines,
+    totals: quoteTotals(quote),
+    depositBp: quote.depositBp,
+    depositCents: quote.depositCents,
+    terms: terms ? { version: terms.version, title: terms.title, paragraphs: terms.body.split(/\n\s*\n/).map((p) => p.trim()).filter(Boolean) } : null,
+    quoteTerms: quote.terms,
+    notes: quote.notes,
+  };
+}
+
+async function orderContext(q: Q, orderId: string) {
+  const [order] = await q.select().from(orders).where(eq(orders.id, orderId));
+  if (!order) throw new Error(`documents: order ${orderId} not found`);
+  const { request, firm } = await requestAndFirm(q, order.requestId);
+  const { quote, lines } = await quoteWithLines(q, order.quoteId);
+  const quoteDoc = await getIssuedDocumentBySource(q, "quote", quote.id);
+  return { order, request, firm, quote, lines, quoteNumber: quoteDoc?.number ?? null };
+}
+
+export async function buildDepositInvoiceData(q: Q, paymentId: string, now: Date): Promise<DepositInvoiceData> {
+  const [payment] = await q.select().from(payments).where(eq(payments.id, paymentId));
+  if (!payment || payment.kind !== "deposit") throw new Error(`documents: deposit payment ${paymentId} not found`);
+  const { order, request, firm, quote, quoteNumber } = await orderContext(q, payment.orderId);
+  const { cautions } = await cautionsFor(q, request.id);
+  const tax = taxIncluded(payment.amountCents, order.totalCents, quote.taxCents);
+  const share = order.totalCents > 0 ? Math.round((payment.amountCents / order.totalCents) * 100) : 0;
+  return {
+    kind: "deposit_invoice",
+    issuedAt: (payment.paidAt ?? now).toISOString(),
+    currency: payment.currency,
+    bureau: bureauParty(),
+    client: clientParty(firm),
+    requestId: request.id,
+    orgId: request.orgId,
+    reference: request.reference,
+    projectName: request.projectName,
+    poNumber: order.poNumber,
+    cautions,
+    quoteNumber,
+    quoteVersion: quote.version,
+    orderTotalCents: order.totalCents,
+    depositBp: quote.depositBp,
+    lines: [{ description: `Deposit, ${share}% of the order total on quotation ${quoteNumber ?? `v${quote.version}`}`, quantity: 1, unitCents: payment.amountCents - tax, amountCents: payment.amountCents - tax }],
+    totals: { subtotalCents: payment.amountCents - tax, marginCents: 0, taxBp: quote.taxBp, taxCents: tax, totalCents: payment.amountCents },
+    paidAt: payment.paidAt?.toISOString() ?? null,
+    paymentReference: payment.id.slice(0, 8).toUpperCase(),
+    termsVersion: order.termsVersion,
+  };
+}
+
+export async function buildBalanceInvoiceData(q: Q, orderId: string, now: Date): Promise<BalanceInvoiceData> {
+  const { order, request, firm, quote, lines, quoteNumber } = await orderContext(q, orderId);
+  const { cautions } = await cautionsFor(q, request.id);
+  const deposits = await q.select().from(payments).where(and(eq(payments.orderId, orderId), eq(payments.kind, "deposit"), inArray(payments.status, ["paid", "partially_refunded", "refunded"])));
+  const depositPayment = deposits[0] ?? null;
+  const depositDoc = depositPayment ? await getIssuedDocumentBySource(q, "deposit_invoice", depositPayment.id) : null;
+  return {
+    kind: "invoice",
+    issuedAt: now.toISOString(),
+    currency: order.currency,
+    bureau: bureauParty(),
+    client: clientParty(firm),
+    requestId: request.id,
+    orgId: request.orgId,
+    reference: request.reference,
+    projectName: request.projectName,
+    poNumber: order.poNumber,
+    cautions,
+    quoteNumber,
+    quoteVersion: quote.version,
+    lines,
+    totals: quoteTotals(quote),
+    deposit: { invoiceNumber: depositDoc?.number ?? null, amountCents: order.depositCents, isPaid: Boolean(depositPayment) },
+    balanceDueCents: order.balanceCents,
+    dueText: "Due on receipt of this invoice (the parts have shipped).",
+    termsVersion: order.termsVersion,
+  };
+}
+
+export async function buildCreditNoteData(q: Q, refundId: string, now: Date): Promise<CreditNoteData> {
+  const [refund] = await q.select().from(refunds).where(eq(refunds.id, refundId));
+  if (!refund) throw new Error(`documents: refund ${refundId} not found`);
+  const [payment] = await q.select().from(payments).where(eq(payments.id, refund.paymentId));
+  if (!payment) throw new Error(`documents: payment ${refund.paymentId} not found`);
+  const { order, request, firm, quote } = await orderContext(q, payment.orderId);
+  const invoice = payment.kind === "deposit" ? await getIssuedDocumentBySource(q, "deposit_invoice", payment.id) : await getIssuedDocumentBySource(q, "invoice", order.id);
+  const tax = taxIncluded(refund.amountCents, order.totalCents, quote.taxCents);
+  return {
+    kind: "credit_note",
+    issuedAt: now.toISOString(),
+    currency: payment.currency,
+    bureau: bureauParty(),
+    client: clientParty(firm),
+    requestId: request.id,
+    orgId: request.orgId,
+    reference: request.reference,
+    projectName: request.projectName,
+    poNumber: order.poNumber,
+    cautions: [],
+    invoiceNumber: invoice?.number ?? null,
+    paymentKind: payment.kind,
+    reason: refund.reason,
+    lines: [{ description: `Refund of the ${payment.kind} payment${invoice ? ` invoiced on ${invoice.number}` : ""}: ${refund.reason}`, quantity: 1, unitCents: refund.amountCents - tax, amountCents: refund.amountCents - tax }],
+    totals: { subtotalCents: refund.amountCents - tax, marginCents: 0, taxBp: quote.taxBp, taxCents: tax, totalCents: refund.amountCents },
+  };
+}
+
+export async function buildPackingListData(q: Q, orderId: string, now: Date, unitsPref: "mm" | "in" = "mm"): Promise<PackingListData> {
+  const { order, request, firm } = await orderContext(q, orderId);
+  const { cautions, parts } = await cautionsFor(q, request.id);
+  const items = parts.map(({ part, revision, analysis }) => {
+    const r = analysis?.status === "done" ? (analysis.result as unknown as EstimateResult | null) : null;
+    return {
+      part: part.name,
+      quantity: part.quantity,
+      material: r?.material.name ?? part.materialKey,
+      fileName: revision?.fileName ?? null,
+      revision: revision?.revision ?? null,
+      sizeMm: r ? r.bboxMm : null,
+      partMassKg: r ? Math.round(r.partMassKg * 10) / 10 : null,
+    };
+  });
+  const known = items.every((i) => i.partMassKg !== null);
+  return {
+    kind: "packing_list",
+    issuedAt: now.toISOString(),
+    currency: order.currency,
+    bureau: bureauParty(),
+    client: clientParty(firm),
+    requestId: request.id,
+    orgId: request.orgId,
+    reference: request.reference,
+    projectName: request.projectName,
+    poNumber: order.poNumber,
+    cautions,
+    items,
+    totalMassKg: known ? Math.round(items.reduce((s, i) => s + (i.partMassKg ?? 0) * i.quantity, 0) * 10) / 10 : null,
+    carrier: order.carrier,
+    trackingNumber: order.trackingNumber,
+    shippedAt: now.toISOString(),
+    unitsPref,
+    inspection: order.inspectionResult ? `${order.inspectionResult}${order.inspectionNotes ? `: ${order.inspectionNotes}` : ""}` : null,
+  };
+}
