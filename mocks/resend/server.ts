@@ -17,7 +17,7 @@ export interface FakeEmail {
   tags: { name: string; value: string }[];
   headers: Record<string, string>;
   /** Attachments as received (base64 content decoded to count and hash it). */
-  attachments: FakeAttachment[];
+  attachments?: FakeAttachment[];
   createdAt: Date;
 }
 
@@ -165,6 +165,9 @@ export async function startResendFake(options: ResendFakeOptions): Promise<Resen
       send(res, 500, { statusCode: 500, name: "application_error", message: "The local e-mail fake could not store the message." });
     });
   });
+  // Node closes an idle kept-alive socket after 5 s, and fetch may reuse it at that very moment
+  // (a send after a slow PDF render): "other side closed". Hosted APIs keep them far longer.
+  server.keepAliveTimeout = 0;
 
   async function handle(req: IncomingMessage, res: ServerResponse): Promise<void> {
     const path = new URL(req.url ?? "/", "http://fake.local").pathname.replace(/\/$/, "");

@@ -77,7 +77,7 @@ async function call(s: Session, label: string, p: string, init: RequestInit = {}
 
 const json = (body: unknown): RequestInit => ({ method: "POST", headers: { "content-type": "application/json" }, body: typeof body === "string" ? body : JSON.stringify(body) });
 
-const PORTAL_GETS = ["/api/portal/requests", "/api/portal/requests/ID", "/api/portal/analyses/ID", "/api/portal/revisions/ID/mesh", "/api/files/ID"];
+const PORTAL_GETS = ["/api/portal/requests", "/api/portal/requests/ID", "/api/portal/requests/ID/documents", "/api/portal/analyses/ID", "/api/portal/revisions/ID/mesh", "/api/files/ID", "/api/documents/ID"];
 const ADMIN_GETS = ["audit", "board", "calendar", "catalogue", "inbox", "ledger", "ledger/export", "quotes", "reconciliation", "reports/actuals", "staff"].map((p) => `/api/admin/${p}`);
 
 describe("route handlers", () => {
@@ -92,6 +92,8 @@ describe("route handlers", () => {
 
   it("another firm's ids answer 404 on every client route", async () => {
     expectRefusal(await call(lead, "request", `/api/portal/requests/${other.requestId}`), [404]);
+    expectRefusal(await call(lead, "documents", `/api/portal/requests/${other.requestId}/documents`), [404]);
+    expectRefusal(await call(lead, "document", `/api/documents/${other.requestId}`), [404]);
     expectRefusal(await call(lead, "analysis", `/api/portal/analyses/${other.analysisId}`), [404]);
     expectRefusal(await call(lead, "mesh", `/api/portal/revisions/${other.revisionId}/mesh`), [404]);
     expectRefusal(await call(lead, "file", `/api/files/${other.uploadId}`), [404]);

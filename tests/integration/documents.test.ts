@@ -95,7 +95,7 @@ describe("numbering", () => {
 });
 
 describe("the seeded orders' documents, read back with a PDF text extractor", () => {
-  it("a delivered order: quote, deposit invoice, balance invoice and packing list carry their numbers and the database's figures", async () => {
+  it("a shipped order: quote, deposit invoice, balance invoice and packing list carry their numbers and the database's figures", async () => {
     const { ensureDocumentPdf } = await import("../../lib/documents/issue");
     const r = await byProject("Cockpit liner plug");
     const [order] = await db.select().from(orders).where(eq(orders.requestId, r.id));
@@ -215,24 +215,24 @@ describe("the documents API and the download route", () => {
     expect(got.headers.get("content-type")).toBe("application/pdf");
     expect((await pdfText(new Uint8Array(await got.arrayBuffer()))).text).toContain(first.number);
 
-    await as("lead@kittering.example");
+    await as("lead@caldrith.example");
     expect((await call(r.id)).status).toBe(404);
     expect((await open(first.url.split("/").at(-1)!)).status).toBe(404);
     expect((await open("not-a-document")).status).toBe(404);
     expect((await open(randomUUID())).status).toBe(404);
 
     // Staff see the kinds their work needs: production the packing list, not the invoices.
-    await as("production@saltgrass.example");
+    await as("production@ostrevane.example");
     const prod = (await (await call(r.id)).json()) as { kind: string; url: string }[];
     expect(prod.map((d) => d.kind)).toEqual(["packing_list"]);
     const invoice = stored.find((d) => d.kind === "invoice")!;
     expect((await open(invoice.id)).status).toBe(404);
-    await as("accounts@saltgrass.example");
+    await as("accounts@ostrevane.example");
     expect((await open(invoice.id)).status).toBe(200);
 
     // A request with no documents lists none.
     const fresh = await byProject("Inlet duct layup tool");
-    await as("engineer@kittering.example");
+    await as("engineer@caldrith.example");
     const none = await call(fresh.id);
     expect(none.status).toBe(200);
     expect(await none.json()).toEqual([]);

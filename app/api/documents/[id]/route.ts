@@ -1,11 +1,9 @@
-import { getDb } from "@/db/client";
 import { writeAudit } from "@/db/queries/audit";
 import { getIssuedDocument } from "@/db/queries/issued-documents";
-import { requireUser } from "@/lib/auth/guard";
 import { canReadDocument } from "@/lib/auth/policy";
-import { withErrors } from "@/lib/auth/route";
 import { ensureDocumentPdf } from "@/lib/documents/issue";
 import { AppError } from "@/lib/errors";
+import { defineRoute } from "@/lib/server/define-route";
 
 export const runtime = "nodejs";
 
@@ -14,13 +12,10 @@ const ID = /^[0-9a-f-]{36}$/;
 /**
  * GET /api/documents/:id — an issued document's PDF, the same bytes every time (rendered once
  * from its frozen snapshot, then stored). A tampered id, another firm's document or a kind the
- * role does not handle answers 404; every download is audited.
+ * role does not handle answers 404; every download is audited. `?download=1` saves instead of showing.
  */
-export const GET = withErrors(async (req: Request, ctx: { params: Promise<{ id: string }> }) => {
-  const user = await requireUser();
-  const { id } = await ctx.params;
-  const db = getDb();
-  const row = ID.test(id) ? await getIssuedDocument(db, id) : null;
+export const GET = defineRoute<"signed-in", undefined, undefined, { id: string }>({ access: "signed-in" }, async ({ req, params, user, db }) => {
+  const row = ID.test(params.id) ? await getIssuedDocument(db, params.id) : null;
   if (!row || !canReadDocument(user, row.doc.kind, { orgId: row.request.orgId, createdById: row.request.createdById })) {
     throw new AppError("not_found:document", "That document was not found.");
   }
