@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { ROLES, type Role } from "../../db/schema/common";
-import { can, canOpenFiles, canSee, hasPermission, homePathFor, isStaff, PERMISSIONS, type Permission, type PolicyUser } from "./policy";
+import { can, canOpenFiles, canReadDocument, canSee, hasPermission, homePathFor, isStaff, PERMISSIONS, type Permission, type PolicyUser } from "./policy";
 
 const user = (role: Role, over: Partial<PolicyUser> = {}): PolicyUser => ({
   id: `${role}-1`,
@@ -75,5 +75,28 @@ describe("homes", () => {
   it("each role lands on its own home", () => {
     expect(ROLES.map(homePathFor)).toEqual(["/portal", "/portal", "/admin/sales", "/admin/production", "/admin/accounts", "/admin"]);
     expect(ROLES.filter(isStaff)).toEqual(["sales", "production", "accounts", "admin"]);
+  });
+});
+
+describe("issued documents by role", () => {
+  const kinds = ["quote", "deposit_invoice", "invoice", "credit_note", "packing_list"] as const;
+  const mine = { orgId: "org-a", createdById: "u1" };
+  const theirs = { orgId: "org-b", createdById: "u9" };
+  it.each([
+    ["client", "org-a", [true, true, true, true, true], [false, false, false, false, false]],
+    ["client_admin", "org-a", [true, true, true, true, true], [false, false, false, false, false]],
+    ["sales", null, [true, true, true, false, false], [true, true, true, false, false]],
+    ["production", null, [false, false, false, false, true], [false, false, false, false, true]],
+    ["accounts", null, [true, true, true, true, false], [true, true, true, true, false]],
+    ["admin", null, [true, true, true, true, true], [true, true, true, true, true]],
+  ] as const)("%s", (role, orgId, own, other) => {
+    const u = { ...user(role), id: "u1", orgId };
+    expect(kinds.map((k) => canReadDocument(u, k, mine))).toEqual(own);
+    expect(kinds.map((k) => canReadDocument(u, k, theirs))).toEqual(other);
+  });
+  it("a client sees a colleague's order's documents only as the firm's client_admin", () => {
+    const colleague = { orgId: "org-a", createdById: "u2" };
+    expect(canReadDocument({ ...user("client"), id: "u1", orgId: "org-a" }, "invoice", colleague)).toBe(false);
+    expect(canReadDocument({ ...user("client_admin"), id: "u1", orgId: "org-a" }, "invoice", colleague)).toBe(true);
   });
 });
