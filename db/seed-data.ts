@@ -66,6 +66,8 @@ export interface DemoRequest {
   shellWalls?: number;
   notes?: string;
   daysAgo: number;
+  /** A refund made on the paid balance after delivery (the order lists its credit note). */
+  refund?: { cents: number; reason: string };
 }
 
 /** One request in every stage, spread over the three firms. */
@@ -84,7 +86,7 @@ export const DEMO_REQUESTS: DemoRequest[] = [
   { project: "Stiffener drill jig", firm: "caldrith", by: "lead@caldrith.example", stage: "packed", cure: "room", cureTempC: null, mesh: "drill-fixture", material: "pc-cf", daysAgo: 44 },
   { project: "Cockpit liner plug", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "shipped", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", shellWalls: 3, daysAgo: 50 },
   { project: "Tensile coupon layup plate", firm: "tarnavel", by: "lab@tarnavel.example", stage: "delivered", cure: "oven", cureTempC: 120, mesh: "trim-fixture", material: "pps-cf", daysAgo: 58 },
-  { project: "Flap track fairing tool", firm: "caldrith", by: "lead@caldrith.example", stage: "closed", cure: "autoclave", cureTempC: 177, partCte: 3, mesh: "layup-mold", material: "pesu-cf", daysAgo: 75 },
+  { project: "Flap track fairing tool", firm: "caldrith", by: "lead@caldrith.example", stage: "closed", cure: "autoclave", cureTempC: 177, partCte: 3, mesh: "layup-mold", material: "pesu-cf", daysAgo: 75, refund: { cents: 43_500, reason: "Freight: the tool shared a truck with another load; the difference is returned." } },
   { project: "Bow thruster tunnel plug", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "on_hold", heldFrom: "quoted", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", shellWalls: 3, daysAgo: 12, notes: "On hold while the yard confirms the hull lines." },
   { project: "Antenna bracket fixture", firm: "tarnavel", by: "lab@tarnavel.example", stage: "cancelled", cure: "room", cureTempC: null, mesh: "drill-fixture", material: "petg-gf", daysAgo: 20 },
   // A second, autoclave request on a material rated below the cure: the portal warns.

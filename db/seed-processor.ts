@@ -10,6 +10,8 @@ export interface SeedProcessorRecord {
   checkoutSessionId: string;
   amountCents: number;
   feeCents: number;
+  /** Refunded since (a seeded refund after delivery). */
+  refundedCents?: number;
   createdAt: string;
 }
 
@@ -48,16 +50,22 @@ export function processorObjectsFor(records: SeedProcessorRecord[]): {
   charges: StripeLike[];
   payment_intents: StripeLike[];
   balance_transactions: StripeLike[];
+  refunds: StripeLike[];
 } {
+  const refunds: StripeLike[] = [];
   const charges: StripeLike[] = [];
   const intents: StripeLike[] = [];
   const txns: StripeLike[] = [];
   const add = (r: SeedProcessorRecord, amount: number) => {
     const created = Math.floor(new Date(r.createdAt).getTime() / 1000);
     const txn = `txn_${r.id.slice(3)}`;
-    charges.push({ id: r.id, amount, amount_captured: amount, amount_refunded: 0, currency: "usd", status: "succeeded", paid: true, refunded: false, captured: true, payment_intent: r.paymentIntentId, balance_transaction: txn, created, metadata: { checkoutSessionId: r.checkoutSessionId } });
+    charges.push({ id: r.id, amount, amount_captured: amount, amount_refunded: r.refundedCents ?? 0, currency: "usd", status: "succeeded", paid: true, refunded: (r.refundedCents ?? 0) >= amount, captured: true, payment_intent: r.paymentIntentId, balance_transaction: txn, created, metadata: { checkoutSessionId: r.checkoutSessionId } });
     intents.push({ id: r.paymentIntentId, amount, amount_received: amount, currency: "usd", status: "succeeded", latest_charge: r.id, created, metadata: {} });
     txns.push({ id: txn, amount, fee: r.feeCents, net: amount - r.feeCents, currency: "usd", type: "charge", source: r.id, created, status: "available" });
+    if (r.refundedCents) {
+      // The seed's refund ids follow its charge ids: ch_seed_b012 → re_seed_b012.
+      refunds.push({ id: r.id.replace(/^ch_/, "re_"), amount: r.refundedCents, charge: r.id, payment_intent: r.paymentIntentId, currency: "usd", status: "succeeded", created: created + 86_400, metadata: {} });
+    }
   };
   records.forEach((r, i) => {
     if (i === 0) return; // missing on the processor's side
@@ -67,5 +75,5 @@ export function processorObjectsFor(records: SeedProcessorRecord[]): {
   if (last) {
     add({ ...last, id: "ch_seed_stray001", paymentIntentId: "pi_seed_stray001", checkoutSessionId: "cs_test_seed_stray001", amountCents: 125_000, feeCents: 3_655 }, 125_000);
   }
-  return { charges, payment_intents: intents, balance_transactions: txns };
+  return { charges, payment_intents: intents, balance_transactions: txns, refunds };
 }

@@ -6,7 +6,7 @@
 import { createHash, randomUUID } from "node:crypto";
 import { writeFileSync } from "node:fs";
 import path from "node:path";
-import { sql } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import { analyse } from "../lib/estimating/analyse";
 import { defaultCells, defaultMaterials, defaultRateCard } from "../lib/estimating/defaults";
 import type { EstimateResult } from "../lib/estimating/types";
@@ -324,8 +324,15 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
       if (shipped) {
         const balancePaid = reached >= FLOW.indexOf("delivered");
         const balance = seedPayment(n, "balance", result.totalCents - result.depositCents, balancePaid, new Date(created.getTime() + (reached - 2) * 0.5 * DAY));
-        await tx.insert(s.payments).values({ orderId: order!.id, orgId, createdById: authorId, ...balance.row });
-        if (balancePaid) processorRecords.push(...processorRecordsFor(balance.row));
+        const [balanceRow] = await tx.insert(s.payments).values({ orderId: order!.id, orgId, createdById: authorId, ...balance.row }).returning({ id: s.payments.id });
+        if (balancePaid && r.refund) {
+          // A refund after delivery: the ledger, the processor's record and the credit note agree.
+          const at = new Date(created.getTime() + (reached - 1) * 0.5 * DAY);
+          const tag = `b${String(n).padStart(3, "0")}`;
+          await tx.insert(s.refunds).values({ paymentId: balanceRow!.id, amountCents: r.refund.cents, reason: r.refund.reason, status: "succeeded", stripeRefundId: `re_seed_${tag}`, idempotencyKey: `seed-refund-${tag}`, createdById: staffId("accounts@ostrevane.example"), createdAt: at });
+          await tx.update(s.payments).set({ status: "partially_refunded", refundedCents: r.refund.cents }).where(eq(s.payments.id, balanceRow!.id));
+          processorRecords.push(...processorRecordsFor({ ...balance.row, status: "paid" }).map((c) => ({ ...c, refundedCents: r.refund!.cents })));
+        } else if (balancePaid) processorRecords.push(...processorRecordsFor(balance.row));
       }
 
       if (reached >= FLOW.indexOf("scheduled")) {

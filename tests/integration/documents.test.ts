@@ -136,6 +136,23 @@ describe("the seeded orders' documents, read back with a PDF text extractor", ()
     expect(pl.text).toMatch(/lifting equipment rated for the load/);
   }, 120_000);
 
+  it("the closed order with a refund after delivery lists its credit note, against the balance invoice, for the refunded amount", async () => {
+    const { ensureDocumentPdf } = await import("../../lib/documents/issue");
+    const r = await byProject("Flap track fairing tool");
+    const [order] = await db.select().from(orders).where(eq(orders.requestId, r.id));
+    const [balance] = await db.select().from(payments).where(and(eq(payments.orderId, order!.id), eq(payments.kind, "balance")));
+    const [refund] = await db.select().from(refunds).where(eq(refunds.paymentId, balance!.id));
+    expect(balance).toMatchObject({ status: "partially_refunded", refundedCents: refund!.amountCents });
+    const docs = await docsOf(r.id);
+    expect(docs.map((d) => d.kind).sort()).toEqual(["credit_note", "deposit_invoice", "invoice", "packing_list", "quote"]);
+    const cn = docs.find((d) => d.kind === "credit_note")!;
+    expect(cn.number).toMatch(/^CN-\d{4}-\d{5}$/);
+    const { text } = await pdfText(await ensureDocumentPdf(db, cn.id));
+    expect(text).toContain(cn.number);
+    expect(compact(text)).toContain(compact(formatCents(refund!.amountCents)));
+    expect(text).toContain(docs.find((d) => d.kind === "invoice")!.number);
+  }, 120_000);
+
   it("a document never changes: the same bytes on every download, and issuing again issues nothing", async () => {
     const { ensureDocumentPdf, issueDocument } = await import("../../lib/documents/issue");
     const r = await byProject("Cockpit liner plug");
