@@ -57,7 +57,8 @@ const compact = (s: string) => s.replace(/\s+/g, "");
 
 describe("numbering", () => {
   it("has no gaps and no repeats when four processes issue at once, with some rolled back", async () => {
-    const [r] = await db.select({ id: requests.id, orgId: requests.orgId }).from(requests).limit(1);
+    // A draft no other test reads: the race leaves its 128 packing lists there.
+    const [r] = await db.select({ id: requests.id, orgId: requests.orgId }).from(requests).where(eq(requests.projectName, "Nacelle inner skin tool (trial)"));
     // Four processes on one file, as the app runs (one per core): each issues 40 documents and
     // rolls every fifth back after its number was taken; the number must come back.
     const startAt = String(Date.now() + 12_000);
