@@ -1,4 +1,5 @@
 import { steinerVolume } from "./grow";
+import { toIndexed, type IndexedMesh } from "./indexed";
 import { planMachining } from "./machining";
 import { downsampleLayers } from "./plan";
 import { chooseStage } from "./stages/choose";
@@ -8,7 +9,7 @@ import { readStage, resolveOptions } from "./stages/read";
 import type { ReadModelResult } from "./read-model";
 import { plantOf } from "./stages/schedule";
 import { materialWarnings } from "./warnings";
-import type { Axis, CellParams, EstimateResult, EstimateWarning, LengthUnit, MaterialParams, Orientation, PrintMode, RateCardParams } from "./types";
+import type { Axis, Mesh, CellParams, EstimateResult, EstimateWarning, LengthUnit, MaterialParams, Orientation, PrintMode, RateCardParams } from "./types";
 
 export interface AnalyseOptions {
   units?: LengthUnit;
@@ -38,8 +39,8 @@ export interface AnalyseOptions {
 export interface AnalyseInput {
   /** The file's bytes; or, instead, `read`: the model already read (the CLI streams it from disk). */
   bytes?: Uint8Array;
-  /** A model read by `readModel`/`readModelFile`; analyse turns its positions in place. */
-  read?: ReadModelResult;
+  /** A model read by `readModel`/`readModelFile` (a soup or already indexed). */
+  read?: ReadModelResult<Mesh | IndexedMesh>;
   fileName: string;
   options: AnalyseOptions;
   catalogue: { materials: MaterialParams[]; cells: CellParams[]; rateCard: RateCardParams };
@@ -70,7 +71,8 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
 
   onProgress(0.02, "reading");
   const read = await readStage(input, warnings);
-  const mesh = read.mesh;
+  // the distinct corners and three indices a triangle (a streamed file arrives so already)
+  const mesh = toIndexed(read.mesh);
 
   onProgress(0.25, "measuring");
   const ms = measureStage(mesh, t, o.weldToleranceMm, warnings);

@@ -1,23 +1,26 @@
 import { closeSync, fstatSync, openSync, readFileSync, readSync } from "node:fs";
 import { EstimateInputError } from "./errors";
+import { VertexIndexer, type IndexedMesh } from "./indexed";
 import { extension, readModel, withUnits, type ReadModelResult } from "./read-model";
-import { binaryStlCount, decodeFacets, STL_FACET_BYTES, STL_HEAD_BYTES } from "./readers/stl";
-import type { LengthUnit } from "./types";
+import { binaryStlCount, decodeFacets, decodeFacetsAligned, STL_FACET_BYTES, STL_HEAD_BYTES } from "./readers/stl";
+import type { LengthUnit, Mesh } from "./types";
 
 /** Facets read per chunk: 20,000 × 50 bytes ≈ 1 MB of buffer, reused. */
 const CHUNK_FACETS = 20_000;
+const LITTLE_ENDIAN = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
 
 /**
- * Reads a model file from disk into a triangle soup in millimetres. A binary STL (the file is
- * exactly 84 + 50·n bytes long) streams in 1 MB chunks straight into its Float32Array, so the
- * file's bytes are never held whole: memory is the 36 bytes a triangle of the soup. Other files
- * are read whole and passed to `readModel`.
+ * Reads a model file from disk into millimetres. A binary STL (the file is exactly 84 + 50·n
+ * bytes long) streams in 1 MB chunks, each decoded and added to an indexed mesh (./indexed:
+ * its distinct corners and three indices a triangle), so neither the file's bytes nor the
+ * triangle soup is ever held whole: memory is about 18 bytes a triangle instead of 36. Other
+ * files are read whole and passed to `readModel` (a soup).
  */
 export async function readModelFile(
   path: string,
   fileName: string,
   opts: { units?: LengthUnit; toleranceMm?: number; bodies?: number[] } = {},
-): Promise<ReadModelResult> {
+): Promise<ReadModelResult<Mesh | IndexedMesh>> {
   let fd: number;
   try { fd = openSync(path, "r"); } catch { throw new EstimateInputError("file:unreadable", `Cannot read the file "${fileName}".`); }
   try {
@@ -37,19 +40,30 @@ export async function readModelFile(
   }
 }
 
-function streamBinaryStl(fd: number, head: Uint8Array, size: number) {
+function streamBinaryStl(fd: number, head: Uint8Array, size: number): IndexedMesh {
   const n = binaryStlCount(head, size);
-  const positions = new Float32Array(n * 9);
-  const chunk = new Uint8Array(CHUNK_FACETS * STL_FACET_BYTES);
+  const indexer = new VertexIndexer(n);
+  // the chunk and, for facets at an odd place (50 bytes is not a multiple of 4), the chunk again two bytes on
+  const chunk = new Uint8Array(CHUNK_FACETS * STL_FACET_BYTES + 4);
+  const shifted = new Uint8Array(chunk.length);
+  const corners = new Float32Array(CHUNK_FACETS * 9);
+  const cornerBits = new Int32Array(corners.buffer);
   const view = new DataView(chunk.buffer);
   let done = 0;
   while (done < n) {
     const count = Math.min(CHUNK_FACETS, n - done);
-    readFully(fd, chunk.subarray(0, count * STL_FACET_BYTES), STL_HEAD_BYTES + done * STL_FACET_BYTES);
-    decodeFacets(view, 0, count, positions, done * 9);
+    const bytes = count * STL_FACET_BYTES;
+    readFully(fd, chunk.subarray(0, bytes), STL_HEAD_BYTES + done * STL_FACET_BYTES);
+    if (LITTLE_ENDIAN) {
+      shifted.set(chunk.subarray(2, bytes));
+      decodeFacetsAligned(chunk, shifted, count, corners);
+    } else {
+      decodeFacets(view, 0, count, corners, 0);
+    }
+    indexer.add(corners, cornerBits, 0, count * 3);
     done += count;
   }
-  return { positions, triangleCount: n };
+  return indexer.finish();
 }
 
 function readFully(fd: number, into: Uint8Array, position: number): void {

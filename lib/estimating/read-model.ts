@@ -2,10 +2,12 @@ import { EstimateInputError } from "./errors";
 import { detectStl, readAsciiStl, readBinaryStl } from "./readers/stl";
 import { readObj } from "./readers/obj";
 import { read3mf, UNIT_MM } from "./readers/threemf";
+import { isIndexed, scaleIndexed, type IndexedMesh } from "./indexed";
 import type { LengthUnit, Mesh, MeshFormat } from "./types";
 
-export interface ReadModelResult {
-  mesh: Mesh;
+export interface ReadModelResult<M extends Mesh | IndexedMesh = Mesh> {
+  /** A triangle soup, or (a binary STL streamed from disk by `readModelFile`) the indexed mesh. */
+  mesh: M;
   format: MeshFormat;
   units: LengthUnit;
   unitsGuessed: boolean;
@@ -103,9 +105,10 @@ export async function readModel(
 
 /**
  * A unitless mesh (STL, OBJ) in millimetres: the user's units when given, else guessed from its
- * size (`INCH_GUESS_BELOW_UNITS`); inches are scaled in place.
+ * size (`INCH_GUESS_BELOW_UNITS`); inches are scaled in place (an indexed mesh by `scaleIndexed`,
+ * which keeps it the indexed form of the scaled soup).
  */
-export function withUnits(mesh: Mesh, format: MeshFormat, given: LengthUnit | undefined): ReadModelResult {
+export function withUnits<M extends Mesh | IndexedMesh>(mesh: M, format: MeshFormat, given: LengthUnit | undefined): ReadModelResult<M> {
   let units: LengthUnit;
   let unitsGuessed: boolean;
   let unitsReason: string;
@@ -114,15 +117,19 @@ export function withUnits(mesh: Mesh, format: MeshFormat, given: LengthUnit | un
     unitsGuessed = false;
     unitsReason = `Units set to ${units} by the user.`;
   } else {
-    const ext0 = largestExtent(mesh.positions);
+    const ext0 = largestExtent(isIndexed(mesh) ? mesh.vertices : mesh.positions);
     units = ext0 < INCH_GUESS_BELOW_UNITS ? "in" : "mm";
     unitsGuessed = true;
     unitsReason = units === "in"
       ? `The file carries no units; its largest extent is ${round(ext0)} units, under ${INCH_GUESS_BELOW_UNITS}, too small for a part in millimetres, so inches are assumed. Please confirm.`
       : `The file carries no units; its largest extent is ${round(ext0)} units, so millimetres are assumed. Please confirm.`;
   }
-  if (units === "in") scale(mesh.positions, 25.4);
-  return { mesh, format, units, unitsGuessed, unitsReason, declaredUnit: null };
+  let out: M = mesh;
+  if (units === "in") {
+    if (isIndexed(mesh)) out = scaleIndexed(mesh, 25.4) as M;
+    else scale(mesh.positions, 25.4);
+  }
+  return { mesh: out, format, units, unitsGuessed, unitsReason, declaredUnit: null };
 }
 
 function round(v: number): number {

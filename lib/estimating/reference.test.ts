@@ -93,7 +93,7 @@ describe("against manifold-3d (npm, WASM)", () => {
     for (const mesh of [uvSphere(10), torus(20, 5)]) {
       const man = toManifold(mesh);
       const soup = toMesh(mesh);
-      const s = slice(soup.positions, soup.triangleCount, -4.1, 0.8, 10);
+      const s = slice(soup, -4.1, 0.8, 10);
       for (let k = 0; k < 10; k++) {
         const cs = man.slice(-4.1 + (k + 0.5) * 0.8);
         const ref = cs.area();

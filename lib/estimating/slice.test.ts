@@ -5,20 +5,20 @@ import { slice } from "./slice";
 describe("slicing by a z sweep", () => {
   it("box 10×20×30: every section is 200 mm² with a 60 mm contour (closed form)", () => {
     const m = toMesh(box(10, 20, 30));
-    const s = slice(m.positions, m.triangleCount, 0, 1, 30);
+    const s = slice(m, 0, 1, 30);
     for (let k = 0; k < 30; k++) { expect(s.area[k]).toBeCloseTo(200, 9); expect(s.perimeter[k]).toBeCloseTo(60, 9); }
   });
 
   it("the L-bracket's sections are its profile: area 3200, contour 360", () => {
     const m = toMesh(bracket());
-    const s = slice(m.positions, m.triangleCount, 0, 5, 10);
+    const s = slice(m, 0, 5, 10);
     for (let k = 0; k < 10; k++) { expect(s.area[k]).toBeCloseTo(100 * 20 + 60 * 20, 6); expect(s.perimeter[k]).toBeCloseTo(360, 6); }
   });
 
   it("sphere sections converge to π(r² − z²) and their sum to the volume (closed form)", () => {
     const m = toMesh(uvSphere(10, 256, 128));
     const h = 0.5;
-    const s = slice(m.positions, m.triangleCount, -10, h, 40);
+    const s = slice(m, -10, h, 40);
     let v = 0;
     for (let k = 0; k < 40; k++) {
       const z = -10 + (k + 0.5) * h;
@@ -30,14 +30,14 @@ describe("slicing by a z sweep", () => {
 
   it("the torus's section at its mid-plane is an annulus π((R+r)² − (R−r)²) with both contours", () => {
     const m = toMesh(torus(20, 5, 256, 128));
-    const s = slice(m.positions, m.triangleCount, -0.25, 0.5, 1);
+    const s = slice(m, -0.25, 0.5, 1);
     expect(s.area[0]! / (Math.PI * (25 ** 2 - 15 ** 2))).toBeCloseTo(1, 2);
     expect(s.perimeter[0]! / (2 * Math.PI * 40)).toBeCloseTo(1, 2);
   });
 
   it("matches a brute-force cut of every triangle at every plane", () => {
     const m = toMesh(torus(20, 5, 32, 16));
-    const s = slice(m.positions, m.triangleCount, -6, 0.7, 17);
+    const s = slice(m, -6, 0.7, 17);
     const p = m.positions;
     for (let k = 0; k < 17; k++) {
       const zp = -6 + (k + 0.5) * 0.7;

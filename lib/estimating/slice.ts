@@ -1,5 +1,8 @@
+import { toIndexed, workArena, type IndexedMesh } from "./indexed";
+import type { Mesh } from "./types";
+
 /**
- * Cross-sections of a triangle soup at the planes z_k = z0 + (k + ½)·h, by a sweep: triangles
+ * Cross-sections of a triangle mesh at the planes z_k = z0 + (k + ½)·h, by a sweep: triangles
  * are bucketed by the first plane they reach (a counting sort on the layer index, O(n)), enter
  * an active list there and leave it after their last plane, so each triangle is cut only at the
  * planes it spans — never every triangle against every layer.
@@ -27,19 +30,21 @@ export interface Sections {
  */
 const AXIS_OFFSETS = { z: [0, 1, 2], y: [2, 0, 1], x: [1, 2, 0] } as const;
 
-export function slice(p: Float32Array, n: number, z0: number, h: number, count: number, up: "x" | "y" | "z" = "z"): Sections {
+export function slice(mesh: Mesh | IndexedMesh, z0: number, h: number, count: number, up: "x" | "y" | "z" = "z"): Sections {
+  const m = toIndexed(mesh);
+  const p = m.vertices, ix = m.indices, n = m.triangleCount;
   const [ia, ib, ic] = AXIS_OFFSETS[up];
   const area = new Float64Array(count);
   const perimeter = new Float64Array(count);
   const segments = new Uint32Array(count);
-  const first = new Int32Array(n);
-  const last = new Int32Array(n);
+  // work arrays from the mesh's arena, so a second and third axis reuse the first's memory
+  const [first, last, order, active] = workArena(m).int32(n, n, n, n) as [Int32Array, Int32Array, Int32Array, Int32Array];
   const bucket = new Uint32Array(count + 1);
-  // x–y origin for the shoelace sums (precision)
+  // x–y origin for the shoelace sums (precision): the first corner
   let ox = 0, oy = 0;
-  if (n > 0) { ox = p[ia]!; oy = p[ib]!; }
-  for (let t = 0, b = 0; t < n; t++, b += 9) {
-    const za = p[b + ic]!, zb = p[b + 3 + ic]!, zc = p[b + 6 + ic]!;
+  if (n > 0) { ox = p[ix[0]! * 3 + ia]!; oy = p[ix[0]! * 3 + ib]!; }
+  for (let t = 0, i = 0; t < n; t++, i += 3) {
+    const za = p[ix[i]! * 3 + ic]!, zb = p[ix[i + 1]! * 3 + ic]!, zc = p[ix[i + 2]! * 3 + ic]!;
     const lo = za < zb ? (za < zc ? za : zc) : (zb < zc ? zb : zc);
     const hi = za > zb ? (za > zc ? za : zc) : (zb > zc ? zb : zc);
     // A corner on a plane counts as above it (d >= 0 below), so the triangle is cut by the
@@ -54,11 +59,9 @@ export function slice(p: Float32Array, n: number, z0: number, h: number, count: 
     bucket[k0 + 1]!++;
   }
   for (let k = 0; k < count; k++) bucket[k + 1] = bucket[k + 1]! + bucket[k]!;
-  const order = new Uint32Array(bucket[count]!);
   const fill = bucket.slice(0, count);
   for (let t = 0; t < n; t++) { const k = first[t]!; if (k >= 0) order[fill[k]!++] = t; }
 
-  const active = new Uint32Array(order.length);
   let na = 0;
   for (let k = 0; k < count; k++) {
     for (let i = bucket[k]!, e = bucket[k + 1]!; i < e; i++) active[na++] = order[i]!;
@@ -68,10 +71,10 @@ export function slice(p: Float32Array, n: number, z0: number, h: number, count: 
       const t = active[i]!;
       if (last[t]! < k) { active[i] = active[--na]!; continue; }
       i++;
-      const b = t * 9;
-      const x1 = p[b + ia]! - ox, y1 = p[b + ib]! - oy, d1 = p[b + ic]! - zp;
-      const x2 = p[b + 3 + ia]! - ox, y2 = p[b + 3 + ib]! - oy, d2 = p[b + 3 + ic]! - zp;
-      const x3 = p[b + 6 + ia]! - ox, y3 = p[b + 6 + ib]! - oy, d3 = p[b + 6 + ic]! - zp;
+      const b1 = ix[t * 3]! * 3, b2 = ix[t * 3 + 1]! * 3, b3 = ix[t * 3 + 2]! * 3;
+      const x1 = p[b1 + ia]! - ox, y1 = p[b1 + ib]! - oy, d1 = p[b1 + ic]! - zp;
+      const x2 = p[b2 + ia]! - ox, y2 = p[b2 + ib]! - oy, d2 = p[b2 + ic]! - zp;
+      const x3 = p[b3 + ia]! - ox, y3 = p[b3 + ib]! - oy, d3 = p[b3 + ic]! - zp;
       const u1 = d1 >= 0, u2 = d2 >= 0, u3 = d3 >= 0;
       // the two edges whose ends lie on opposite sides
       let px = 0, py = 0, qx = 0, qy = 0, got = 0;

@@ -89,6 +89,30 @@ export function decodeFacets(view: DataView, offset: number, count: number, posi
   }
 }
 
+/**
+ * `decodeFacets` for a chunk of whole facets on a little-endian machine, reading float32 views
+ * instead of a DataView (about twice as fast). A facet's floats start 4-byte aligned when the
+ * facet's place in the chunk is even (50 bytes a facet) and 2 bytes off when it is odd, so
+ * `shifted` holds the chunk's bytes from its third on; both arrays start 4-byte aligned and hold
+ * a multiple of 4 bytes. Writes 9 float32 a facet to `out` from its start. Same checks.
+ */
+export function decodeFacetsAligned(chunk: Uint8Array, shifted: Uint8Array, count: number, out: Float32Array): void {
+  const even = new Float32Array(chunk.buffer, chunk.byteOffset, chunk.byteLength >> 2);
+  const odd = new Float32Array(shifted.buffer, shifted.byteOffset, shifted.byteLength >> 2);
+  const max = LIMITS.maxCoordinate;
+  let k = 0;
+  for (let t = 0; t < count; t++) {
+    // bytes 12 + 50t of the chunk: float 3 + 12.5t of `even` (t even), float 2.5 + 12.5t of `odd` (t odd)
+    const f = (t & 1) === 0 ? even : odd;
+    const i = (t & 1) === 0 ? (12 + 50 * t) >> 2 : (10 + 50 * t) >> 2;
+    for (let j = 0; j < 9; j++) {
+      const v = f[i + j]!;
+      if (!(v <= max && v >= -max)) badCoordinate();
+      out[k++] = v;
+    }
+  }
+}
+
 const enum Ch { Nl = 10, Cr = 13, Sp = 32, Tab = 9 }
 
 /**

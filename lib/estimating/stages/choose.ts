@@ -1,9 +1,10 @@
+import type { IndexedMesh } from "../indexed";
 import type { MachiningPlan } from "../machining";
 import { allowedOrientations, bestOrientation, clearance, fitCells, orientedSize, suggestSplit } from "../orient";
 import type { Pricing } from "../pricing";
 import type { ContinuousSchedule, Plant } from "../schedule";
 import type {
-  Axis, CellFit, CellParams, EstimateAlternative, EstimateStatus, EstimateWarning, MaterialParams, Mesh, Orientation,
+  Axis, CellFit, CellParams, EstimateAlternative, EstimateStatus, EstimateWarning, MaterialParams, Orientation,
   PrintMode, RateCardParams, RemedyTried, ReviewReason, SplitSuggestion,
 } from "../types";
 import type { Measured } from "./measure";
@@ -23,7 +24,7 @@ export const LAYER_TO_BEAD_MAX = 0.5;
 export const SIDE_BY_SIDE_GAP_MM = 100;
 
 export interface SearchInput {
-  mesh: Mesh;
+  mesh: IndexedMesh;
   ms: Measured;
   cells: CellParams[];
   material: MaterialParams;

@@ -1,7 +1,8 @@
 import { EstimateInputError } from "../errors";
 import { readModel, type ReadModelResult } from "../read-model";
 import type { AnalyseInput } from "../analyse";
-import type { EstimateWarning, MaterialParams, PrintMode } from "../types";
+import type { IndexedMesh } from "../indexed";
+import type { EstimateWarning, MaterialParams, Mesh, PrintMode } from "../types";
 
 /** The options of one run, checked and with the catalogue's defaults filled in. */
 export interface ResolvedOptions {
@@ -36,7 +37,7 @@ export function resolveOptions(input: AnalyseInput): ResolvedOptions {
 }
 
 /** Stage 1: the file's triangles in millimetres (units guessed when not given). */
-export async function readStage(input: AnalyseInput, warnings: EstimateWarning[]): Promise<ReadModelResult> {
+export async function readStage(input: AnalyseInput, warnings: EstimateWarning[]): Promise<ReadModelResult<Mesh | IndexedMesh>> {
   const o = input.options;
   const read = input.read ?? await readModel(input.bytes ?? new Uint8Array(0), input.fileName, { units: o.units, toleranceMm: o.toleranceMm, bodies: o.bodies });
   if (read.unitsGuessed) warnings.push({ code: "units-guessed", message: read.unitsReason });

@@ -1,6 +1,7 @@
 import { grownSection } from "../grow";
 import { slice } from "../slice";
-import type { Axis, Mesh } from "../types";
+import type { IndexedMesh } from "../indexed";
+import type { Axis } from "../types";
 import { bad } from "./read";
 import type { Measured } from "./measure";
 
@@ -30,7 +31,7 @@ export interface GrownSections {
  * most three times however many bead/layer presets are planned. A swap of the plan axes turns a
  * section in its plane and changes neither its area nor its contour.
  */
-export function sliceStage(mesh: Mesh, ms: Measured, up: Axis, fineHeightMm: number, allowanceMm: number): GrownSections {
+export function sliceStage(mesh: IndexedMesh, ms: Measured, up: Axis, fineHeightMm: number, allowanceMm: number): GrownSections {
   const t = allowanceMm, h = fineHeightMm;
   const ai = AXIS_INDEX[up];
   const zMin = ms.m.bounds.min[ai]!, zMax = ms.m.bounds.max[ai]!;
@@ -38,7 +39,7 @@ export function sliceStage(mesh: Mesh, ms: Measured, up: Axis, fineHeightMm: num
   const layerCount = Math.max(1, Math.ceil(height / h - 1e-9));
   if (layerCount > MAX_LAYERS) bad("mesh:too-tall", `The part would need ${layerCount} layers, more than the ${MAX_LAYERS} the planner accepts; check the units.`);
   const z0 = zMin - t;
-  const sec = slice(mesh.positions, mesh.triangleCount, z0, h, layerCount, up);
+  const sec = slice(mesh, z0, h, layerCount, up);
   const grownArea = new Float64Array(layerCount), grownPer = new Float64Array(layerCount), segs = new Uint32Array(layerCount);
   let firstIn = -1, lastIn = -1;
   for (let k = 0; k < layerCount; k++) if (sec.area[k]! > 0) { if (firstIn < 0) firstIn = k; lastIn = k; }
