@@ -160,9 +160,10 @@ export function topology(m: IndexedMesh, w: Welded): Topology {
     if (r0b !== r2) parent[r2] = r0b;
     for (let e = 0; e < 3; e++) {
       const u = corner[t3 + e]!, v = corner[t3 + (e === 2 ? 0 : e + 1)]!;
-      const a = u < v ? u : v, b = u < v ? v : u;
-      // a's triangles run in ascending order: the first one with b is the edge's lowest; when it
-      // is not t, an earlier triangle handled the edge and the scan stops there
+      // the edge's triangles are those of its end with fewer triangles that hold the other end;
+      // a vertex's triangles run in ascending order, so the first one found is the edge's lowest:
+      // when it is not t, an earlier triangle handled the edge and the scan stops there
+      const a = start[u + 1]! - start[u]! <= start[v + 1]! - start[v]! ? u : v, b = a === u ? v : u;
       let uses = 0, lowest = t, other = -1;
       for (let k = start[a]!, end = start[a + 1]!; k < end; k++) {
         const s = star[k]!;

@@ -38,7 +38,9 @@ export function slice(mesh: Mesh | IndexedMesh, z0: number, h: number, count: nu
   const perimeter = new Float64Array(count);
   const segments = new Uint32Array(count);
   // work arrays from the mesh's arena, so a second and third axis reuse the first's memory
-  const [first, last, order, active] = workArena(m).int32(n, n, n, n) as [Int32Array, Int32Array, Int32Array, Int32Array];
+  // (the active list holds places in `order`, whose last planes `lastAt` keeps in the same
+  // order, so the sweep reads them from a few nearby runs rather than all over `last`)
+  const [first, last, order, lastAt, active] = workArena(m).int32(n, n, n, n, n) as [Int32Array, Int32Array, Int32Array, Int32Array, Int32Array];
   const bucket = new Uint32Array(count + 1);
   // x–y origin for the shoelace sums (precision): the first corner
   let ox = 0, oy = 0;
@@ -60,16 +62,17 @@ export function slice(mesh: Mesh | IndexedMesh, z0: number, h: number, count: nu
   }
   for (let k = 0; k < count; k++) bucket[k + 1] = bucket[k + 1]! + bucket[k]!;
   const fill = bucket.slice(0, count);
-  for (let t = 0; t < n; t++) { const k = first[t]!; if (k >= 0) order[fill[k]!++] = t; }
+  for (let t = 0; t < n; t++) { const k = first[t]!; if (k >= 0) { const at = fill[k]!++; order[at] = t; lastAt[at] = last[t]!; } }
 
   let na = 0;
   for (let k = 0; k < count; k++) {
-    for (let i = bucket[k]!, e = bucket[k + 1]!; i < e; i++) active[na++] = order[i]!;
+    for (let i = bucket[k]!, e = bucket[k + 1]!; i < e; i++) active[na++] = i;
     const zp = z0 + (k + 0.5) * h;
     let a2 = 0, per = 0, cuts = 0;
     for (let i = 0; i < na; ) {
-      const t = active[i]!;
-      if (last[t]! < k) { active[i] = active[--na]!; continue; }
+      const at = active[i]!;
+      if (lastAt[at]! < k) { active[i] = active[--na]!; continue; }
+      const t = order[at]!;
       i++;
       const b1 = ix[t * 3]! * 3, b2 = ix[t * 3 + 1]! * 3, b3 = ix[t * 3 + 2]! * 3;
       const x1 = p[b1 + ia]! - ox, y1 = p[b1 + ib]! - oy, d1 = p[b1 + ic]! - zp;
