@@ -34,6 +34,16 @@ export function formatTemp(c: number, pref: UnitsPref): string {
   return pref === "in" ? `${fmt(cToF(c), 0)} °F` : `${fmt(c, 0)} °C`;
 }
 
+/**
+ * A temperature in both scales, the user's first: "250 °F (121 °C)". A cure temperature is typed
+ * in either, so it is shown back in both.
+ */
+export function formatTempBoth(c: number, pref: UnitsPref): string {
+  const f = `${fmt(cToF(c), 0)} °F`;
+  const cc = `${fmt(c, 0)} °C`;
+  return pref === "in" ? `${f} (${cc})` : `${cc} (${f})`;
+}
+
 export function formatHours(hours: number): string {
   return `${fmt(hours, 1)} h`;
 }

@@ -10,6 +10,7 @@ const SECTIONS: { href: string; label: string; permission: Permission }[] = [
   { href: "/admin/accounts", label: "Accounts", permission: "accounts:ledger" },
   { href: "/admin/catalogue", label: "Catalogue", permission: "admin:catalogue" },
   { href: "/admin/staff", label: "Staff", permission: "admin:staff" },
+  { href: "/admin/firms", label: "Client firms", permission: "admin:staff" },
   { href: "/admin/audit", label: "Audit log", permission: "admin:audit" },
   { href: "/admin/outbox", label: "Outbox", permission: "admin:outbox" },
 ];

@@ -3,10 +3,11 @@
 import { useState } from "react";
 import { DataTable, type ColumnDef } from "@/components/data-table";
 import { Field, Input, Select } from "@/components/ui/input";
-import { AUDIT_FIELD_LABEL, auditActionLabel, auditEntityLabel } from "@/lib/labels";
+import { auditActionLabel, auditEntityLabel } from "@/lib/labels";
 import { dateTimeText } from "./format";
 import { Pager } from "./pager";
 import { useApi } from "./use-api";
+import { describeChange } from "@/lib/audit-text";
 
 interface AuditRow {
   id: string;
@@ -26,24 +27,32 @@ interface Answer {
   options: { actors: { id: string; email: string }[]; entityTypes: string[] };
 }
 
-/** A recorded change in words: each field by its name in lib/labels.ts, then its value. */
-const short = (v: unknown) => {
-  if (v === null || v === undefined) return "";
-  const s =
-    typeof v === "object" && !Array.isArray(v)
-      ? Object.entries(v as Record<string, unknown>)
-          .map(([k, x]) => `${AUDIT_FIELD_LABEL[k] ?? k}: ${typeof x === "string" ? x : JSON.stringify(x)}`)
-          .join(" · ")
-      : JSON.stringify(v);
-  return s.length > 160 ? s.slice(0, 157) + "…" : s;
-};
 
 const columns: ColumnDef<AuditRow, unknown>[] = [
   { accessorKey: "at", header: "When", enableSorting: false, cell: ({ getValue }) => <span className="figures whitespace-nowrap text-ink-500">{dateTimeText(getValue() as string)}</span> },
   { accessorKey: "actorEmail", header: "Who", enableSorting: false, cell: ({ getValue }) => (getValue() as string | null) ?? "system" },
   { accessorKey: "action", header: "Action", enableSorting: false, cell: ({ getValue }) => auditActionLabel(getValue() as string) },
   { id: "entity", header: "Entity", enableSorting: false, cell: ({ row }) => <span>{auditEntityLabel(row.original.entityType)}<span className="block max-w-[10rem] truncate font-mono text-xs text-ink-400">{row.original.entityId}</span></span> },
-  { id: "change", header: "Change", enableSorting: false, cell: ({ row }) => <span className="block max-w-md break-all font-mono text-xs text-ink-600">{row.original.before ? <span className="text-ink-400">{short(row.original.before)} → </span> : null}{short(row.original.after)}</span> },
+  {
+    id: "change",
+    header: "Change",
+    enableSorting: false,
+    cell: ({ row }) => {
+      const lines = describeChange(row.original.before, row.original.after);
+      if (lines.length === 0) return <span className="text-xs text-ink-500">—</span>;
+      return (
+        <dl className="grid max-w-md grid-cols-[auto_1fr] gap-x-2 text-xs">
+          {lines.slice(0, 8).map((l) => (
+            <div key={l.field} className="contents">
+              <dt className="text-ink-500">{l.field}</dt>
+              <dd className="break-words text-ink-800">{l.before !== null ? <span className="text-ink-500">{l.before} → </span> : null}{l.after ?? "removed"}</dd>
+            </div>
+          ))}
+          {lines.length > 8 ? <dd className="col-span-2 text-ink-500">and {lines.length - 8} more</dd> : null}
+        </dl>
+      );
+    },
+  },
 ];
 
 /** The audit log, newest first; filters go to the server. */

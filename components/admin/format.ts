@@ -1,18 +1,11 @@
 import type { Stage } from "@/db/schema/common";
+import { formatDate, formatDateTime } from "@/lib/dates";
 import { STAGE_LABEL } from "@/lib/labels";
 
-/** Display helpers for the back office (UTC, like the plant calendar). */
-export function dateText(v: string | Date | null | undefined): string {
-  if (!v) return "—";
-  const d = typeof v === "string" ? new Date(v) : v;
-  return new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" }).format(d);
-}
+/** Display helpers for the back office; dates and times come from lib/dates.ts (the plant's zone). */
+export const dateText = (v: string | Date | null | undefined): string => formatDate(v);
 
-export function dateTimeText(v: string | Date | null | undefined): string {
-  if (!v) return "—";
-  const d = typeof v === "string" ? new Date(v) : v;
-  return new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", hour: "2-digit", minute: "2-digit", timeZone: "UTC", hour12: false }).format(d) + " UTC";
-}
+export const dateTimeText = (v: string | Date | null | undefined): string => formatDateTime(v);
 
 export function hoursText(h: number | null | undefined): string {
   if (h === null || h === undefined || !Number.isFinite(h)) return "—";

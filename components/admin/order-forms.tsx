@@ -5,9 +5,10 @@ import { useState, useTransition } from "react";
 import { moveStage, recordActuals, scheduleOrder } from "@/app/admin/production/actions";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input, Select, Textarea } from "@/components/ui/input";
+import { zoneLabel } from "@/lib/dates";
 import { stageText } from "./format";
 import { ReportUpload } from "./report-upload";
-import { ConfirmMove, type MoveContext } from "./stage-confirm";
+import { ConfirmMove, type GuardedMove, type MoveContext } from "./stage-confirm";
 
 type Msg = { tone: "ok" | "error"; text: string } | null;
 
@@ -19,14 +20,18 @@ function useSubmit() {
   const run = (fn: () => Promise<{ ok: true } | { ok: false; message: string; fieldErrors?: Record<string, string[]> }>, okText: string) =>
     start(async () => {
       const r = await fn();
-      if (!r.ok) {
-        setErrors(r.fieldErrors ?? {});
-        setMsg({ tone: "error", text: r.message });
-      } else {
-        setErrors({});
-        setMsg({ tone: "ok", text: okText });
-        router.refresh();
-      }
+      // The message and the page's fresh data arrive together (one transition), so no form shows a
+      // choice made for the order's old stage beside "Moved to …"; the button stays busy until then.
+      start(() => {
+        if (!r.ok) {
+          setErrors(r.fieldErrors ?? {});
+          setMsg({ tone: "error", text: r.message });
+        } else {
+          setErrors({});
+          setMsg({ tone: "ok", text: okText });
+          router.refresh();
+        }
+      });
     });
   return { msg, errors, pending, run };
 }
@@ -43,7 +48,7 @@ export function ScheduleForm({ orderId, cells, defaultCell, defaultStart }: { or
             {cells.map((c) => <option key={c.key} value={c.key}>{c.name}</option>)}
           </Select>
         </Field>
-        <Field label="Print start (UTC)" htmlFor="start" error={errors.start?.[0]}>
+        <Field label={`Print start (plant time, ${zoneLabel()})`} htmlFor="start" error={errors.start?.[0]}>
           <Input id="start" type="datetime-local" value={startAt} onChange={(e) => setStart(e.target.value)} />
         </Field>
       </div>
@@ -53,19 +58,34 @@ export function ScheduleForm({ orderId, cells, defaultCell, defaultStart }: { or
   );
 }
 
-export function StageForm({ orderId, options, context }: { orderId: string; options: { stage: string; ok: boolean; reason?: string }[]; context: MoveContext }) {
+/**
+ * Options come ordered forward first (lib/orders/stages.ts orderMoves), so the preselected move is
+ * the next forward stage; when the order's stage changes the choice goes back to that default, so
+ * no choice outlives a move (the "Moved to …" message stays).
+ */
+export function StageForm({ orderId, options, context }: { orderId: string; options: { stage: string; ok: boolean; reason?: string; isBack?: boolean }[]; context: MoveContext }) {
   const allowed = options.filter((o) => o.ok);
-  const [to, setTo] = useState(allowed[0]?.stage ?? "");
+  const first = allowed[0]?.stage ?? "";
+  const [to, setTo] = useState(first);
   const [note, setNote] = useState("");
+  const [seenFrom, setSeenFrom] = useState(context.from);
+  if (seenFrom !== context.from) {
+    // The order moved (this form's move, or someone else's): start again from the default.
+    setSeenFrom(context.from);
+    setTo(first);
+    setNote("");
+  }
   const [confirming, setConfirming] = useState(false);
   const [noteError, setNoteError] = useState<string | undefined>();
   const { msg, errors, pending, run } = useSubmit();
   if (allowed.length === 0) return <p className="text-sm text-ink-500">No stage change is open to you from here.</p>;
-  const guarded = to === "on_hold" || to === "cancelled" ? to : null;
-  const send = () => run(() => moveStage({ orderId, to, note: note || undefined, ...(guarded ? { confirm: guarded } : {}) }), `Moved to ${stageText(to)}.`);
+  const isBack = Boolean(allowed.find((o) => o.stage === to)?.isBack);
+  const guarded: GuardedMove | null = to === "on_hold" || to === "cancelled" ? to : isBack ? { back: to } : null;
+  const send = () => run(() => moveStage({ orderId, to, note: note || undefined, ...(guarded ? { confirm: to } : {}) }), `Moved to ${stageText(to)}.`);
   const submit = () => {
     if (!guarded) return send();
     if (guarded === "cancelled" && note.trim().length < 3) return setNoteError("Give the reason for cancelling; the client sees it on their timeline.");
+    if (isBack && note.trim().length < 3) return setNoteError("Say why the order goes back; the client sees it on their timeline.");
     setNoteError(undefined);
     setConfirming(true);
   };
@@ -74,10 +94,10 @@ export function StageForm({ orderId, options, context }: { orderId: string; opti
       <div className="grid gap-3 sm:grid-cols-2">
         <Field label="Move to" htmlFor="to">
           <Select id="to" value={to} disabled={confirming} onChange={(e) => (setTo(e.target.value), setNoteError(undefined))}>
-            {allowed.map((o) => <option key={o.stage} value={o.stage}>{stageText(o.stage)}</option>)}
+            {allowed.map((o) => <option key={o.stage} value={o.stage}>{o.isBack ? `back to ${stageText(o.stage)}` : stageText(o.stage)}</option>)}
           </Select>
         </Field>
-        <Field label={guarded === "cancelled" ? "Reason (the client sees it)" : guarded === "on_hold" ? "Note to the client (optional)" : "Note (optional)"} htmlFor="note" error={noteError ?? errors.note?.[0]}>
+        <Field label={guarded === "cancelled" || isBack ? "Reason (the client sees it)" : guarded === "on_hold" ? "Note to the client (optional)" : "Note (optional)"} htmlFor="note" error={noteError ?? errors.note?.[0]}>
           <Input id="note" value={note} disabled={confirming} aria-invalid={Boolean(noteError ?? errors.note)} onChange={(e) => setNote(e.target.value)} />
         </Field>
       </div>
@@ -87,7 +107,7 @@ export function StageForm({ orderId, options, context }: { orderId: string; opti
         <>
           <FormMessage tone={msg?.tone}>{msg?.text}</FormMessage>
           <Button type="submit" variant={guarded === "cancelled" ? "danger" : "primary"} disabled={pending}>
-            {guarded === "cancelled" ? "Cancel order…" : guarded === "on_hold" ? "Put on hold…" : "Move stage"}
+            {guarded === "cancelled" ? "Cancel order…" : guarded === "on_hold" ? "Put on hold…" : isBack ? "Move back…" : `Move to ${stageText(to)}`}
           </Button>
         </>
       )}

@@ -93,7 +93,8 @@ function Column({ column }: { column: BoardColumn }) {
                 <StageBadge stage={r.stage} heldFrom={r.heldFromStage} />
                 {r.isControlled ? <Badge tone="danger">controlled</Badge> : null}
               </span>
-              {r.plannedShip ? <span className="mt-1 block text-xs text-ink-500">ships {dateText(r.plannedShip)}</span> : null}
+              {/* A planned ship date only means something until the job has shipped. */}
+              {r.plannedShip && r.stage !== "shipped" && r.stage !== "delivered" ? <span className="mt-1 block text-xs text-ink-500">ships {dateText(r.plannedShip)}</span> : null}
             </Link>
           </li>
         ))}

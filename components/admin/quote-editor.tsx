@@ -15,6 +15,8 @@ export interface QuoteEditorProps {
   basisAnalysisIds: string[];
   initial: { lines: DraftLine[]; marginBp: number; taxBp: number; depositBp: number; validityDays: number; terms: string; notes: string; shipDate: string | null };
   isStale: boolean;
+  /** For a new version: the version its lines were copied from, 0 for the automatic estimate. */
+  startedFrom?: number | null;
 }
 
 type Row = DraftLine & { unitText: string; key: number };
@@ -22,7 +24,7 @@ let seq = 0;
 const toRow = (l: DraftLine): Row => ({ ...l, unitText: (l.unitCents / 100).toFixed(2), key: ++seq });
 
 /** Quote lines prefilled from the estimate; each change away from it asks for a reason. */
-export function QuoteEditor({ requestId, quoteId, basisAnalysisIds, initial, isStale }: QuoteEditorProps) {
+export function QuoteEditor({ requestId, quoteId, basisAnalysisIds, initial, isStale, startedFrom = null }: QuoteEditorProps) {
   const router = useRouter();
   const [rows, setRows] = useState<Row[]>(() => initial.lines.map(toRow));
   const [marginPct, setMarginPct] = useState(String(initial.marginBp / 100));
@@ -87,13 +89,14 @@ export function QuoteEditor({ requestId, quoteId, basisAnalysisIds, initial, isS
   return (
     <Card className="space-y-4">
       <CardTitle>{quoteId ? "Edit draft" : "New quote version"}</CardTitle>
+      {startedFrom ? <p className="text-sm text-ink-500">Starts from version {startedFrom}&rsquo;s lines and rates.</p> : startedFrom === 0 ? <p className="text-sm text-ink-500">Starts from the automatic estimate.</p> : null}
       {isStale ? <FormMessage>This draft is stale: a part has a new file revision. Start a new version from the fresh analysis.</FormMessage> : null}
       <div className="space-y-3">
         {rows.map((r, i) => {
           const edited = isEdited(r);
           const err = errors[`lines.${i}`]?.[0];
           return (
-            <div key={r.key} className="rounded border border-paper-200 p-3">
+            <div key={r.key} className={err ? "rounded border-2 border-signal-danger p-3" : "rounded border border-paper-200 p-3"}>
               <div className="grid gap-2 sm:grid-cols-[9.5rem_1fr_6rem_8rem_8rem_auto] sm:items-end">
                 <Field label="Kind" htmlFor={`kind-${r.key}`}>
                   <Select id={`kind-${r.key}`} value={r.kind} onChange={(e) => update(r.key, { kind: e.target.value as Row["kind"] })}>
@@ -106,7 +109,7 @@ export function QuoteEditor({ requestId, quoteId, basisAnalysisIds, initial, isS
                   <Input id={`desc-${r.key}`} value={r.description} onChange={(e) => update(r.key, { description: e.target.value })} />
                 </Field>
                 <Field label="Qty" htmlFor={`qty-${r.key}`}>
-                  <Input id={`qty-${r.key}`} inputMode="decimal" value={String(r.quantity)} onChange={(e) => update(r.key, { quantity: Number(e.target.value) || 0 })} />
+                  <Input id={`qty-${r.key}`} inputMode="decimal" value={String(r.quantity)} aria-invalid={!(r.quantity > 0)} onChange={(e) => update(r.key, { quantity: Number(e.target.value) || 0 })} />
                 </Field>
                 <Field label="Unit price ($)" htmlFor={`unit-${r.key}`}>
                   <Input id={`unit-${r.key}`} inputMode="decimal" value={r.unitText} onChange={(e) => update(r.key, { unitText: e.target.value })} aria-invalid={parseMoneyToCents(r.unitText) === null} />

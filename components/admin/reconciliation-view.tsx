@@ -1,11 +1,13 @@
 "use client";
 
 import Link from "next/link";
-import { useState } from "react";
+import { useState, useTransition } from "react";
+import { noteFinding } from "@/app/admin/accounts/actions";
 import { Badge, type BadgeTone } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { Card, EmptyState, Skeleton } from "@/components/ui/card";
-import { Field, Input } from "@/components/ui/input";
+import { Field, Input, Textarea } from "@/components/ui/input";
+import { formatDateTime } from "@/lib/dates";
 import { formatCents } from "@/lib/money";
 import { useApi } from "./use-api";
 
@@ -21,6 +23,9 @@ interface Finding {
   reference?: string;
   firmName?: string;
   kindOfPayment?: string;
+  findingKey: string;
+  isResolved: boolean;
+  notes: { note: string; isResolved: boolean; at: string; author: string | null }[];
 }
 interface Answer {
   summary: Record<Finding["kind"], number>;
@@ -41,7 +46,8 @@ export function ReconciliationView() {
   const [to, setTo] = useState(() => new Date().toISOString().slice(0, 10));
   const [query, setQuery] = useState<string | null>(`from=${from}&to=${to}`);
   const [showMatched, setShowMatched] = useState(false);
-  const { data, error, isLoading } = useApi<Answer>(query ? `/api/admin/reconciliation?${query}` : null);
+  const [round, setRound] = useState(0);
+  const { data, error, isLoading } = useApi<Answer>(query ? `/api/admin/reconciliation?${query}&r=${round}` : null);
   const findings = (data?.findings ?? []).filter((f) => showMatched || f.kind !== "matched").sort((a, b) => ORDER.indexOf(a.kind) - ORDER.indexOf(b.kind));
   return (
     <div className="space-y-4">
@@ -67,16 +73,72 @@ export function ReconciliationView() {
       {findings.length ? (
         <ul className="divide-y divide-paper-200 rounded-md bg-white ring-1 ring-paper-200" aria-label="Findings">
           {findings.map((f, i) => (
-            <li key={`${f.kind}-${f.paymentId}-${f.processorId}-${i}`} className="flex flex-col gap-1 px-4 py-3 text-sm sm:flex-row sm:items-center sm:gap-4">
+            <li key={`${f.kind}-${f.paymentId}-${f.processorId}-${i}`} className="flex flex-col gap-1 px-4 py-3 text-sm sm:flex-row sm:flex-wrap sm:items-center sm:gap-x-4">
               <Badge tone={KIND[f.kind].tone}>{KIND[f.kind].label}</Badge>
               <span className="font-medium">{f.subject}{f.reference ? ` · ${f.reference}` : ""}</span>
               <span className="figures text-ink-600">ours {f.oursCents === null ? "—" : formatCents(f.oursCents)} · processor {f.theirsCents === null ? "—" : formatCents(f.theirsCents)}</span>
               <span className="text-ink-500 sm:flex-1">{f.note}{f.processorId ? <span className="block break-all font-mono text-xs">processor reference {f.processorId}</span> : null}</span>
+              {f.isResolved ? <Badge tone="ok">resolved</Badge> : null}
               {f.paymentId && f.reference ? <Link className="text-kiln-700 underline" href={`/admin/accounts/payments/${f.paymentId}`}>Open payment</Link> : null}
+              {f.kind !== "matched" ? <FindingNotes finding={f} onSaved={() => setRound((r) => r + 1)} /> : null}
             </li>
           ))}
         </ul>
       ) : null}
+    </div>
+  );
+}
+
+/** Accounts' notes on one finding, and a note (optionally resolving it) of their own. */
+function FindingNotes({ finding, onSaved }: { finding: Finding; onSaved: () => void }) {
+  const [open, setOpen] = useState(false);
+  const [text, setText] = useState("");
+  const [resolve, setResolve] = useState(!finding.isResolved);
+  const [problem, setProblem] = useState<string | null>(null);
+  const [pending, start] = useTransition();
+  const id = `note-${finding.findingKey.replace(/[^A-Za-z0-9_-]/g, "-")}`;
+  return (
+    <div className="w-full basis-full space-y-2 pt-1">
+      {finding.notes.length ? (
+        <ul className="space-y-1 border-l-2 border-paper-200 pl-3 text-xs text-ink-600" aria-label="Notes">
+          {finding.notes.map((n, i) => (
+            <li key={i}>
+              <span className="text-ink-500">{formatDateTime(n.at)}{n.author ? ` · ${n.author}` : ""}{n.isResolved ? " · resolved" : ""}:</span> {n.note}
+            </li>
+          ))}
+        </ul>
+      ) : null}
+      {open ? (
+        <form
+          className="space-y-2"
+          onSubmit={(e) => {
+            e.preventDefault();
+            start(async () => {
+              const r = await noteFinding({ findingKey: finding.findingKey, note: text, resolve });
+              if (!r.ok) return setProblem(r.fieldErrors?.note?.[0] ?? r.message);
+              setProblem(null);
+              setText("");
+              setOpen(false);
+              onSaved();
+            });
+          }}
+        >
+          <Field label="Note" htmlFor={id} error={problem ?? undefined}>
+            <Textarea id={id} className="min-h-14" value={text} onChange={(e) => setText(e.target.value)} />
+          </Field>
+          <label className="flex items-center gap-2 text-xs text-ink-600">
+            <input type="checkbox" checked={resolve} onChange={(e) => setResolve(e.target.checked)} /> mark resolved
+          </label>
+          <div className="flex gap-2">
+            <Button type="submit" size="sm" disabled={pending}>{pending ? "Saving…" : "Save note"}</Button>
+            <Button type="button" size="sm" variant="ghost" onClick={() => setOpen(false)}>Close</Button>
+          </div>
+        </form>
+      ) : (
+        <Button type="button" size="sm" variant="secondary" onClick={() => setOpen(true)}>
+          {finding.isResolved ? "Add a note" : "Note or resolve"}
+        </Button>
+      )}
     </div>
   );
 }

@@ -36,7 +36,7 @@ export function StaffTable({ selfId }: { selfId: string }) {
       accessorKey: "role",
       header: "Role",
       cell: ({ row }) => (
-        <Select aria-label={`Role of ${row.original.email}`} className="py-1 text-sm" value={row.original.role} disabled={pending} onChange={(e) => change(row.original.id, { role: e.target.value })}>
+        <Select aria-label={`Role of ${row.original.email}`} className="min-w-[9.5rem] py-1 text-sm" value={row.original.role} disabled={pending} onChange={(e) => change(row.original.id, { role: e.target.value })}>
           {ROLES.map((r) => <option key={r}>{r}</option>)}
         </Select>
       ),

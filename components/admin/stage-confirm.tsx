@@ -16,9 +16,22 @@ export interface MoveContext {
   bookedCell: string | null;
 }
 
-/** The consequences of putting the order on hold or cancelling it, in the order staff weigh them. */
-export function moveConsequences(to: "on_hold" | "cancelled", ctx: MoveContext): { title: string; lines: string[]; confirm: string } {
+/** A move the form confirms first: a hold, a cancel, or a step back along the flow to `target`. */
+export type GuardedMove = "on_hold" | "cancelled" | { back: string };
+
+/** The consequences of the move, in the order staff weigh them. */
+export function moveConsequences(to: GuardedMove, ctx: MoveContext): { title: string; lines: string[]; confirm: string } {
   const paid = ctx.paidCents > 0 ? formatCents(ctx.paidCents, ctx.currency) : null;
+  if (typeof to === "object") {
+    return {
+      title: `Move this order back to ${stageText(to.back)}?`,
+      confirm: `Yes, back to ${stageText(to.back)}`,
+      lines: [
+        `The client sees the order go back from ${stageText(ctx.from)} to ${stageText(to.back)} on their timeline, with your note.`,
+        "Payments and booked cell time stay as they are.",
+      ],
+    };
+  }
   if (to === "on_hold") {
     return {
       title: "Put this order on hold?",
@@ -44,7 +57,7 @@ export function moveConsequences(to: "on_hold" | "cancelled", ctx: MoveContext):
 }
 
 /** The inline "are you sure" panel: consequences, then confirm or go back. */
-export function ConfirmMove({ to, ctx, pending, onConfirm, onBack }: { to: "on_hold" | "cancelled"; ctx: MoveContext; pending: boolean; onConfirm: () => void; onBack: () => void }) {
+export function ConfirmMove({ to, ctx, pending, onConfirm, onBack }: { to: GuardedMove; ctx: MoveContext; pending: boolean; onConfirm: () => void; onBack: () => void }) {
   const c = moveConsequences(to, ctx);
   const heading = useRef<HTMLHeadingElement>(null);
   useEffect(() => heading.current?.focus(), []);

@@ -2,6 +2,7 @@
 
 import { useActionState } from "react";
 import { acceptInvitationAction } from "@/app/(auth)/invite/actions";
+import { keepFieldsOnSubmit } from "@/components/auth/use-kept-form";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input } from "@/components/ui/input";
 
@@ -9,7 +10,7 @@ export function AcceptInvitationForm({ token, email }: { token: string; email: s
   const [state, action, pending] = useActionState(acceptInvitationAction, null);
   const errors = state && !state.ok ? state.fieldErrors : undefined;
   return (
-    <form action={action} className="space-y-4" noValidate>
+    <form action={action} onSubmit={keepFieldsOnSubmit(action)} className="space-y-4" noValidate>
       <input type="hidden" name="token" value={token} />
       <div className="rounded bg-paper-100 px-3 py-2 text-sm">
         <p className="text-xs text-ink-500">You sign in with</p>

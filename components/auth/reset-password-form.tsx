@@ -2,6 +2,7 @@
 
 import { useActionState } from "react";
 import { resetPasswordAction } from "@/app/(auth)/reset/actions";
+import { keepFieldsOnSubmit } from "@/components/auth/use-kept-form";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input } from "@/components/ui/input";
 
@@ -9,7 +10,7 @@ export function ResetPasswordForm({ token }: { token: string }) {
   const [state, action, pending] = useActionState(resetPasswordAction, null);
   const errors = state && !state.ok ? state.fieldErrors : undefined;
   return (
-    <form action={action} className="space-y-4" noValidate>
+    <form action={action} onSubmit={keepFieldsOnSubmit(action)} className="space-y-4" noValidate>
       <input type="hidden" name="token" value={token} />
       <Field label="New password" htmlFor="password" error={errors?.password?.[0]} hint="At least 10 characters, with a digit.">
         <Input id="password" name="password" type="password" autoComplete="new-password" aria-invalid={Boolean(errors?.password)} />

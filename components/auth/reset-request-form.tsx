@@ -2,6 +2,7 @@
 
 import { useActionState } from "react";
 import { requestPasswordResetAction } from "@/app/(auth)/reset/actions";
+import { keepFieldsOnSubmit } from "@/components/auth/use-kept-form";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input } from "@/components/ui/input";
 
@@ -9,7 +10,7 @@ export function ResetRequestForm() {
   const [state, action, pending] = useActionState(requestPasswordResetAction, null);
   const errors = state && !state.ok ? state.fieldErrors : undefined;
   return (
-    <form action={action} className="space-y-4" noValidate>
+    <form action={action} onSubmit={keepFieldsOnSubmit(action)} className="space-y-4" noValidate>
       <Field label="E-mail" htmlFor="email" error={errors?.email?.[0]}>
         <Input id="email" name="email" type="email" autoComplete="email" required aria-invalid={Boolean(errors?.email)} />
       </Field>

@@ -3,6 +3,7 @@
 import Link from "next/link";
 import { useActionState, useState } from "react";
 import { requestMagicLink, signInWithPassword } from "@/app/(auth)/actions";
+import { keepFieldsOnSubmit } from "@/components/auth/use-kept-form";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input } from "@/components/ui/input";
 
@@ -19,7 +20,7 @@ export function SignInForm({ callbackUrl }: { callbackUrl?: string }) {
 
   return (
     <div className="space-y-8">
-      <form action={action} className="space-y-4" noValidate>
+      <form action={action} onSubmit={keepFieldsOnSubmit(action)} className="space-y-4" noValidate>
         <input type="hidden" name="callbackUrl" value={callbackUrl ?? ""} />
         {askCode ? (
           <>
@@ -82,7 +83,7 @@ export function SignInForm({ callbackUrl }: { callbackUrl?: string }) {
         <span className="h-px flex-1 bg-paper-300" /> or get a link by e-mail <span className="h-px flex-1 bg-paper-300" />
       </div>
 
-      <form action={linkAction} className="space-y-3" noValidate>
+      <form action={linkAction} onSubmit={keepFieldsOnSubmit(linkAction)} className="space-y-3" noValidate>
         <Field label="E-mail for a sign-in link" htmlFor="link-email" error={linkErrors?.email?.[0]} hint="Not for accounts that sign in with a code.">
           <Input id="link-email" name="email" type="email" autoComplete="email" aria-invalid={Boolean(linkErrors?.email)} />
         </Field>

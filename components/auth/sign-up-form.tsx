@@ -2,6 +2,7 @@
 
 import { useActionState } from "react";
 import { signUp } from "@/app/(auth)/actions";
+import { keepFieldsOnSubmit } from "@/components/auth/use-kept-form";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input, Select } from "@/components/ui/input";
 
@@ -9,7 +10,7 @@ export function SignUpForm() {
   const [state, action, pending] = useActionState(signUp, null);
   const errors = state && !state.ok ? state.fieldErrors : undefined;
   return (
-    <form action={action} className="space-y-4" noValidate>
+    <form action={action} onSubmit={keepFieldsOnSubmit(action)} className="space-y-4" noValidate>
       <Field label="Your name" htmlFor="name" error={errors?.name?.[0]}>
         <Input id="name" name="name" autoComplete="name" aria-invalid={Boolean(errors?.name)} />
       </Field>

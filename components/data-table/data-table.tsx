@@ -164,14 +164,14 @@ export function DataTable<T>({
             <thead className="bg-paper-100 text-left text-xs uppercase tracking-wide text-ink-500">
               {table.getHeaderGroups().map((hg) => (
                 <tr key={hg.id}>
-                  {hg.headers.map((header) => {
+                  {hg.headers.map((header, hi) => {
                     const canSort = header.column.getCanSort();
                     const dir = header.column.getIsSorted();
                     return (
                       <th
                         key={header.id}
                         scope="col"
-                        className="whitespace-nowrap px-4 py-2 font-medium"
+                        className={cn("whitespace-nowrap px-4 py-2 font-medium", hi === 0 && "sticky left-0 z-10 bg-paper-100")}
                         aria-sort={dir === "asc" ? "ascending" : dir === "desc" ? "descending" : canSort ? "none" : undefined}
                       >
                         {header.isPlaceholder ? null : canSort ? (
@@ -211,8 +211,8 @@ export function DataTable<T>({
                       className={cn("hover:bg-paper-50", onRowClick && "cursor-pointer")}
                       onClick={onRowClick ? () => onRowClick(row) : undefined}
                     >
-                      {row.getVisibleCells().map((cell) => (
-                        <td key={cell.id} className="px-4 py-2 align-top">
+                      {row.getVisibleCells().map((cell, ci) => (
+                        <td key={cell.id} className={cn("px-4 py-2 align-top", ci === 0 && "sticky left-0 z-10 bg-white")}>
                           {flexRender(cell.column.columnDef.cell, cell.getContext())}
                         </td>
                       ))}

@@ -30,7 +30,7 @@ export function AppShell({
             <span>Layerwright</span>
             <span className="rounded bg-ink-700 px-1.5 py-0.5 text-xs font-normal text-paper-300">{area}</span>
           </Link>
-          <nav aria-label="Sections" className="order-3 -mx-1 flex w-full gap-1 overflow-x-auto sm:order-none sm:w-auto">
+          <nav aria-label="Sections" className="order-3 -mx-1 flex w-full flex-wrap gap-1 sm:order-none sm:w-auto">
             {nav.map((item) => (
               <Link key={item.href} href={item.href} className="whitespace-nowrap rounded px-2 py-1 text-sm text-paper-200 hover:bg-ink-700 hover:text-white">
                 {item.label}

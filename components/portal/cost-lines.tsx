@@ -14,7 +14,7 @@ export interface CostTotalRow {
   tone?: "total" | "muted";
 }
 
-/** The cost lines of an estimate or a quote, with margin, tax and totals under them. */
+/** The cost lines of an estimate or a quote as the client sees them (the bureau's margin inside the lines), with tax and totals under them. */
 export function CostLines({
   heading,
   caption,
@@ -61,6 +61,14 @@ export function CostLines({
       </table>
     </div>
   );
+}
+
+/**
+ * A quantity a client is shown: material and parts as counted; machine and labour hours are the
+ * bureau's own planning figures, so those lines show no quantity.
+ */
+export function clientQuantity(quantity: number, unit?: string): string {
+  return unit === "h" ? "" : lineQuantity(quantity, unit);
 }
 
 /** Quantities as the line tables show them: at most two decimals. */

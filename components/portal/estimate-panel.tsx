@@ -1,6 +1,7 @@
 import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
-import { CostLines, lineQuantity } from "./cost-lines";
+import { spreadMargin } from "@/lib/quoting/client-lines";
+import { clientQuantity, CostLines } from "./cost-lines";
 import { EstimatePlan } from "./estimate-plan";
 import type { EstimateResult } from "@/lib/estimating/types";
 import { formatCents } from "@/lib/money";
@@ -13,15 +14,9 @@ import {
   formatVolume,
   type UnitsPref,
 } from "@/lib/units";
+import { formatDay } from "@/lib/dates";
 
-const day = (iso: string) =>
-  new Date(iso).toLocaleDateString("en-GB", {
-    weekday: "short",
-    day: "numeric",
-    month: "long",
-    year: "numeric",
-    timeZone: "UTC",
-  });
+const day = (iso: string) => formatDay(iso);
 
 /** The label every figure carries: automatic estimate or sales-approved quote. */
 export function FigureKind({ kind }: { kind: "estimate" | "quote" }) {
@@ -205,14 +200,8 @@ export function EstimatePanel({
         </Alert>
       ) : (
         <p className="text-sm text-ink-600">
-          Fits{" "}
-          {fitting
-            .map(
-              (f) =>
-                `${f.cellName} (${formatLength(f.marginMm, units, 0)} margin)`,
-            )
-            .join(", ")}
-          . {chosen ? `Estimated on ${chosen.cellName}.` : ""}
+          Fits {fitting.map((f) => `${f.cellName} (${formatLength(f.marginMm, units, 0)} clearance)`).join(", ")}.{" "}
+          {chosen ? `Estimated on ${chosen.cellName}.` : ""}
         </p>
       )}
       {r.warnings.length ? (
@@ -239,14 +228,8 @@ export function EstimatePanel({
         <CostLines
           heading="Line (estimate)"
           caption="Estimated cost lines"
-          lines={r.lines.map((l) => ({
-            key: l.key,
-            label: l.label,
-            quantity: lineQuantity(l.quantity, l.unit),
-            amountCents: l.amountCents,
-          }))}
+          lines={spreadMargin(r.lines.filter((l) => l.quantity > 0), r.marginCents).map((l) => ({ key: l.key, label: l.label, quantity: clientQuantity(l.quantity, l.unit), amountCents: l.amountCents }))}
           totals={[
-            { label: "Margin", cents: r.marginCents },
             { label: "Tax", cents: r.taxCents },
             { label: "Estimated total", cents: r.totalCents, tone: "total" },
           ]}

@@ -7,6 +7,7 @@ import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { FormMessage, Textarea } from "@/components/ui/input";
 import { ATTACHMENT_LIMIT, useUploadThing } from "./uploadthing";
+import { formatDateTime } from "@/lib/dates";
 
 export interface MessageView {
   id: string;
@@ -18,7 +19,7 @@ export interface MessageView {
   attachments: { id: string; title: string; sizeBytes: number | null }[];
 }
 
-const when = (iso: string) => new Date(iso).toLocaleString("en-GB", { day: "numeric", month: "short", hour: "2-digit", minute: "2-digit", timeZone: "UTC" }) + " UTC";
+const when = (iso: string) => formatDateTime(iso);
 
 function Composer({ requestId, parentId, onDone, label }: { requestId: string; parentId?: string; onDone: () => void; label: string }) {
   const [body, setBody] = useState("");

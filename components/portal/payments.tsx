@@ -8,6 +8,7 @@ import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/input";
 import { PAYMENT_KIND_LABEL, type PaymentState } from "@/lib/labels";
 import { formatCents } from "@/lib/money";
+import { formatDate } from "@/lib/dates";
 
 export interface PaymentView {
   id: string;
@@ -20,7 +21,7 @@ export interface PaymentView {
   paidAt: string | null;
 }
 
-const day = (iso: string | null) => (iso ? new Date(iso).toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" }) : "—");
+const day = (iso: string | null) => formatDate(iso);
 
 const noSubscription = () => () => {};
 

@@ -1,4 +1,5 @@
 import { formatCents } from "@/lib/money";
+import { formatDate, formatDay } from "@/lib/dates";
 
 export interface QuoteView {
   id: string;
@@ -23,7 +24,9 @@ export interface QuoteView {
   lines: { id: string; kind: string; description: string; quantity: number; unitCents: number; amountCents: number }[];
 }
 
-export const day = (iso: string | null) => (iso ? new Date(iso).toLocaleDateString("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" }) : "—");
+/** Quoted ship dates are days (UTC midnight); issue and expiry are instants in the plant's zone. */
+export const day = (iso: string | null) => formatDay(iso);
+export const instantDay = (iso: string | null) => formatDate(iso);
 
 /** What changed from the previous version: lines added, removed or re-priced, and the total. */
 export function quoteChanges(cur: QuoteView, prev: QuoteView | undefined): string[] {

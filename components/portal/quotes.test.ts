@@ -42,7 +42,7 @@ describe("quoteChanges", () => {
       "Added: Vacuum-integrity test ($500.00)",
       "Removed: Crating",
       "Total: $1,000.00 → $1,125.00",
-      "Ship date: 10 January 2027 → 17 January 2027",
+      "Ship date: 10 Jan 2027 → 17 Jan 2027",
     ]);
   });
   it("says so when nothing changed, and nothing for the first version", () => {

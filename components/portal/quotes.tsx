@@ -10,7 +10,11 @@ import { Field, FormMessage, Input } from "@/components/ui/input";
 import { formatCents } from "@/lib/money";
 import { CostLines, lineQuantity } from "./cost-lines";
 import { FigureKind } from "./estimate-panel";
-import { day, quoteChanges, type QuoteView } from "./quote-changes";
+import { day, instantDay, quoteChanges, type QuoteView } from "./quote-changes";
+import { spreadMargin } from "@/lib/quoting/client-lines";
+
+/** Lines priced by the hour: the hours are the bureau's own planning figure, not shown to the client. */
+const HOURS_KINDS = new Set(["print", "machining", "engineering"]);
 
 export type { QuoteView };
 
@@ -99,7 +103,7 @@ export function QuotesSection({ quotes, canAccept, defaultPo, now }: { quotes: Q
               <FigureKind kind="quote" />
               {q.isStale ? <Badge tone="warn">Files changed since this quote</Badge> : null}
               <span className="text-xs text-ink-500">
-                issued {day(q.issuedAt)} · valid until {day(q.validUntil)}
+                issued {instantDay(q.issuedAt)} · valid until {instantDay(q.validUntil)}
               </span>
             </div>
             {changes.length ? (
@@ -115,9 +119,8 @@ export function QuotesSection({ quotes, canAccept, defaultPo, now }: { quotes: Q
             <CostLines
               heading="Line (quote)"
               currency={q.currency}
-              lines={q.lines.map((l) => ({ key: l.id, label: l.description, quantity: lineQuantity(l.quantity), amountCents: l.amountCents }))}
+              lines={spreadMargin(q.lines, q.marginCents).map((l) => ({ key: l.id, label: l.description, quantity: HOURS_KINDS.has(l.kind) ? "" : lineQuantity(l.quantity), amountCents: l.amountCents }))}
               totals={[
-                { label: "Margin", cents: q.marginCents },
                 { label: "Tax", cents: q.taxCents },
                 { label: "Quoted total", cents: q.totalCents, tone: "total" },
                 { label: "Deposit on acceptance", cents: q.depositCents, tone: "muted" },

@@ -12,6 +12,7 @@ import { formatCents } from "@/lib/money";
 import { fetchJson } from "./query-provider";
 import { StageBadge } from "@/components/stage-badge";
 import { STAGE_LABEL } from "@/lib/labels";
+import { formatDate, formatDay } from "@/lib/dates";
 
 export interface PortalRow {
   id: string;
@@ -27,7 +28,7 @@ export interface PortalRow {
   hasOrder: boolean;
 }
 
-const day = (iso: string | null) => (iso ? new Date(iso).toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" }) : "—");
+
 
 /** The client home: the firm's requests and orders, sorted, filtered and searched by the API. */
 export function RequestsTable({ showAuthor }: { showAuthor: boolean }) {
@@ -91,8 +92,8 @@ export function RequestsTable({ showAuthor }: { showAuthor: boolean }) {
         cell: ({ row }) =>
           row.original.totalCents === null ? <span className="text-ink-400">—</span> : <span className="figures whitespace-nowrap">{formatCents(row.original.totalCents)}</span>,
       },
-      { id: "neededBy", accessorKey: "neededBy", header: "Needed by", cell: ({ row }) => <span className="whitespace-nowrap">{day(row.original.neededBy)}</span> },
-      { id: "updatedAt", accessorKey: "updatedAt", header: "Updated", cell: ({ row }) => <span className="whitespace-nowrap text-ink-500">{day(row.original.updatedAt)}</span> },
+      { id: "neededBy", accessorKey: "neededBy", header: "Needed by", cell: ({ row }) => <span className="whitespace-nowrap">{formatDay(row.original.neededBy)}</span> },
+      { id: "updatedAt", accessorKey: "updatedAt", header: "Updated", cell: ({ row }) => <span className="whitespace-nowrap text-ink-500">{formatDate(row.original.updatedAt)}</span> },
     ],
     [showAuthor],
   );

@@ -2,6 +2,7 @@ import type { Stage } from "@/db/schema/common";
 import { FLOW } from "@/lib/orders/stages";
 import { cn } from "@/components/ui/cn";
 import { STAGE_LABEL } from "@/lib/labels";
+import { formatDate } from "@/lib/dates";
 
 export interface TimelineEvent {
   toStage: Stage;
@@ -10,7 +11,7 @@ export interface TimelineEvent {
   actorName: string | null;
 }
 
-const day = (d: Date) => d.toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" });
+const day = (d: Date) => formatDate(d);
 
 /** The order's life as a vertical timeline: actual dates where reached, planned dates ahead. */
 export function StageTimeline({ stage, events, planned }: { stage: Stage; events: TimelineEvent[]; planned: Partial<Record<Stage, Date | null>> }) {

@@ -72,3 +72,22 @@ export const webhookEvents = sqliteTable("webhook_events", {
     .notNull()
     .$defaultFn(() => new Date()),
 });
+
+/**
+ * Accounts' notes on a reconciliation finding, and whether it is resolved (explained, or mended
+ * at the processor). `findingKey` names what the finding is about: `payment:<id>`, `refund:<id>`
+ * or `processor:<processor id>` for money the ledger does not know.
+ */
+export const reconciliationNotes = sqliteTable(
+  "reconciliation_notes",
+  {
+    id: id(),
+    findingKey: text("finding_key").notNull(),
+    note: text("note").notNull(),
+    isResolved: integer("is_resolved", { mode: "boolean" }).notNull().default(false),
+    authorId: text("author_id").references(() => users.id),
+    createdAt: createdAt(),
+  },
+  (t) => [index("reconciliation_notes_key_idx").on(t.findingKey, t.createdAt)],
+);
+export type ReconciliationNote = typeof reconciliationNotes.$inferSelect;

@@ -69,6 +69,8 @@ export const parts = sqliteTable(
     cellKey: text("cell_key"),
     /** Indices of the bodies to print, for STEP/IGES assemblies; null = all. */
     selectedBodies: text("selected_bodies", { mode: "json" }).$type<number[] | null>(),
+    /** Why the last file sent for this part was refused (kept so a reload still says it); null once a file is taken. */
+    fileProblem: text("file_problem"),
     currentRevisionId: text("current_revision_id"),
     sort: integer("sort").notNull().default(0),
     createdAt: createdAt(),

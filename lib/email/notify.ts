@@ -22,6 +22,7 @@ import { getRefundWithPayment } from "@/db/queries/refunds";
 import { errorFields, logFor } from "@/lib/observability/log";
 import { queueEmail } from "./outbox";
 import type { SendEmailInput } from "./send";
+import { formatDate, formatDay } from "@/lib/dates";
 
 /**
  * The client e-mails of the order's life. Each loads what it needs by id and queues the e-mail
@@ -30,8 +31,8 @@ import type { SendEmailInput } from "./send";
  * only for an unknown id or a database failure.
  */
 
-const dateText = (d: Date | null | undefined) =>
-  d ? new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" }).format(d) : null;
+/** An instant's day in the plant's zone (lib/dates.ts); null when there is none. */
+const dateText = (d: Date | null | undefined) => (d ? formatDate(d) : null);
 
 const requestUrl = (requestId: string) => `${env().APP_URL}/portal/requests/${requestId}`;
 
@@ -104,7 +105,7 @@ export async function notifyQuoteReady(quoteId: string, db: Db = getDb()) {
       total: formatCents(quote.totalCents, quote.currency),
       deposit: formatCents(quote.depositCents, quote.currency),
       validUntil: dateText(quote.validUntil) ?? "see the quote",
-      shipDate: dateText(quote.shipDate),
+      shipDate: quote.shipDate ? formatDay(quote.shipDate) : null,
       attached: doc.labels,
       url: requestUrl(c.id),
     }),

@@ -67,6 +67,26 @@ export function roleMayMove(role: Role, from: Stage, to: Stage): boolean {
   return false;
 }
 
+/**
+ * A move back along the flow (inspection → machining for rework): the client's timeline shows
+ * it, so staff confirm it and say why. Holds, cancels and a held order's return are not "back".
+ */
+export function isBackwardMove(from: Stage, to: Stage): boolean {
+  const a = FLOW.indexOf(from);
+  const b = FLOW.indexOf(to);
+  return a >= 0 && b >= 0 && b < a;
+}
+
+/**
+ * The moves a stage form offers, in the order it lists them: forward moves first (the first is
+ * the default, so one click never moves an order backwards), then steps back, then hold, then
+ * cancel.
+ */
+export function orderMoves<T extends { stage: Stage }>(from: Stage, moves: readonly T[]): T[] {
+  const rank = (to: Stage) => (to === "cancelled" ? 4 : to === "on_hold" ? 3 : isBackwardMove(from, to) ? 2 : to === from ? 1 : 0);
+  return [...moves].sort((x, y) => rank(x.stage) - rank(y.stage) || FLOW.indexOf(x.stage) - FLOW.indexOf(y.stage));
+}
+
 /** A stage's name quoted inside a sentence (the words of lib/labels.ts). */
 export function label(stage: Stage): string {
   return `“${STAGE_LABEL[stage]}”`;

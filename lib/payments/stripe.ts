@@ -102,6 +102,19 @@ export function constructWebhookEvent(rawBody: string | Buffer, signature: strin
   }
 }
 
+/**
+ * The charge behind a paid payment intent and the processor's fee on it (from the charge's
+ * balance transaction), or null while the processor has not settled the charge yet.
+ */
+export async function retrieveChargeFee(paymentIntentId: string, stripe: Stripe = getStripe()): Promise<{ chargeId: string; feeCents: number } | null> {
+  const pi = await stripe.paymentIntents.retrieve(paymentIntentId, { expand: ["latest_charge.balance_transaction"] });
+  const charge = pi.latest_charge;
+  if (!charge || typeof charge === "string") return null;
+  const txn = charge.balance_transaction;
+  if (!txn || typeof txn === "string") return null;
+  return { chargeId: charge.id, feeCents: txn.fee };
+}
+
 export interface RefundInput {
   paymentIntentId: string;
   /** Omit for the whole remaining amount. */

@@ -52,7 +52,11 @@ export function lineAmount(quantity: number, unitCents: number): number {
   return roundCents(quantity * unitCents);
 }
 
-/** Quote lines prefilled from each part's estimate, each remembering the estimate's amount. */
+/**
+ * Quote lines prefilled from each part's estimate, each remembering the estimate's amount. A line
+ * the estimate priced at nothing (no cooling dwell, an option not asked for: quantity 0) is left
+ * out: a quote line needs a quantity above zero, and it would only say "0 h" to the client.
+ */
 export function linesFromEstimates(parts: PartEstimate[]): DraftLine[] {
   const out: DraftLine[] = [];
   for (const part of parts) {

@@ -18,6 +18,11 @@ export const refundSchema = z.object({
   reason: z.string().trim().min(3, "Say why the money goes back.").max(500),
   /** Made when the form opens; a second submit with the same key is refused. */
   idempotencyKey: z.string().min(8).max(100),
+  /**
+   * The amount again, sent by the form's "are you sure" step: money leaves only when the person
+   * has seen it. A scripted or replayed call without it moves nothing.
+   */
+  confirmAmountCents: z.coerce.number().int().optional(),
 });
 
 export const ledgerQuerySchema = z.object({
@@ -30,4 +35,11 @@ export const ledgerQuerySchema = z.object({
   dir: z.enum(["asc", "desc"]).optional(),
   page: z.coerce.number().int().min(1).max(10_000).optional(),
   pageSize: z.coerce.number().int().min(1).max(200).optional(),
+});
+
+export const findingNoteSchema = z.object({
+  findingKey: z.string().regex(/^(payment|refund|processor):[A-Za-z0-9_-]{1,100}$/, "Not a finding."),
+  note: z.string().trim().min(3, "Write what you found or did.").max(2_000),
+  /** Marks the finding resolved (explained or mended); a later note without it reopens it. */
+  resolve: z.boolean().default(false),
 });

@@ -1,11 +1,18 @@
 import { z } from "zod";
 import { STAGES } from "../../db/schema/common";
+import { fromPlantInput } from "../dates";
 
 export const scheduleSchema = z.object({
   orderId: z.string().min(1).max(64),
   cellKey: z.string().min(1).max(64),
-  /** Local date-time from the form, read as UTC (the plant's calendar is kept in UTC). */
-  start: z.string().min(1, "Pick a start.").refine((s) => !Number.isNaN(Date.parse(s.endsWith("Z") ? s : `${s}Z`)), "Not a date and time."),
+  /**
+   * The form's `datetime-local` value, read as the plant's wall-clock time (lib/dates.ts); an
+   * instant with a trailing "Z" is taken as it is.
+   */
+  start: z
+    .string()
+    .min(1, "Pick a start.")
+    .refine((s) => (s.endsWith("Z") ? !Number.isNaN(Date.parse(s)) : fromPlantInput(s) !== null), "Not a date and time."),
 });
 
 /** Stage moves the form confirms first: the client sees them and they stop the job. */
@@ -19,10 +26,11 @@ export const moveStageSchema = z
     to: z.enum(STAGES),
     note: z.string().trim().max(1_000).optional(),
     /**
-     * A hold or a cancel carries the target again as `confirm` (the form sends it after its
-     * "are you sure" step), so a replayed or scripted call without it changes nothing.
+     * A hold, a cancel or a step back along the flow carries the target again as `confirm` (the
+     * form sends it after its "are you sure" step), so a replayed or scripted call without it
+     * changes nothing. Steps back are checked in the action, which knows where the order is.
      */
-    confirm: z.enum(CONFIRMED_MOVES).optional(),
+    confirm: z.enum(STAGES).optional(),
   })
   .superRefine((v, ctx) => {
     if (!isConfirmedMove(v.to)) return;

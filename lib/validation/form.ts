@@ -9,3 +9,16 @@ export function fieldErrorsOf(error: { issues: { path: PropertyKey[]; message: s
   for (const issue of error.issues) (out[String(issue.path[0] ?? "form")] ??= []).push(issue.message);
   return out;
 }
+
+/**
+ * zod issues by their whole path ("lines.3" for the fourth line's fields), so a form of repeated
+ * rows can mark the row at fault; issues on the form as a whole go under "form".
+ */
+export function fieldErrorsByRow(error: { issues: { path: PropertyKey[]; message: string }[] }, depth = 2): Record<string, string[]> {
+  const out: Record<string, string[]> = {};
+  for (const issue of error.issues) {
+    const key = issue.path.slice(0, depth).map(String).join(".") || "form";
+    (out[key] ??= []).push(issue.message);
+  }
+  return out;
+}

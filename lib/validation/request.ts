@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { plantToday } from "../dates";
 import { fToC } from "../units";
 
 /**
@@ -72,9 +73,13 @@ export const draftSchema = z.object({
 export type DraftInput = z.input<typeof draftSchema>;
 export type DraftValues = z.output<typeof draftSchema>;
 
-/** What submitting adds: at least one part, every part's units confirmed and a file analysed (checked on the server). */
+/**
+ * What submitting adds: a needed-by date not already past (in the plant's calendar), at least one
+ * part, every part's units confirmed and a file analysed (checked on the server).
+ */
 export const submitSchema = draftSchema.safeExtend({
   requestId: z.string().min(1),
+  project: projectSchema.refine((p) => !p.neededBy || !isPastDay(p.neededBy), { path: ["neededBy"], message: "That date has passed; pick a date from today on." }),
   parts: z
     .array(
       partSchema.refine((p) => p.unitsConfirmed, { path: ["unitsConfirmed"], message: "Confirm the file's units." }),
@@ -84,6 +89,11 @@ export const submitSchema = draftSchema.safeExtend({
 });
 
 export const MM_PER_IN = 25.4;
+
+/** Is this "YYYY-MM-DD" day before today in the plant's calendar? */
+export function isPastDay(ymd: string, now: Date = new Date()): boolean {
+  return ymd < plantToday(now);
+}
 
 /** Storage form of the project step: °C, Date, null for blanks. */
 export function toDraftFields(p: ProjectValues) {

@@ -49,20 +49,21 @@ describe("back office journeys", () => {
     const page = await open("production@ostrevane.example", DEMO_PASSWORDS.production);
     await page.goto(`${stack.baseUrl}/admin/production`);
     await page.getByRole("region", { name: "Waiting" }).getByRole("link").filter({ hasText: "deposit paid" }).first().click();
-    await page.getByLabel("Print start (UTC)").fill("2031-03-03T06:00");
+    await page.getByLabel(/Print start/).fill("2031-03-03T06:00");
     await page.getByRole("button", { name: "Schedule on this cell" }).click();
     await page.getByText(/Scheduled; the client has been e-mailed/).waitFor();
+    // Each time the preselected move is the next stage forward: one click, never a step back.
     for (const stage of ["printing", "cooling", "machining", "inspection", "finishing", "packed"]) {
-      await page.getByLabel("Move to").selectOption(stage);
-      await page.getByRole("button", { name: "Move stage" }).click();
+      await expect.poll(() => page.getByLabel("Move to").inputValue(), { timeout: 15_000 }).toBe(stage);
+      await page.getByRole("button", { name: `Move to ${stage}` }).click();
       await page.getByText(`Moved to ${stage}.`).waitFor();
     }
     await page.getByLabel("Carrier").fill("Tidewater Haulage");
     await page.getByLabel("Tracking number").fill("TW-4471");
     await page.getByRole("button", { name: "Save actuals" }).click();
     await page.getByText("Actuals saved.").waitFor();
-    await page.getByLabel("Move to").selectOption("shipped");
-    await page.getByRole("button", { name: "Move stage" }).click();
+    await expect.poll(() => page.getByLabel("Move to").inputValue(), { timeout: 15_000 }).toBe("shipped");
+    await page.getByRole("button", { name: "Move to shipped" }).click();
     await page.getByText("Moved to shipped.").waitFor();
     await shot(page, "admin-e2e-production-shipped");
     await page.context().close();
@@ -77,7 +78,8 @@ describe("back office journeys", () => {
     await matched.getByRole("link", { name: "Open payment" }).click();
     await page.getByLabel("Amount ($)").fill("100.00");
     await page.getByLabel("Reason").fill("Flange trimmed short by agreement");
-    await page.getByRole("button", { name: "Refund" }).click();
+    await page.getByRole("button", { name: "Refund…" }).click();
+    await page.getByRole("alertdialog", { name: "Refund $100.00?" }).getByRole("button", { name: "Yes, refund $100.00" }).click();
     await page.getByText(/Refund of \$100\.00 sent/).waitFor();
     await shot(page, "admin-e2e-accounts-refunded");
     await page.goto(`${stack.baseUrl}/admin/accounts`);

@@ -299,17 +299,17 @@ describe("accounts: reconciliation and refunds against the payment fake", () => 
     const part = Math.floor(p!.amountCents / 4);
 
     const refundsBefore = await count(refunds);
-    expect(await refundPayment({ paymentId: p!.id, amountCents: p!.amountCents + 1, reason: "too much", idempotencyKey: "refund-key-over" })).toMatchObject({ ok: false, code: "invalid_input:amount" });
+    expect(await refundPayment({ paymentId: p!.id, amountCents: p!.amountCents + 1, reason: "too much", idempotencyKey: "refund-key-over", confirmAmountCents: p!.amountCents + 1 })).toMatchObject({ ok: false, code: "invalid_input:amount" });
     expect(await count(refunds)).toBe(refundsBefore);
 
-    const first = await refundPayment({ paymentId: p!.id, amountCents: part, reason: "Flange trimmed short by agreement", idempotencyKey: "refund-key-0001" });
+    const first = await refundPayment({ paymentId: p!.id, amountCents: part, reason: "Flange trimmed short by agreement", idempotencyKey: "refund-key-0001", confirmAmountCents: part });
     expect(first).toMatchObject({ ok: true, data: { status: "partially_refunded" } });
-    const twice = await refundPayment({ paymentId: p!.id, amountCents: part, reason: "Flange trimmed short by agreement", idempotencyKey: "refund-key-0001" });
+    const twice = await refundPayment({ paymentId: p!.id, amountCents: part, reason: "Flange trimmed short by agreement", idempotencyKey: "refund-key-0001", confirmAmountCents: part });
     expect(twice).toMatchObject({ ok: false, code: "conflict:duplicate" });
     expect(await count(refunds)).toBe(refundsBefore + 1);
     const [after] = await db.select().from(payments).where(eq(payments.id, p!.id));
     expect(after!.refundedCents).toBe(part);
-    expect(await refundPayment({ paymentId: p!.id, amountCents: p!.amountCents - part + 1, reason: "rest and a cent", idempotencyKey: "refund-key-0002" })).toMatchObject({ ok: false, code: "invalid_input:amount" });
+    expect(await refundPayment({ paymentId: p!.id, amountCents: p!.amountCents - part + 1, reason: "rest and a cent", idempotencyKey: "refund-key-0002", confirmAmountCents: p!.amountCents - part + 1 })).toMatchObject({ ok: false, code: "invalid_input:amount" });
 
     res = await GET(new Request(`http://t/api/admin/reconciliation?${period}`));
     const findings = ((await res.json()) as { findings: { kind: string; paymentId: string | null; subject: string }[] }).findings.filter((f) => f.paymentId === p!.id);

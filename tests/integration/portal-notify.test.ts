@@ -6,6 +6,7 @@ import { startResendFake, type ResendFake } from "../../mocks/resend/server";
 import { resetEnvCache } from "../../lib/env";
 import { resetResendClient } from "../../lib/email/send";
 import { createTestDb, type TestDb } from "../helpers/test-db";
+import { formatDate } from "../../lib/dates";
 
 const dbRef = vi.hoisted(() => ({ db: null as unknown }));
 vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
@@ -63,7 +64,8 @@ describe("notify", () => {
     await n.notifyScheduled(so.id);
     const sm = await lastMail();
     expect(sm.subject).toBe(`${scheduled.reference} is scheduled`);
-    const fmt = (d: Date) => new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" }).format(d);
+    // Dates in e-mails are the plant's days, in the one format of lib/dates.ts.
+    const fmt = (d: Date) => formatDate(d);
     expect(norm(sm.text)).toContain(fmt(so.plannedStart!));
     expect(norm(sm.text)).toContain(fmt(so.plannedShip!));
 

@@ -2,6 +2,7 @@
 
 import { revalidatePath } from "next/cache";
 import { writeAudit } from "@/db/queries/audit";
+import { createNote } from "@/db/queries/reconciliation-notes";
 import { completeRefund, failRefund, getPaymentRow, getRefundByKey, insertPendingRefund, refundedOrPendingCents } from "@/db/queries/refunds";
 import { issueDocumentInTx } from "@/lib/documents/issue";
 import { notifyRefund } from "@/lib/email/notify";
@@ -10,7 +11,7 @@ import { PAYMENT_STATE_LABEL } from "@/lib/labels";
 import { formatCents } from "@/lib/money";
 import { createRefund } from "@/lib/payments/stripe";
 import { defineAction } from "@/lib/server/define-action";
-import { refundSchema } from "@/lib/validation/admin-accounts";
+import { findingNoteSchema, refundSchema } from "@/lib/validation/admin-accounts";
 
 const REFUNDABLE = new Set(["paid", "partially_refunded"]);
 
@@ -20,6 +21,7 @@ const REFUNDABLE = new Set(["paid", "partially_refunded"]);
  * (and the processor sees the same key, so it never refunds twice either).
  */
 export const refundPayment = defineAction({ access: "accounts:refund", input: refundSchema }, async (input, { user, db }) => {
+  if (input.confirmAmountCents !== input.amountCents) throw new AppError("invalid_input:confirmation", "Confirm the refund's amount first. Nothing was refunded.");
   if (await getRefundByKey(db, input.idempotencyKey)) throw new AppError("conflict:duplicate", "This refund was already submitted; it was not sent again.");
   const payment = await getPaymentRow(db, input.paymentId);
   if (!payment) throw new AppError("not_found:payment", "That payment was not found.");
@@ -75,8 +77,23 @@ export const refundPayment = defineAction({ access: "accounts:refund", input: re
     });
     return p;
   });
+  // The client hears of it; a failed e-mail does not undo the refund (the outbox shows it).
   await notifyRefund(refundId).catch((e: unknown) => console.error("refund e-mail failed", e));
   revalidatePath("/admin/accounts");
   revalidatePath(`/admin/accounts/payments/${payment.id}`);
   return { refundId, status: after.status };
+});
+
+/**
+ * A note on a reconciliation finding (what accounts found, what they did), optionally marking it
+ * resolved. The finding stays in the list, shown as resolved with its notes.
+ */
+export const noteFinding = defineAction({ access: "accounts:ledger", input: findingNoteSchema }, async (input, { user, db }) => {
+  const id = await db.transaction(async (tx) => {
+    const noteId = await createNote(tx, { findingKey: input.findingKey, note: input.note, isResolved: input.resolve, authorId: user.id });
+    await writeAudit(tx, { actorId: user.id, action: input.resolve ? "reconciliation.resolve" : "reconciliation.note", entityType: "finding", entityId: input.findingKey, orgId: null, after: { note: input.note } });
+    return noteId;
+  });
+  revalidatePath("/admin/accounts/reconciliation");
+  return { id };
 });

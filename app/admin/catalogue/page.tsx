@@ -39,6 +39,13 @@ export default async function CataloguePage() {
         <section className="space-y-2">
           <CardTitle>Materials</CardTitle>
           {materials.length === 0 ? <p className="text-sm text-ink-500">No materials yet.</p> : null}
+          <details className="rounded-md bg-paper-50 ring-1 ring-paper-200">
+            <summary className="cursor-pointer px-4 py-3 text-sm font-medium text-kiln-700">+ Add a material</summary>
+            <div className="border-t border-paper-200 p-4">
+              <p className="mb-3 text-sm text-ink-600">Starts from {materials[0] ? `${materials[0].params.name}'s figures` : "blank figures"}; give it its own key, name and figures, and say where the figures come from. It becomes version 1.</p>
+              <ParamsForm kind="material" idPrefix="m-new" initial={{ ...(materials[0]?.params ?? {}), key: "", name: "", notes: "", source: "", isActive: true }} />
+            </div>
+          </details>
           {materials.map((m) => (
             <details key={m.key} className="rounded-md bg-white ring-1 ring-paper-200">
               <summary className="flex cursor-pointer flex-wrap items-center gap-2 px-4 py-3 text-sm">
@@ -55,6 +62,13 @@ export default async function CataloguePage() {
         </section>
         <section className="space-y-2">
           <CardTitle>Printing cells</CardTitle>
+          <details className="rounded-md bg-paper-50 ring-1 ring-paper-200">
+            <summary className="cursor-pointer px-4 py-3 text-sm font-medium text-kiln-700">+ Add a printing cell</summary>
+            <div className="border-t border-paper-200 p-4">
+              <p className="mb-3 text-sm text-ink-600">Starts from {cells[0] ? `${cells[0].params.name}'s settings` : "blank settings"}; give it its own key, name, envelope and rates. It becomes version 1.</p>
+              <ParamsForm kind="cell" idPrefix="c-new" initial={{ ...(cells[0] ? cellFormValues(cells[0].params) : {}), key: "", name: "", isActive: true }} />
+            </div>
+          </details>
           {cells.map((c) => (
             <details key={c.key} className="rounded-md bg-white ring-1 ring-paper-200">
               <summary className="flex cursor-pointer flex-wrap items-center gap-2 px-4 py-3 text-sm">

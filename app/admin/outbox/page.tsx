@@ -6,6 +6,7 @@ import { listOutboxMessages } from "@/db/queries/outbox";
 import { EmptyState, PageHeader } from "@/components/ui/card";
 import { pagePermission } from "@/lib/auth/page-guard";
 import { UndeliveredEmails } from "./_components/undelivered";
+import { formatDateTime } from "@/lib/dates";
 
 export const metadata: Metadata = { title: "Outbox" };
 export const dynamic = "force-dynamic";
@@ -33,7 +34,7 @@ export default async function OutboxPage() {
             <tbody className="divide-y divide-paper-200">
               {rows.map((m) => (
                 <tr key={m.id} className="hover:bg-paper-50">
-                  <td className="whitespace-nowrap px-4 py-2 figures text-ink-500">{m.createdAt.toISOString().slice(0, 16).replace("T", " ")} UTC</td>
+                  <td className="whitespace-nowrap px-4 py-2 figures text-ink-500">{formatDateTime(m.createdAt)}</td>
                   <td className="px-4 py-2">{m.toAddresses.join(", ")}</td>
                   <td className="px-4 py-2">
                     <Link href={`/admin/outbox/${m.id}`} className="font-medium text-kiln-700 underline">

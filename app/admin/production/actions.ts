@@ -6,17 +6,19 @@ import { writeAudit } from "@/db/queries/audit";
 import { getCurrentCell } from "@/db/queries/admin-catalogue";
 import { getCurrentRateCard } from "@/db/queries/catalogue";
 import { attachInspectionReport, ensureBalancePayment, getOrderForProduction, listCellBlocks, saveSchedule, updateActuals } from "@/db/queries/orders";
-import { releaseCellBlocks } from "@/db/queries/schedule-blocks";
+import { releaseCellBlocks, trimCellBlocksAfter } from "@/db/queries/schedule-blocks";
 import { transitionStage } from "@/db/queries/stages";
+import { formatDateTime, fromPlantInput } from "@/lib/dates";
 import { issueDocumentInTx } from "@/lib/documents/issue";
 import { notifyBalanceDue, notifyScheduled, notifyShipped } from "@/lib/email/notify";
 import { AppError } from "@/lib/errors";
-import { label, roleMayMove } from "@/lib/orders/stages";
+import { isBackwardMove, label, roleMayMove } from "@/lib/orders/stages";
 import { findConflicts, jobDurations, planBlocks } from "@/lib/scheduling/blocks";
 import { anyRecord, defineAction, fieldErrorsByPath } from "@/lib/server/define-action";
 import { actualsSchema, isConfirmedMove, moveStageSchema, scheduleSchema } from "@/lib/validation/admin-production";
 
-const fmt = (d: Date) => d.toISOString().slice(0, 16).replace("T", " ") + " UTC";
+const fmt = (d: Date) => formatDateTime(d);
+const OFF_THE_CELL = new Set<string>(["shipped", "delivered", "closed", "cancelled"]);
 const num = (v: unknown) => (typeof v === "number" && Number.isFinite(v) ? v : 0);
 
 /** A hold or a cancel without its "are you sure" step says so plainly, and nothing changes. */
@@ -48,12 +50,13 @@ export const scheduleOrder = defineAction({ access: "production:schedule", input
     order.parts.map((p) => ({ printHours: num(p.estimate!.printHours), dwellHours: num(p.estimate!.dwellHours), coolingHours: num(p.estimate!.coolingHours), machiningHours: num(p.estimate!.machiningHours), quantity: p.quantity })),
     card.params.finishingDays + card.params.inspectionDays + card.params.packingDays,
   );
-  const start = new Date(input.start.endsWith("Z") ? input.start : `${input.start}Z`);
+  const start = input.start.endsWith("Z") ? new Date(input.start) : fromPlantInput(input.start)!;
   const blocks = planBlocks(start, durations, cell.params.calendar);
   const last = blocks.at(-1)!;
 
   const result = await db.transaction(async (tx) => {
-    const existing = await listCellBlocks(tx, input.cellKey, blocks[0]!.startsAt, last.endsAt);
+    // A job that has shipped (or was cancelled) no longer holds the cell, whatever was planned.
+    const existing = (await listCellBlocks(tx, input.cellKey, blocks[0]!.startsAt, last.endsAt)).filter((e) => !OFF_THE_CELL.has(e.stage));
     const conflicts = findConflicts(input.orderId, blocks, existing);
     if (conflicts.length) {
       const c = conflicts[0]!;
@@ -92,6 +95,10 @@ export const moveStage = defineAction({ access: "production:record", input: move
   if (!order) throw new AppError("not_found:order", "That order was not found.");
   const from = order.request.stage;
   if (!roleMayMove(user.role, from, input.to)) throw new AppError("forbidden:stage", `Your role does not move orders from ${label(from)} to ${label(input.to)}.`);
+  if (isBackwardMove(from, input.to)) {
+    if (input.confirm !== input.to) throw new AppError("invalid_input:confirmation", `Moving back from ${label(from)} to ${label(input.to)} needs confirming first. Nothing was changed.`);
+    if ((input.note ?? "").length < 3) throw new AppError("invalid_input", "Say why the order goes back; the client sees it on their timeline.", { note: ["Say why the order goes back; the client sees it on their timeline."] });
+  }
   if (input.to === "scheduled" && from !== "on_hold") throw new AppError("conflict:stage", "Schedule the order on a cell's calendar; that moves it to scheduled.");
   if (input.to === "shipped" && (!order.order.carrier || !order.order.trackingNumber)) {
     throw new AppError("conflict:shipping", "Record the carrier and tracking number before marking the order shipped.");
@@ -103,6 +110,9 @@ export const moveStage = defineAction({ access: "production:record", input: move
       if (released) await writeAudit(tx, { actorId: user.id, action: "order.release_cell", entityType: "order", entityId: order.order.id, orgId: order.order.orgId, before: { cellKey: order.order.cellKey, blocks: released }, after: { blocks: 0 } });
     }
     if (input.to === "shipped") {
+      // The job has left the cell: its remaining planned time is free for the next booking.
+      const trimmed = await trimCellBlocksAfter(tx, order.order.id, new Date());
+      if (trimmed) await writeAudit(tx, { actorId: user.id, action: "order.release_cell", entityType: "order", entityId: order.order.id, orgId: order.order.orgId, after: { trimmedBlocks: trimmed, reason: "shipped" } });
       const balanceId = await ensureBalancePayment(tx, order.order, user.id);
       // The packing list and the balance invoice are numbered with the shipment itself.
       await issueDocumentInTx(tx, { kind: "packing_list", sourceId: order.order.id, actorId: user.id });

@@ -15,6 +15,7 @@ import { AppError } from "@/lib/errors";
 import { checkLines, quoteTotals, validUntil } from "@/lib/quoting/lines";
 import { defineAction } from "@/lib/server/define-action";
 import { saveQuoteSchema, staffMessageSchema } from "@/lib/validation/admin-quotes";
+import { fieldErrorsByRow } from "@/lib/validation/form";
 import { z } from "zod";
 
 const QUOTABLE = new Set(["submitted", "quoted"]);
@@ -24,7 +25,14 @@ const QUOTABLE = new Set(["submitted", "quoted"]);
  * the earlier versions become superseded, the request moves to quoted and the client is e-mailed.
  * Issuing is refused when a part's analysis is newer than the lines (a new file revision).
  */
-export const saveQuote = defineAction({ access: "quote:manage", input: saveQuoteSchema }, async (input, { user, db }) => {
+/** A bad line is named ("Line 2: …") and its errors kept under "lines.1", so the editor marks that row. */
+function lineRefusal(error: z.ZodError): AppError {
+  const first = error.issues[0];
+  const where = first && first.path[0] === "lines" && typeof first.path[1] === "number" ? `Line ${first.path[1] + 1}: ` : "";
+  return new AppError("invalid_input", `${where}${first?.message ?? "Check the highlighted fields."}`, fieldErrorsByRow(error));
+}
+
+export const saveQuote = defineAction({ access: "quote:manage", input: saveQuoteSchema, invalid: lineRefusal }, async (input, { user, db }) => {
     const sales = await getRequestForSales(db, input.requestId);
     if (!sales) throw new AppError("not_found:request", "That request was not found.");
     if (!QUOTABLE.has(sales.request.stage)) throw new AppError("conflict:stage", `The request is at ${label(sales.request.stage)}; it can not be quoted now.`);
@@ -34,7 +42,8 @@ export const saveQuote = defineAction({ access: "quote:manage", input: saveQuote
     if (problems.length) {
       const fieldErrors: Record<string, string[]> = {};
       for (const p of problems) (fieldErrors[p.index < 0 ? "lines" : `lines.${p.index}`] ??= []).push(p.message);
-      throw new AppError("invalid_input", problems[0]!.message, fieldErrors);
+      const first = problems[0]!;
+      throw new AppError("invalid_input", first.index < 0 ? first.message : `Line ${first.index + 1}: ${first.message}`, fieldErrors);
     }
     const totals = quoteTotals(input.lines, { marginBp: input.marginBp, taxBp: input.taxBp, depositBp: input.depositBp });
 

@@ -14,8 +14,9 @@ import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
 import { defineAction } from "@/lib/server/define-action";
 import { inviteStaffSchema, resetTwoFactorSchema, updateStaffSchema } from "@/lib/validation/admin-staff";
+import { formatDate } from "@/lib/dates";
 
-const dayText = (d: Date) => new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" }).format(d);
+const dayText = (d: Date) => formatDate(d);
 
 /**
  * Invite a staff member: the account is made with the role and no password, and the e-mail

@@ -61,7 +61,7 @@ export async function loadDraft(db: Db, req: Request, unitsPref: "mm" | "in"): P
       fileName: r.revision?.fileName ?? null,
       revision: r.revision?.revision ?? null,
       analysisId: r.analysis?.id ?? null,
-      error: null,
+      error: r.part.fileProblem ?? null,
     };
   }
   return { values, files };

@@ -99,7 +99,12 @@ export function PartCard({
       ) : null}
       {file.analysisId ? <AnalysisStatus analysisId={file.analysisId} onDone={adoptGuess} /> : null}
 
-      {result ? (
+      {result && (result as { status?: string }).status === "needs-review" ? (
+        <div className="rounded border-l-4 border-amber-400 bg-amber-50 px-3 py-2 text-sm text-amber-900" data-testid="part-summary">
+          <Badge tone="warn" className="mr-2">Engineer&rsquo;s review</Badge>
+          {formatSize(result.bboxMm, units)} · {result.fitsAny ? `fits ${result.fits.filter((f) => f.fits).map((f) => f.cellName).join(", ")}` : "fits no cell in one piece"} · our engineer prices this part by hand; no automatic price is given.
+        </div>
+      ) : result ? (
         <div className="rounded bg-tide-50 px-3 py-2 text-sm text-tide-700" data-testid="part-summary">
           <Badge tone="info" className="mr-2">Automatic estimate</Badge>
           {formatSize(result.bboxMm, units)} · {result.fitsAny ? `fits ${result.fits.filter((f) => f.fits).map((f) => f.cellName).join(", ")}` : "fits no cell in one piece"} ·{" "}
@@ -111,7 +116,11 @@ export function PartCard({
 
       <fieldset className="space-y-2">
         <legend className="text-sm font-medium text-ink-700">Units of the file</legend>
-        {result?.unitsGuessed ? <p className="text-xs text-ink-500">Our guess: {result.units === "in" ? "inches" : "millimetres"}. {result.unitsReason}</p> : null}
+        {unitsConfirmed ? (
+          <p className="text-xs text-tide-700">Units confirmed: {units === "in" ? "inches" : "millimetres"}.</p>
+        ) : result?.unitsGuessed ? (
+          <p className="text-xs text-ink-500">Our guess: {result.units === "in" ? "inches" : "millimetres"}. {result.unitsReason}</p>
+        ) : null}
         <div className="flex flex-wrap items-center gap-2">
           {(["mm", "in"] as const).map((u) => (
             <button

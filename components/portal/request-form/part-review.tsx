@@ -1,6 +1,8 @@
 "use client";
 
+import { useState } from "react";
 import { LazyPartViewer } from "@/components/part-viewer";
+import { Button } from "@/components/ui/button";
 import { Card, CardTitle } from "@/components/ui/card";
 import type { EstimateResult } from "@/lib/estimating/types";
 import type { UnitsPref } from "@/lib/units";
@@ -16,6 +18,7 @@ export function PartReview({
   displayUnits,
   cells,
   cureTempC,
+  isPreviewOnDemand = false,
 }: {
   title: string;
   revisionId: string;
@@ -24,20 +27,31 @@ export function PartReview({
   displayUnits: UnitsPref;
   cells: { key: string; name: string; envelopeMm: { x: number; y: number; z: number } }[];
   cureTempC: number | null;
+  /** With several parts on one page, each 3D preview loads only when asked for (each is a WebGL scene and a mesh download). */
+  isPreviewOnDemand?: boolean;
 }) {
   const cell = cells.find((c) => c.key === result.cell) ?? null;
+  const [showPreview, setShowPreview] = useState(!isPreviewOnDemand);
   return (
     <Card className="space-y-5" data-testid="part-review">
       <CardTitle>{title}</CardTitle>
-      <LazyPartViewer
-        revisionId={revisionId}
-        fileUnits={fileUnits}
-        displayUnits={displayUnits}
-        orientation={result.orientation}
-        envelopeMm={cell?.envelopeMm ?? null}
-        cellName={cell?.name ?? null}
-        allowanceMm={result.allowanceMm}
-      />
+      {showPreview ? (
+        <LazyPartViewer
+          revisionId={revisionId}
+          fileUnits={fileUnits}
+          displayUnits={displayUnits}
+          orientation={result.orientation}
+          envelopeMm={cell?.envelopeMm ?? null}
+          cellName={cell?.name ?? null}
+          allowanceMm={result.allowanceMm}
+        />
+      ) : (
+        <div className="flex h-24 items-center justify-center rounded bg-paper-50 ring-1 ring-paper-200">
+          <Button type="button" variant="secondary" onClick={() => setShowPreview(true)}>
+            Show the 3D preview{cell ? ` on ${cell.name}` : ""}
+          </Button>
+        </div>
+      )}
       <section aria-label="Layer times" className="space-y-2">
         <h4 className="text-sm font-semibold text-ink-700">Layer times (automatic estimate)</h4>
         <LayerChart layerChart={result.layerChart} minLayerTimeS={result.material.minLayerTimeS} maxLayerTimeS={result.material.maxLayerTimeS} units={displayUnits} />

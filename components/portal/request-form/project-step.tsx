@@ -2,7 +2,8 @@
 
 import { useFormContext, useWatch } from "react-hook-form";
 import { Field, Input, Select, Textarea } from "@/components/ui/input";
-import type { DraftInput } from "@/lib/validation/request";
+import { plantToday } from "@/lib/dates";
+import { isPastDay, type DraftInput } from "@/lib/validation/request";
 
 type Errors = Record<string, { message?: string } | undefined>;
 
@@ -11,6 +12,9 @@ export function ProjectStep() {
   const { register, formState, control } = useFormContext<DraftInput>();
   const e = (formState.errors.project ?? {}) as Errors;
   const cure = useWatch({ control, name: "project.cureProcess" });
+  const neededBy = useWatch({ control, name: "project.neededBy" });
+  const today = plantToday();
+  const isPast = typeof neededBy === "string" && /^\d{4}-\d{2}-\d{2}$/.test(neededBy) && isPastDay(neededBy);
   return (
     <div className="grid gap-5 sm:grid-cols-2">
       <div className="sm:col-span-2">
@@ -18,8 +22,13 @@ export function ProjectStep() {
           <Input id="projectName" {...register("project.projectName")} aria-invalid={Boolean(e.projectName)} placeholder="e.g. Wing rib layup tool" />
         </Field>
       </div>
-      <Field label="Needed by" htmlFor="neededBy" error={e.neededBy?.message} hint="The date the tool must be at your site.">
-        <Input id="neededBy" type="date" {...register("project.neededBy")} aria-invalid={Boolean(e.neededBy)} />
+      <Field
+        label="Needed by"
+        htmlFor="neededBy"
+        error={e.neededBy?.message ?? (isPast ? "That date has passed; pick a date from today on." : undefined)}
+        hint="The date the tool must be at your site."
+      >
+        <Input id="neededBy" type="date" min={today} {...register("project.neededBy")} aria-invalid={Boolean(e.neededBy) || isPast} />
       </Field>
       <Field label="Cure process" htmlFor="cureProcess" error={e.cureProcess?.message}>
         <Select id="cureProcess" {...register("project.cureProcess")}>

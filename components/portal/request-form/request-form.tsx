@@ -8,13 +8,16 @@ import { attachPartFile, saveDraft, submitRequest } from "@/app/(portal)/portal/
 import { Button } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/card";
 import { FormMessage } from "@/components/ui/input";
+import { exportHint } from "@/lib/analysis/export-hints";
+import { formatCents } from "@/lib/money";
 import { fToC } from "@/lib/units";
 import { draftSchema, type DraftInput } from "@/lib/validation/request";
-import { useAnalysis } from "./analysis-status";
+import { useAnalyses, useAnalysis } from "./analysis-status";
 import { PartCard } from "./part-card";
 import { PartReview } from "./part-review";
 import { ProjectStep } from "./project-step";
 import { emptyFileState, type CatalogueForForm, type PartFileState } from "./types";
+import { formatTime, zoneLabel } from "@/lib/dates";
 
 const STEPS = ["Project", "Parts", "Review & submit"] as const;
 
@@ -48,6 +51,8 @@ export function RequestForm({ initial, initialFiles, reference: initialRef, cata
   const [formError, setFormError] = useState<string | null>(null);
   const [partErrors, setPartErrors] = useState<Record<number, string>>({});
   const [submitting, setSubmitting] = useState(false);
+  /** Why Submit is off on the review step (a part with no file, a failed or running analysis), or null. */
+  const [notReady, setNotReady] = useState<string | null>(null);
   const inflight = useRef<Promise<string | null>>(Promise.resolve(initial.requestId ?? null));
 
   const setFile = useCallback((partId: string, patch: Partial<PartFileState>) => setFiles((f) => ({ ...f, [partId]: { ...(f[partId] ?? emptyFileState), ...patch } })), []);
@@ -129,9 +134,34 @@ export function RequestForm({ initial, initialFiles, reference: initialRef, cata
     setFile(partId, { revisionId: res.data.revisionId, fileName: res.data.fileName, revision: res.data.revision, analysisId: res.data.analysisId, error: null });
   }
 
-  async function next() {
+  /** Why this step can not be left yet, or null: the step button never does nothing silently. */
+  async function blockedBy(): Promise<string | null> {
     const ok = step === 0 ? await trigger("project") : await trigger("parts");
-    if (!ok) return;
+    if (!ok) return "Some fields on this step need attention; they are marked in red.";
+    if (step === 1) {
+      const ps = getValues("parts");
+      if (ps.length === 0) return "Add at least one part, with its model file.";
+      let problem: string | null = null;
+      ps.forEach((p, i) => {
+        if (files[p.id]?.revisionId && !p.unitsConfirmed) {
+          setError(`parts.${i}.unitsConfirmed`, { message: "Confirm the file's units: choose millimetres or inches." });
+          problem ??= `Confirm the units of “${p.name}” before you continue.`;
+        }
+      });
+      if (problem) return problem;
+    }
+    return null;
+  }
+
+  async function next() {
+    const problem = await blockedBy();
+    if (problem) {
+      setFormError(problem);
+      // Bring the first marked field into view, so the reason is where the eye goes.
+      requestAnimationFrame(() => document.querySelector<HTMLElement>('[aria-invalid="true"], [data-invalid="true"]')?.focus());
+      return;
+    }
+    setFormError(null);
     await flush();
     setStep((s) => Math.min(s + 1, STEPS.length - 1));
     window.scrollTo({ top: 0 });
@@ -188,7 +218,7 @@ export function RequestForm({ initial, initialFiles, reference: initialRef, cata
           </ol>
           <p className="text-xs text-ink-500" role="status" aria-live="polite" data-testid="save-state">
             {reference ? <span className="mr-2 font-mono text-ink-700">{reference}</span> : null}
-            {save.kind === "saving" ? "Saving draft…" : save.kind === "saved" ? `Draft saved ${save.at.toLocaleTimeString("en-GB", { hour: "2-digit", minute: "2-digit" })}` : save.kind === "error" ? save.message : reference ? "Draft" : "Not saved yet"}
+            {save.kind === "saving" ? "Saving draft…" : save.kind === "saved" ? `Draft saved ${formatTime(save.at)} ${zoneLabel(save.at)}` : save.kind === "error" ? save.message : reference ? "Draft" : "Not saved yet"}
           </p>
         </div>
 
@@ -219,7 +249,7 @@ export function RequestForm({ initial, initialFiles, reference: initialRef, cata
 
         <div hidden={step !== 2} className="space-y-4">
           {step === 2 ? (
-            <ReviewList catalogue={catalogue} files={files} cureTempC={cureC} />
+            <ReviewList catalogue={catalogue} files={files} cureTempC={cureC} onReadiness={setNotReady} />
           ) : null}
         </div>
 
@@ -235,33 +265,65 @@ export function RequestForm({ initial, initialFiles, reference: initialRef, cata
               Continue
             </Button>
           ) : (
-            <Button type="submit" disabled={submitting}>
+            <Button type="submit" disabled={submitting || notReady !== null} aria-describedby={notReady ? "submit-blocked" : undefined}>
               {submitting ? "Submitting…" : "Submit to the bureau"}
             </Button>
           )}
-          <span className="text-xs text-ink-500">Your draft is kept on our server; you can leave and come back.</span>
+          {step === STEPS.length - 1 && notReady ? (
+            <span id="submit-blocked" className="text-xs font-medium text-signal-warn">{notReady}</span>
+          ) : (
+            <span className="text-xs text-ink-500">Your draft is kept on our server; you can leave and come back.</span>
+          )}
         </div>
       </form>
     </FormProvider>
   );
 }
 
-function ReviewList({ catalogue, files, cureTempC }: { catalogue: CatalogueForForm; files: Record<string, PartFileState>; cureTempC: number | null }) {
+function ReviewList({ catalogue, files, cureTempC, onReadiness }: { catalogue: CatalogueForForm; files: Record<string, PartFileState>; cureTempC: number | null; onReadiness: (why: string | null) => void }) {
   const parts = useWatch<DraftInput, "parts">({ name: "parts" });
+  const analyses = useAnalyses(parts.map((p) => files[p.id]?.analysisId ?? null));
+  const states = parts.map((p, i) => {
+    const f = files[p.id];
+    const a = analyses[i]?.data;
+    if (!f?.revisionId) return `“${p.name}” has no usable file yet.`;
+    if (a?.status === "failed") return `“${p.name}”'s file could not be analysed; upload a corrected file.`;
+    if (a?.status !== "done" || !a.result) return `“${p.name}” is still being analysed.`;
+    return null;
+  });
+  const why = parts.length === 0 ? "Add at least one part before submitting." : (states.find((s) => s !== null) ?? null);
+  useEffect(() => onReadiness(why), [why, onReadiness]);
   if (parts.length === 0) return <EmptyState title="Add at least one part before submitting" />;
+  const results = analyses.map((q) => (q.data?.status === "done" ? q.data.result : null));
+  const isComplete = results.every((r) => r !== null);
+  // A part sent to the bureau's engineer has no price yet: the request has no total until it does.
+  const isWithheld = results.some((r) => r?.status === "needs-review" && (r as { priceWithheld?: boolean }).priceWithheld !== false);
+  const totalCents = results.reduce((sum, r) => sum + (r?.totalCents ?? 0), 0);
   return (
     <>
       {parts.map((p) => (
-        <ReviewItem key={p.id} part={p} file={files[p.id] ?? emptyFileState} catalogue={catalogue} cureTempC={cureTempC} />
+        <ReviewItem key={p.id} part={p} file={files[p.id] ?? emptyFileState} catalogue={catalogue} cureTempC={cureTempC} isPreviewOnDemand={parts.length > 1} />
       ))}
+      {parts.length > 1 ? (
+        <div className="flex flex-wrap items-baseline justify-between gap-2 rounded bg-ink-800 px-4 py-3 text-white" data-testid="request-total">
+          <span className="text-sm">Automatic estimate for the whole request ({parts.length} parts)</span>
+          <span className="figures text-lg font-semibold">{isWithheld ? "after the engineer's review" : isComplete ? formatCents(totalCents) : "waiting for every part"}</span>
+        </div>
+      ) : null}
     </>
   );
 }
 
-function ReviewItem({ part, file, catalogue, cureTempC }: { part: DraftInput["parts"][number]; file: PartFileState; catalogue: CatalogueForForm; cureTempC: number | null }) {
+function ReviewItem({ part, file, catalogue, cureTempC, isPreviewOnDemand }: { part: DraftInput["parts"][number]; file: PartFileState; catalogue: CatalogueForForm; cureTempC: number | null; isPreviewOnDemand: boolean }) {
   const a = useAnalysis(file.analysisId);
-  if (!file.revisionId) return <EmptyState title={`${part.name}: no file yet`}>Go back to Parts and upload its model.</EmptyState>;
-  if (a.data?.status === "failed") return <EmptyState title={`${part.name}: the file could not be analysed`}>{a.data.error?.message}</EmptyState>;
+  if (!file.revisionId) {
+    return file.error ? (
+      <EmptyState title={`${part.name}: the file was refused`}>{file.error} Go back to Parts and upload a corrected file.</EmptyState>
+    ) : (
+      <EmptyState title={`${part.name}: no file yet`}>Go back to Parts and upload its model.</EmptyState>
+    );
+  }
+  if (a.data?.status === "failed") return <EmptyState title={`${part.name}: the file could not be analysed`}>{a.data.error?.message} {exportHint(a.data.error?.code)}</EmptyState>;
   if (!a.data?.result) return <EmptyState title={`${part.name}: analysing…`}>The estimate appears here when the analysis finishes.</EmptyState>;
   return (
     <PartReview
@@ -272,6 +334,7 @@ function ReviewItem({ part, file, catalogue, cureTempC }: { part: DraftInput["pa
       displayUnits={catalogue.unitsPref}
       cells={catalogue.cells}
       cureTempC={cureTempC}
+      isPreviewOnDemand={isPreviewOnDemand}
     />
   );
 }

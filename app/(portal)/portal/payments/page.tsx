@@ -7,11 +7,12 @@ import { EmptyState, PageHeader } from "@/components/ui/card";
 import { pagePermission } from "@/lib/auth/page-guard";
 import { PAYMENT_KIND_LABEL } from "@/lib/labels";
 import { formatCents } from "@/lib/money";
+import { formatDate } from "@/lib/dates";
 
 export const metadata: Metadata = { title: "Payments" };
 export const dynamic = "force-dynamic";
 
-const day = (d: Date | null) => (d ? d.toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" }) : "—");
+const day = (d: Date | null) => formatDate(d);
 
 export default async function PaymentsPage() {
   const user = await pagePermission("payment:pay", "/portal/payments");

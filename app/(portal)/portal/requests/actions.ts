@@ -12,6 +12,7 @@ import { transitionStage } from "@/db/queries/stages";
 import { analysisOptionsFor, sameOptions } from "@/lib/analysis/options";
 import { MAX_MODEL_BYTES, startAnalysis } from "@/lib/analysis/run";
 import { currentRequestId } from "@/lib/observability/request-id";
+import { exportHint } from "@/lib/analysis/export-hints";
 import { checkModelUpload, SNIFF_HEAD_BYTES } from "@/lib/analysis/sniff";
 import { requirePermission, assertCanSee, type CurrentUser } from "@/lib/auth/guard";
 import { notifyRequestReceived } from "@/lib/email/notify";
@@ -153,7 +154,12 @@ export async function attachPartFile(input: { requestId: string; partId: string;
     const sizeBytes = storedBytes ?? upload.sizeBytes;
     if (sizeBytes > MAX_MODEL_BYTES) throw new AppError("invalid_input:file", `“${upload.fileName}” is larger than ${MAX_MODEL_BYTES / 1024 / 1024} MB.`);
     const check = checkModelUpload(head, upload.fileName, sizeBytes);
-    if (!check.ok) throw new AppError("invalid_input:file", check.message);
+    if (!check.ok) {
+      // Kept on the part, so the message and its export hint survive a reload.
+      const message = `${check.message} ${exportHint(upload.fileName)}`;
+      await updatePart(db, req.id, part.id, { fileProblem: message });
+      throw new AppError("invalid_input:file", message);
+    }
     const rev = await db.transaction(async (tx) => {
       const r = await addFileRevision(tx, {
         partId: part.id,
@@ -168,7 +174,7 @@ export async function attachPartFile(input: { requestId: string; partId: string;
       // A new file needs a fresh guess at its units (a submitted request keeps the confirmed ones).
       if (req.stage === "draft") await updatePart(tx, req.id, part.id, { unitsConfirmed: false });
       // Body choices point into the old file's bodies.
-      await updatePart(tx, req.id, part.id, { selectedBodies: null });
+      await updatePart(tx, req.id, part.id, { selectedBodies: null, fileProblem: null });
       await markQuotesStale(tx, req.id);
       return r;
     });

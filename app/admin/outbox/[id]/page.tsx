@@ -16,7 +16,10 @@ export default async function OutboxMessagePage({ params }: { params: Promise<{ 
       <PageHeader title={message.subject} subtitle={`From ${message.fromAddress} to ${message.toAddresses.join(", ")}`} />
       <Card className="p-0">
         {/* The message is shown in a sandboxed frame: no scripts, no access to this page. */}
-        <iframe title="Rendered e-mail" sandbox="" srcDoc={message.html ?? `<pre>${message.text ?? ""}</pre>`} className="h-[70vh] w-full rounded-md" />
+        {/* E-mails are laid out 600 px wide: on a phone the preview scrolls inside its own frame, never clipped. */}
+        <div className="overflow-x-auto rounded-md">
+          <iframe title="Rendered e-mail" sandbox="" srcDoc={message.html ?? `<pre>${message.text ?? ""}</pre>`} className="h-[70vh] w-full min-w-[640px] rounded-md" />
+        </div>
       </Card>
     </>
   );

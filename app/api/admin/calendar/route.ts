@@ -1,5 +1,6 @@
 import { getCurrentCell } from "@/db/queries/admin-catalogue";
 import { listCellBlocks } from "@/db/queries/orders";
+import { addPlantDays, fromPlantInput, plantToday } from "@/lib/dates";
 import { AppError } from "@/lib/errors";
 import { defineRoute } from "@/lib/server/define-route";
 import { calendarQuerySchema } from "@/lib/validation/admin-production";
@@ -10,8 +11,10 @@ export const dynamic = "force-dynamic";
 export const GET = defineRoute({ access: "production:board", query: calendarQuerySchema }, async ({ query: q, db }) => {
   const cell = await getCurrentCell(db, q.cell);
   if (!cell) throw new AppError("not_found:cell", "That printing cell was not found.");
-  const from = q.from ? new Date(`${q.from}T00:00:00Z`) : new Date(new Date().toISOString().slice(0, 10) + "T00:00:00Z");
-  const to = new Date(from.getTime() + q.days * 86_400_000);
+  // The window runs from the plant's midnight of `from` (lib/dates.ts) for `days` plant days.
+  const day = q.from ?? plantToday();
+  const from = fromPlantInput(`${day}T00:00`)!;
+  const to = fromPlantInput(`${addPlantDays(day, q.days)}T00:00`)!;
   const blocks = await listCellBlocks(db, q.cell, from, to);
   return { cell: { key: cell.key, name: cell.params.name, calendar: cell.params.calendar }, from, to, blocks };
 });

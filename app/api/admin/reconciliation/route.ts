@@ -1,6 +1,8 @@
 import { ledgerForPeriod, listRefundsForPayments } from "@/db/queries/ledger";
+import { listNotesFor } from "@/db/queries/reconciliation-notes";
 import { AppError } from "@/lib/errors";
 import { listProcessorRecords } from "@/lib/payments/stripe";
+import { findingKey } from "@/lib/reconciliation/finding-key";
 import { fromProcessor } from "@/lib/reconciliation/from-processor";
 import { reconcile, summarise } from "@/lib/reconciliation/match";
 import { defineRoute } from "@/lib/server/define-route";
@@ -26,9 +28,21 @@ export const GET = defineRoute({ access: "accounts:ledger", query: periodSchema 
   }
   const findings = reconcile({ payments: ledger.payments, refunds, ...processor });
   const refs = new Map(ledger.payments.map((p) => [p.id, { reference: p.reference, firmName: p.firmName, paymentKind: p.kind }]));
+  const keys = findings.map(findingKey);
+  const notes = await listNotesFor(db, [...new Set(keys)]);
   return {
     period,
     summary: summarise(findings),
-    findings: findings.map((f) => ({ ...f, ...(f.paymentId ? (refs.get(f.paymentId) ?? {}) : {}) })),
+    findings: findings.map((f, i) => {
+      const mine = notes.filter((n) => n.findingKey === keys[i]);
+      return {
+        ...f,
+        ...(f.paymentId ? (refs.get(f.paymentId) ?? {}) : {}),
+        findingKey: keys[i],
+        // The last note decides: a note without "resolved" after a resolution reopens it.
+        isResolved: f.kind !== "matched" && Boolean(mine.at(-1)?.isResolved),
+        notes: mine.map((n) => ({ note: n.note, isResolved: n.isResolved, at: n.createdAt.toISOString(), author: n.author })),
+      };
+    }),
   };
 });

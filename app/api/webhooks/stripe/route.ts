@@ -1,6 +1,7 @@
 import { NextResponse } from "next/server";
 import { getDb } from "@/db/client";
 import { notifyDepositReceived } from "@/lib/email/notify";
+import { recordProcessorFee } from "@/lib/payments/fees";
 import { constructWebhookEvent, WebhookSignatureError } from "@/lib/payments/stripe";
 import { handleStripeEvent } from "@/lib/payments/webhooks";
 
@@ -27,6 +28,9 @@ export async function POST(req: Request) {
     const result = await handleStripeEvent(getDb(), event);
     console.info(`stripe webhook ${event.id} ${event.type}: ${result.outcome}`);
     if (result.paidPaymentId) {
+      // The session carries no fee: ask the processor for the charge and its fee, so the ledger
+      // agrees with it. A failure here leaves the fee unrecorded (reconciliation shows it).
+      await recordProcessorFee(getDb(), result.paidPaymentId).catch((e: unknown) => console.error("recording the processing fee failed", e));
       await notifyDepositReceived(result.paidPaymentId).catch((e: unknown) => console.error("payment e-mail failed", e));
     }
     return NextResponse.json({ received: true, outcome: result.outcome });

@@ -7,11 +7,12 @@ import { assertCanSee } from "@/lib/auth/guard";
 import { orPageError, pageUser } from "@/lib/auth/page-guard";
 import { PAYMENT_KIND_LABEL } from "@/lib/labels";
 import { formatCents } from "@/lib/money";
+import { formatDate } from "@/lib/dates";
 
 export const metadata: Metadata = { title: "Receipt" };
 export const dynamic = "force-dynamic";
 
-const day = (d: Date | null) => (d ? d.toLocaleDateString("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" }) : "—");
+const day = (d: Date | null) => formatDate(d);
 
 /** Our receipt for one payment, under the bureau's own receipt number. */
 export default async function ReceiptPage({ params }: { params: Promise<{ id: string }> }) {

@@ -21,8 +21,9 @@ import { AppError, toActionError, type ActionResult } from "@/lib/errors";
 import { openCheckout, type CheckoutResult } from "@/lib/payments/checkout";
 import { splitDeposit } from "@/lib/payments/deposit";
 import { acceptQuoteSchema, messageSchema, type AcceptQuoteInput } from "@/lib/validation/request";
+import { formatDate } from "@/lib/dates";
 
-const dateText = (d: Date) => d.toISOString().slice(0, 10);
+const dateText = (d: Date) => formatDate(d);
 
 /**
  * Accept an issued quote with a PO number and the terms: the order is made and the deposit's

@@ -35,12 +35,13 @@ import { documentUrl } from "@/lib/documents/links";
 import type { EstimateResult } from "@/lib/estimating/types";
 import { CURE_LABEL, DOCUMENT_KIND_LABEL } from "@/lib/labels";
 import { formatCents } from "@/lib/money";
-import { formatTemp } from "@/lib/units";
+import { formatTempBoth } from "@/lib/units";
+import { formatDay } from "@/lib/dates";
 
 export const metadata: Metadata = { title: "Request" };
 export const dynamic = "force-dynamic";
 
-const day = (d: Date | null | undefined) => (d ? d.toLocaleDateString("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" }) : "—");
+
 const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null);
 
 export default async function RequestPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
@@ -103,7 +104,7 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
             </span>
             {req.isControlled ? <Badge tone="warn">Controlled data</Badge> : null}
             <span>
-              {CURE_LABEL[req.cureProcess]}{req.cureTempC !== null ? ` at ${formatTemp(req.cureTempC, units)}` : ""} · needed by {day(req.neededBy)}
+              {CURE_LABEL[req.cureProcess]}{req.cureTempC !== null ? ` at ${formatTempBoth(req.cureTempC, units)}` : ""} · needed by {formatDay(req.neededBy)}
             </span>
           </span>
         }
@@ -172,6 +173,7 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
                     displayUnits={units}
                     cells={catalogue.cells}
                     cureTempC={req.cureTempC}
+                    isPreviewOnDemand={parts.length > 1}
                   />
                 ) : (
                   <Card key={part.id}>

@@ -13,8 +13,9 @@ import { estimateTotals } from "@/db/queries/reports";
 import { STAGES } from "@/db/schema/common";
 import { pagePermission } from "@/lib/auth/page-guard";
 import { hasPermission } from "@/lib/auth/policy";
+import { nextPlantMonday, toPlantInput } from "@/lib/dates";
 import { formatCents } from "@/lib/money";
-import { checkTransition, roleMayMove } from "@/lib/orders/stages";
+import { checkTransition, isBackwardMove, orderMoves, roleMayMove } from "@/lib/orders/stages";
 
 export const metadata: Metadata = { title: "Order" };
 export const dynamic = "force-dynamic";
@@ -28,15 +29,14 @@ export default async function ProductionOrderPage({ params }: { params: Promise<
   const cells = await listCurrentCells(db);
   const stage = o.request.stage;
   const est = estimateTotals(o.parts);
-  const options = STAGES.filter((s) => s !== "scheduled" || stage === "on_hold")
-    .map((s) => ({ stage: s, ...checkTransition(stage, s, o.request.heldFromStage) }))
-    .filter((x) => x.ok && roleMayMove(user.role, stage, x.stage));
+  const options = orderMoves(
+    stage,
+    STAGES.filter((s) => s !== "scheduled" || stage === "on_hold")
+      .map((s) => ({ stage: s, ...checkTransition(stage, s, o.request.heldFromStage), isBack: isBackwardMove(stage, s) }))
+      .filter((x) => x.ok && roleMayMove(user.role, stage, x.stage)),
+  );
   const defaultCell = o.order.cellKey ?? o.parts.map((p) => (p.estimate as { cell?: string } | null)?.cell).find(Boolean) ?? cells[0]?.key ?? "";
-  const nextMonday = (() => {
-    const d = new Date();
-    d.setUTCDate(d.getUTCDate() + ((8 - d.getUTCDay()) % 7 || 7));
-    return `${d.toISOString().slice(0, 10)}T06:00`;
-  })();
+  const nextMonday = toPlantInput(nextPlantMonday(new Date()));
   const canSchedule = hasPermission(user, "production:schedule") && (stage === "deposit_paid" || stage === "scheduled");
   const canRecord = hasPermission(user, "production:record");
   const moveContext = {
@@ -69,7 +69,7 @@ export default async function ProductionOrderPage({ params }: { params: Promise<
             ) : null}
             <div className="mt-4">
               {canSchedule ? (
-                <ScheduleForm orderId={id} cells={cells.map((c) => ({ key: c.key, name: c.params.name }))} defaultCell={defaultCell} defaultStart={o.order.plannedStart ? o.order.plannedStart.toISOString().slice(0, 16) : nextMonday} />
+                <ScheduleForm orderId={id} cells={cells.map((c) => ({ key: c.key, name: c.params.name }))} defaultCell={defaultCell} defaultStart={o.order.plannedStart ? toPlantInput(o.order.plannedStart) : nextMonday} />
               ) : stage === "accepted" ? (
                 <Alert tone="info" title="Waiting for the deposit">Only paid orders are laid on a cell.</Alert>
               ) : null}

@@ -18,6 +18,7 @@ import { retentionText } from "@/lib/retention/policy";
 import { formatCents } from "@/lib/money";
 import { label } from "@/lib/orders/stages";
 import { CURE_LABEL } from "@/lib/labels";
+import { formatTempBoth } from "@/lib/units";
 import { linesFromEstimates, type DraftLine, type EstimateCostLine } from "@/lib/quoting/lines";
 
 export const metadata: Metadata = { title: "Request" };
@@ -33,17 +34,21 @@ export default async function SalesRequestPage({ params }: { params: Promise<{ i
   const [quotes, messages, card, materials, settings] = await Promise.all([listQuotesForRequest(db, id), listMessages(db, id), getCurrentRateCard(db), listCurrentMaterials(db, { activeOnly: false }), getBureauSettings(db)]);
   const materialNames = new Map(materials.map((m) => [m.key, m.params.name]));
   const draft = quotes.find((q) => q.status === "draft");
+  // A new version starts from the last version sales wrote (its lines and rates), unless a part
+  // has a new revision since (stale): then from the fresh estimate.
+  const previous = draft ? null : quotes.find((q) => q.status !== "draft" && !q.isStale);
+  const basis = draft ?? previous;
   const basisAnalysisIds = parts.map((p) => p.analysis?.id).filter((x): x is string => Boolean(x));
   const estimateLines = linesFromEstimates(
     parts.filter((p) => p.analysis?.status === "done" && p.analysis.result).map((p) => ({ partId: p.id, partName: p.name, lines: ((p.analysis!.result as { lines?: EstimateCostLine[] }).lines ?? []) })),
   );
-  const draftLines: DraftLine[] | null = draft
-    ? (await listQuoteLines(db, draft.id)).map((l) => ({ partId: l.partId, kind: l.kind, description: l.description, quantity: l.quantity, unitCents: l.unitCents, amountCents: l.amountCents, estimatedCents: l.estimatedCents, editReason: l.editReason }))
+  const basisLines: DraftLine[] | null = basis
+    ? (await listQuoteLines(db, basis.id)).map((l) => ({ partId: l.partId, kind: l.kind, description: l.description, quantity: l.quantity, unitCents: l.unitCents, amountCents: l.amountCents, estimatedCents: l.estimatedCents, editReason: l.editReason }))
     : null;
   const rc = card?.params;
   const canQuote = request.stage === "submitted" || request.stage === "quoted";
-  const initial = draft
-    ? { lines: draftLines ?? [], marginBp: draft.marginBp, taxBp: draft.taxBp, depositBp: draft.depositBp, validityDays: draft.validityDays, terms: draft.terms, notes: draft.notes, shipDate: draft.shipDate?.toISOString().slice(0, 10) ?? null }
+  const initial = basis
+    ? { lines: basisLines ?? [], marginBp: basis.marginBp, taxBp: basis.taxBp, depositBp: basis.depositBp, validityDays: basis.validityDays, terms: basis.terms, notes: basis.notes, shipDate: basis.shipDate?.toISOString().slice(0, 10) ?? null }
     : {
         lines: estimateLines,
         marginBp: rc?.marginBp ?? 0,
@@ -62,7 +67,7 @@ export default async function SalesRequestPage({ params }: { params: Promise<{ i
         subtitle={
           <span className="flex flex-wrap items-center gap-2">
             {request.firmName} · needed by {dateText(request.neededBy)} · submitted {dateText(request.submittedAt)} · {CURE_LABEL[request.cureProcess].toLowerCase()}
-            {request.cureTempC ? ` at ${request.cureTempC} °C` : ""} <StageBadge stage={request.stage} heldFrom={request.heldFromStage} />
+            {request.cureTempC !== null ? ` at ${formatTempBoth(request.cureTempC, "mm")}` : ""} <StageBadge stage={request.stage} heldFrom={request.heldFromStage} />
             {request.isControlled ? <Badge tone="danger">controlled</Badge> : null}
           </span>
         }
@@ -72,7 +77,7 @@ export default async function SalesRequestPage({ params }: { params: Promise<{ i
           {request.notes ? <Alert tone="info" title="Client notes">{request.notes}</Alert> : null}
           {parts.length === 0 ? <Card><p className="text-sm text-ink-500">This request has no parts.</p></Card> : parts.map((p) => <AnalysisPanel key={p.id} part={p} materialName={materialNames.get(p.materialKey)} />)}
           {canQuote ? (
-            <QuoteEditor key={draft?.id ?? "new"} requestId={id} quoteId={draft?.id} basisAnalysisIds={basisAnalysisIds} initial={initial} isStale={Boolean(draft?.isStale)} />
+            <QuoteEditor key={draft?.id ?? `after-${previous?.id ?? "estimate"}`} startedFrom={draft ? null : previous ? previous.version : 0} requestId={id} quoteId={draft?.id} basisAnalysisIds={basisAnalysisIds} initial={initial} isStale={Boolean(draft?.isStale)} />
           ) : (
             <Alert tone="info" title={`The request is at ${label(request.stage)}`}>Quotes are made while a request is submitted or quoted.</Alert>
           )}
