@@ -43,7 +43,7 @@ describe("back office journeys", () => {
     await client.getByText(/quote/i).first().waitFor();
     await shot(client, "admin-e2e-client-sees-quote");
     await client.context().close();
-  }, 120_000);
+  }, 240_000); // the first journey also pays for the server's first render of each page
 
   it("production schedules a paid order and moves it to shipped", async () => {
     const page = await open("production@ostrevane.example", DEMO_PASSWORDS.production);
