@@ -134,6 +134,7 @@ export const AUDIT_ACTION_LABEL: Record<string, string> = {
   "order.schedule": "Order scheduled",
   "order.reschedule": "Order rescheduled",
   "order.actuals": "Actual hours recorded",
+  "order.inspection_report": "Inspection report filed",
   "message.post": "Message posted",
   "staff.update": "Staff member changed",
   "staff.invite": "Staff member invited",

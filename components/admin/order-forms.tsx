@@ -7,7 +7,7 @@ import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input, Select, Textarea } from "@/components/ui/input";
 import { zoneLabel } from "@/lib/dates";
 import { stageText } from "./format";
-import { ReportUpload } from "./report-upload";
+import { ReportUpload, type FiledReport } from "./report-upload";
 import { ConfirmMove, type GuardedMove, type MoveContext } from "./stage-confirm";
 
 type Msg = { tone: "ok" | "error"; text: string } | null;
@@ -125,7 +125,7 @@ export interface ActualsInitial {
   trackingNumber: string | null;
 }
 
-export function ActualsForm({ orderId, initial }: { orderId: string; initial: ActualsInitial }) {
+export function ActualsForm({ orderId, initial, reports }: { orderId: string; initial: ActualsInitial; reports: FiledReport[] }) {
   const s = (v: number | string | null) => (v === null ? "" : String(v));
   const [v, setV] = useState({
     actualPrintHours: s(initial.actualPrintHours),
@@ -136,11 +136,10 @@ export function ActualsForm({ orderId, initial }: { orderId: string; initial: Ac
     carrier: s(initial.carrier),
     trackingNumber: s(initial.trackingNumber),
   });
-  const [reportUploadId, setReport] = useState<string | undefined>();
   const { msg, errors, pending, run } = useSubmit();
   const set = (k: keyof typeof v) => (e: { target: { value: string } }) => setV((x) => ({ ...x, [k]: e.target.value }));
   return (
-    <form className="space-y-3" onSubmit={(e) => (e.preventDefault(), run(() => recordActuals({ orderId, ...v, reportUploadId }), "Actuals saved."))}>
+    <form className="space-y-3" onSubmit={(e) => (e.preventDefault(), run(() => recordActuals({ orderId, ...v }), "Actuals saved."))}>
       <div className="grid gap-3 sm:grid-cols-3">
         <Field label="Print hours" htmlFor="aph" error={errors.actualPrintHours?.[0]}><Input id="aph" inputMode="decimal" value={v.actualPrintHours} onChange={set("actualPrintHours")} /></Field>
         <Field label="Material used (kg)" htmlFor="akg" error={errors.actualMaterialKg?.[0]}><Input id="akg" inputMode="decimal" value={v.actualMaterialKg} onChange={set("actualMaterialKg")} /></Field>
@@ -157,7 +156,7 @@ export function ActualsForm({ orderId, initial }: { orderId: string; initial: Ac
         </Field>
         <Field label="Inspection notes" htmlFor="inotes"><Textarea id="inotes" className="min-h-10" value={v.inspectionNotes} onChange={set("inspectionNotes")} /></Field>
       </div>
-      <ReportUpload onUploaded={setReport} uploaded={Boolean(reportUploadId)} />
+      <ReportUpload orderId={orderId} reports={reports} />
       <div className="grid gap-3 sm:grid-cols-2">
         <Field label="Carrier" htmlFor="carrier"><Input id="carrier" value={v.carrier} onChange={set("carrier")} /></Field>
         <Field label="Tracking number" htmlFor="tracking"><Input id="tracking" value={v.trackingNumber} onChange={set("trackingNumber")} /></Field>

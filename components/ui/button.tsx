@@ -4,7 +4,8 @@ import { cn } from "./cn";
 
 const variants = {
   primary: "bg-kiln-600 text-white hover:bg-kiln-700 focus-visible:outline-kiln-600",
-  secondary: "bg-white text-ink-700 ring-1 ring-inset ring-paper-300 hover:bg-paper-100 focus-visible:outline-ink-600",
+  // The outline keeps 3:1 against white and paper (WCAG 1.4.11), so a secondary button never vanishes into its card.
+  secondary: "bg-white text-ink-700 ring-1 ring-inset ring-ink-400 hover:bg-paper-100 focus-visible:outline-ink-600",
   ghost: "text-ink-600 hover:bg-paper-100 focus-visible:outline-ink-600",
   danger: "bg-signal-danger text-white hover:opacity-90 focus-visible:outline-signal-danger",
 } as const;

@@ -173,11 +173,20 @@ export async function listOrdersWithActuals(db: Db) {
     .where(sql`${orders.actualPrintHours} is not null or ${orders.actualMaterialKg} is not null or ${orders.actualMachiningHours} is not null`);
 }
 
-/** File an uploaded inspection report with the request's documents; false when the upload is unknown. */
-export async function attachInspectionReport(tx: Tx, input: { uploadId: string; requestId: string; orgId: string; userId: string }) {
+/**
+ * File an uploaded inspection report with the request's documents (the client's order page lists
+ * it with the order's files). Filing the same upload again returns the document already filed.
+ * Null when the upload is unknown or is not an inspection report.
+ */
+export async function attachInspectionReport(tx: Tx, input: { uploadId: string; requestId: string; orgId: string; userId: string }): Promise<{ documentId: string; fileName: string; isNew: boolean } | null> {
   const [up] = await tx.select().from(uploads).where(and(eq(uploads.id, input.uploadId), eq(uploads.purpose, "inspection_report")));
-  if (!up) return false;
-  await tx.insert(documents).values({
+  if (!up) return null;
+  const [filed] = await tx
+    .select({ id: documents.id })
+    .from(documents)
+    .where(and(eq(documents.requestId, input.requestId), eq(documents.kind, "inspection_report"), eq(documents.fileKey, up.fileKey)));
+  if (filed) return { documentId: filed.id, fileName: up.fileName, isNew: false };
+  const [row] = await tx.insert(documents).values({
     requestId: input.requestId,
     orgId: input.orgId,
     kind: "inspection_report",
@@ -187,6 +196,15 @@ export async function attachInspectionReport(tx: Tx, input: { uploadId: string; 
     sizeBytes: up.sizeBytes,
     contentType: up.contentType,
     uploadedById: input.userId,
-  });
-  return true;
+  }).returning({ id: documents.id });
+  return { documentId: row!.id, fileName: up.fileName, isNew: true };
+}
+
+/** The inspection reports filed on a request, newest first (staff's order page). */
+export async function listInspectionReports(db: Db | Tx, requestId: string) {
+  return db
+    .select({ id: documents.id, title: documents.title, fileName: documents.fileName, sizeBytes: documents.sizeBytes, createdAt: documents.createdAt })
+    .from(documents)
+    .where(and(eq(documents.requestId, requestId), eq(documents.kind, "inspection_report")))
+    .orderBy(desc(documents.createdAt));
 }

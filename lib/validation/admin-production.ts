@@ -60,6 +60,12 @@ export const actualsSchema = z.object({
   trackingNumber: z.string().trim().max(100).optional(),
 });
 
+export const fileReportSchema = z.object({
+  orderId: z.string().min(1).max(64),
+  /** The `uploadId` the inspectionReport upload route answered. */
+  uploadId: z.string().min(1).max(64),
+});
+
 export const calendarQuerySchema = z.object({
   cell: z.string().min(1).max(64),
   from: z.iso.date().optional(),

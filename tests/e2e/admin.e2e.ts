@@ -32,7 +32,8 @@ describe("back office journeys", () => {
     const reference = (await first.textContent())!.trim();
     await first.click();
     await page.getByRole("button", { name: "Issue quote" }).click();
-    await page.getByText(/issued; the client has been e-mailed/).waitFor();
+    // Issuing numbers and renders the quotation's PDF before it answers.
+    await page.getByText(/issued; the client has been e-mailed/).waitFor({ timeout: 90_000 });
     await shot(page, "admin-e2e-sales-issued");
     await page.context().close();
 
@@ -58,6 +59,11 @@ describe("back office journeys", () => {
       await page.getByRole("button", { name: `Move to ${stage}` }).click();
       await page.getByText(`Moved to ${stage}.`).waitFor();
     }
+    // The inspection report is filed as soon as it is uploaded, and listed on the order.
+    const report = { name: "dimensional-inspection.pdf", mimeType: "application/pdf", buffer: Buffer.from("%PDF-1.4\n% dimensional inspection, 14 points within 0.5 mm\n%%EOF\n") };
+    await page.locator("#inspection-report").setInputFiles(report);
+    await page.getByText(/“dimensional-inspection\.pdf” is filed with the order/).waitFor({ timeout: 60_000 });
+    await page.getByRole("list", { name: "Inspection reports on file" }).getByRole("link", { name: "dimensional-inspection.pdf" }).waitFor();
     await page.getByLabel("Carrier").fill("Tidewater Haulage");
     await page.getByLabel("Tracking number").fill("TW-4471");
     await page.getByRole("button", { name: "Save actuals" }).click();
@@ -66,8 +72,23 @@ describe("back office journeys", () => {
     await page.getByRole("button", { name: "Move to shipped" }).click();
     await page.getByText("Moved to shipped.").waitFor();
     await shot(page, "admin-e2e-production-shipped");
+    const orderId = new URL(page.url()).pathname.split("/").pop()!;
     await page.context().close();
-  }, 120_000);
+
+    // The client finds the report with the order's files and can download it.
+    const requestId = await sqlValue("SELECT request_id FROM orders WHERE id = ?", [orderId]);
+    const clientEmail = await sqlValue("SELECT u.email FROM users u JOIN requests r ON r.created_by_id = u.id WHERE r.id = ?", [requestId]);
+    const clientRole = (await sqlValue("SELECT role FROM users WHERE email = ?", [clientEmail])) as keyof typeof DEMO_PASSWORDS;
+    const client = await open(clientEmail, DEMO_PASSWORDS[clientRole]);
+    await client.goto(`${stack.baseUrl}/portal/requests/${requestId}`);
+    const link = client.getByRole("link", { name: /dimensional-inspection\.pdf/ });
+    await link.waitFor();
+    const res = await client.request.get(`${stack.baseUrl}${await link.getAttribute("href")}`);
+    expect(res.status()).toBe(200);
+    expect((await res.body()).toString()).toContain("dimensional inspection");
+    await shot(client, "admin-e2e-client-sees-report");
+    await client.context().close();
+  }, 180_000);
 
   it("accounts finds a mismatch, refunds part of a deposit and exports the CSV", async () => {
     const page = await open("accounts@ostrevane.example", DEMO_PASSWORDS.accounts);

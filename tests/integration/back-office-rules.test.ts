@@ -233,3 +233,34 @@ describe("refunds", () => {
     expect(notify.notifyRefund).toHaveBeenCalledWith(done.ok ? done.data.refundId : "");
   });
 });
+
+describe("inspection reports", () => {
+  it("are filed with the order as soon as they are uploaded, once, and reach the client's order page", async () => {
+    const { fileInspectionReport } = await import("@/app/admin/production/actions");
+    const { listDocuments } = await import("@/db/queries/documents");
+    const { recordUpload } = await import("@/db/queries/files");
+    const { uploads, documents } = await import("../../db/schema");
+    const o = await orderIn("inspection");
+    const up = await recordUpload(db, { fileKey: "report-key-1", fileName: "cmm-report.pdf", sizeBytes: 2_048, url: "http://127.0.0.1:1/f/report-key-1", contentType: "application/pdf", userId: uid.production, orgId: null, purpose: "inspection_report" });
+    as("production");
+    const first = await fileInspectionReport({ orderId: o.id, uploadId: up.id });
+    expect(first).toMatchObject({ ok: true, data: { fileName: "cmm-report.pdf" } });
+    // A second click (or a retried request) files nothing new.
+    const again = await fileInspectionReport({ orderId: o.id, uploadId: up.id });
+    expect(again.ok && first.ok && again.data.documentId === first.data.documentId).toBe(true);
+    const clientSees = (await listDocuments(db, o.requestId)).filter((d) => d.kind === "inspection_report");
+    expect(clientSees.map((d) => d.fileName)).toEqual(["cmm-report.pdf"]);
+    expect(clientSees[0]!.hasFile).toBeTruthy();
+
+    // Another kind of upload, or one that does not exist, is refused and files nothing.
+    const model = await recordUpload(db, { fileKey: "model-key-1", fileName: "tool.stl", sizeBytes: 84, url: "http://127.0.0.1:1/f/model-key-1", contentType: null, userId: uid.production, orgId: null, purpose: "model" });
+    expect(await fileInspectionReport({ orderId: o.id, uploadId: model.id })).toMatchObject({ ok: false, code: "not_found:upload" });
+    expect(await fileInspectionReport({ orderId: o.id, uploadId: "no-such-upload" })).toMatchObject({ ok: false, code: "not_found:upload" });
+    expect((await db.select().from(documents).where(and(eq(documents.requestId, o.requestId), eq(documents.kind, "inspection_report")))).length).toBe(1);
+    expect((await db.select().from(uploads).where(eq(uploads.id, model.id))).length).toBe(1);
+
+    // Sales may not file reports (production:record).
+    as("sales");
+    expect(await fileInspectionReport({ orderId: o.id, uploadId: up.id })).toMatchObject({ ok: false, code: "forbidden" });
+  });
+});

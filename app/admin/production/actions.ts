@@ -15,7 +15,7 @@ import { AppError } from "@/lib/errors";
 import { isBackwardMove, label, roleMayMove } from "@/lib/orders/stages";
 import { findConflicts, jobDurations, planBlocks } from "@/lib/scheduling/blocks";
 import { anyRecord, defineAction, fieldErrorsByPath } from "@/lib/server/define-action";
-import { actualsSchema, isConfirmedMove, moveStageSchema, scheduleSchema } from "@/lib/validation/admin-production";
+import { actualsSchema, fileReportSchema, isConfirmedMove, moveStageSchema, scheduleSchema } from "@/lib/validation/admin-production";
 
 const fmt = (d: Date) => formatDateTime(d);
 const OFF_THE_CELL = new Set<string>(["shipped", "delivered", "closed", "cancelled"]);
@@ -142,8 +142,8 @@ export const recordActuals = defineAction({ access: "production:record", input: 
   await db.transaction(async (tx) => {
     await updateActuals(tx, orderId, set);
     if (uploadId) {
-      const ok = await attachInspectionReport(tx, { uploadId, requestId: order.request.id, orgId: order.order.orgId, userId: user.id });
-      if (!ok) throw new AppError("not_found:upload", "That report upload was not found; upload it again.");
+      const filed = await attachInspectionReport(tx, { uploadId, requestId: order.request.id, orgId: order.order.orgId, userId: user.id });
+      if (!filed) throw new AppError("not_found:upload", "That report upload was not found; upload it again.");
     }
     await writeAudit(tx, {
       actorId: user.id,
@@ -157,4 +157,24 @@ export const recordActuals = defineAction({ access: "production:record", input: 
   });
   revalidatePath(`/admin/production/orders/${orderId}`);
   return { saved: Object.keys(fields).filter((k) => (fields as Record<string, unknown>)[k] !== undefined) };
+});
+
+/**
+ * File an inspection report as soon as it is uploaded: it joins the order's documents (the client's
+ * order page lists it with the order's files) without waiting for the actuals to be saved.
+ */
+export const fileInspectionReport = defineAction({ access: "production:record", input: fileReportSchema }, async (input, { user, db }) => {
+  const order = await getOrderForProduction(db, input.orderId);
+  if (!order) throw new AppError("not_found:order", "That order was not found.");
+  const filed = await db.transaction(async (tx) => {
+    const f = await attachInspectionReport(tx, { uploadId: input.uploadId, requestId: order.request.id, orgId: order.order.orgId, userId: user.id });
+    if (!f) throw new AppError("not_found:upload", "That report upload was not found; upload it again.");
+    if (f.isNew) {
+      await writeAudit(tx, { actorId: user.id, action: "order.inspection_report", entityType: "order", entityId: order.order.id, orgId: order.order.orgId, after: { fileName: f.fileName } });
+    }
+    return f;
+  });
+  revalidatePath(`/admin/production/orders/${input.orderId}`);
+  revalidatePath(`/portal/requests/${order.request.id}`);
+  return { documentId: filed.documentId, fileName: filed.fileName };
 });

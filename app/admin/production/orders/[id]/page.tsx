@@ -8,7 +8,7 @@ import { OrderDocumentsCard } from "@/components/admin/order-documents";
 import { Card, CardTitle, PageHeader } from "@/components/ui/card";
 import { getDb } from "@/db/client";
 import { listCurrentCells } from "@/db/queries/catalogue";
-import { getOrderForProduction } from "@/db/queries/orders";
+import { getOrderForProduction, listInspectionReports } from "@/db/queries/orders";
 import { estimateTotals } from "@/db/queries/reports";
 import { STAGES } from "@/db/schema/common";
 import { pagePermission } from "@/lib/auth/page-guard";
@@ -26,7 +26,7 @@ export default async function ProductionOrderPage({ params }: { params: Promise<
   const db = getDb();
   const o = await getOrderForProduction(db, id);
   if (!o) notFound();
-  const cells = await listCurrentCells(db);
+  const [cells, reports] = await Promise.all([listCurrentCells(db), listInspectionReports(db, o.request.id)]);
   const stage = o.request.stage;
   const est = estimateTotals(o.parts);
   const options = orderMoves(
@@ -88,7 +88,7 @@ export default async function ProductionOrderPage({ params }: { params: Promise<
           <Card>
             <CardTitle>Actuals, inspection and shipping</CardTitle>
             <div className="mt-2">
-              {canRecord ? <ActualsForm orderId={id} initial={{ actualPrintHours: o.order.actualPrintHours, actualMaterialKg: o.order.actualMaterialKg, actualMachiningHours: o.order.actualMachiningHours, inspectionResult: o.order.inspectionResult, inspectionNotes: o.order.inspectionNotes, carrier: o.order.carrier, trackingNumber: o.order.trackingNumber }} /> : <p className="text-sm text-ink-500">Your role views the board only.</p>}
+              {canRecord ? <ActualsForm orderId={id} initial={{ actualPrintHours: o.order.actualPrintHours, actualMaterialKg: o.order.actualMaterialKg, actualMachiningHours: o.order.actualMachiningHours, inspectionResult: o.order.inspectionResult, inspectionNotes: o.order.inspectionNotes, carrier: o.order.carrier, trackingNumber: o.order.trackingNumber }} reports={reports.map((r) => ({ id: r.id, fileName: r.fileName ?? r.title, filedAt: dateTimeText(r.createdAt) }))} /> : <p className="text-sm text-ink-500">Your role views the board only.</p>}
             </div>
           </Card>
           <OrderDocumentsCard requestId={o.request.id} user={user} />
