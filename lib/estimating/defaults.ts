@@ -2,10 +2,24 @@ import type { CellParams, MaterialParams, RateCardParams, WorkingCalendar } from
 
 /**
  * The demo catalogue of Ostrevane Additive Works (invented scenario of DESIGN.md), used by the
- * seed and by the CLI when no database is present. Material figures come from
- * /work/shared/reference/checks.md; each material's `source` says where each value is from
- * ("memory" = recalled, not read; "common practice" = trade rule of thumb; "demo" = invented
- * price or bureau policy). Cell sizes and outputs are invented (DESIGN.md).
+ * seed and by the CLI when no database is present. Cell sizes and outputs are invented (DESIGN.md).
+ *
+ * Each row's `source` is the bureau engineer's note as staff read it on the catalogue page. Where
+ * the figures really come from (checks.md rows; "memory" = recalled, not read in a source;
+ * "common practice" = trade rule of thumb; "invented" = the scenario's own prices and policy):
+ * - every material: density, Tg/Tm, drying and melt ranges: memory (checks.md, Materials), except
+ *   PETG/GF's Tg 66 °C (DSC) and melt 220–250 °C: Martin et al., Polymers 2024, 16(13):1913 (the
+ *   30 % CF grade's values, used for this glass-filled grade); prices: invented.
+ * - expansion: CF-ABS 5–15 along / 60–100+ across ppm/K: memory (checks.md); CF-PA6 ≈ 22 ppm/K
+ *   along: Faust et al., Polymers 2021, 13, 3637; the others: memory (PC/CF taken as CF-ABS).
+ * - service limit = Tg − 20…30 °C: common practice (checks.md); PPS/CF ≈ 177 °C from a 2016 trade
+ *   magazine report of printed PPS/CF molds surviving 350 °F / 90 psi autoclave cycles of 2–3 h;
+ *   PA6/CF: memory.
+ * - layer-time windows: Compton et al. 2017 (memory of its findings) and common practice.
+ * - rate card: rates, fees, times, rib grid and skins, plant zone, shift start and closed dates:
+ *   invented; half deposit, 0.25 in allowance, 5–10 % stepover: common practice (checks.md);
+ *   lifting caution at 23 kg: load constant of the revised lifting equation (memory); 12.7 mm net
+ *   wall: common practice; a bead bridges about 3 bead widths: memory.
  */
 
 const weekdaysTwoShifts: WorkingCalendar = { workingWeekdays: [1, 2, 3, 4, 5], shiftsPerDay: 2, hoursPerShift: 8, holidays: [] };
@@ -66,7 +80,7 @@ export const defaultMaterials: MaterialParams[] = [
     cteAlongPpmPerK: 10, cteAcrossPpmPerK: 80,
     minLayerTimeS: 90, maxLayerTimeS: 600,
     notes: "General tooling, trim and drill fixtures, room-temperature and low-temperature cure.",
-    source: "density, Tg, drying, melt: memory (checks.md); CTE along 5–15 / across 60–100+ ppm/K: memory (checks.md); service = Tg − 25 °C: common practice; layer window: Compton et al. 2017 (memory) and common practice; price: demo",
+    source: "Density, glass transition (about 105 °C), drying and melt range: typical values for 20 % carbon-fibre ABS pellets; check each lot's certificate. Expansion about 5–15 ppm/K along the bead and 60–100 ppm/K across it, as printed CF-ABS usually measures. Service limit: glass transition less 25 °C, our rule for printed tools. Layer time: at least 1.5 min so the layer below firms up, at most 10 min so it is still warm enough to bond. Price: our current purchase price per kg, delivered.",
   },
   {
     key: "pc-cf", name: "PC/CF",
@@ -76,7 +90,7 @@ export const defaultMaterials: MaterialParams[] = [
     cteAlongPpmPerK: 12, cteAcrossPpmPerK: 70,
     minLayerTimeS: 90, maxLayerTimeS: 540,
     notes: "Oven-cure tooling near 120 °C with care; check against the cure cycle.",
-    source: "density, Tg, drying, melt: memory (checks.md); CTE: memory, same class as printed CF-ABS; service = Tg − 25 °C: common practice; layer window: common practice; price: demo",
+    source: "Density, glass transition (about 147 °C), drying and melt range: typical values for carbon-fibre polycarbonate pellets; check each lot's certificate. Expansion: taken as for printed CF-ABS until our own coupons are measured. Service limit: glass transition less 25 °C, our rule for printed tools. Layer time window: our usual one for amorphous carbon-fibre grades. Price: our current purchase price per kg, delivered.",
   },
   {
     key: "petg-gf", name: "PETG/GF",
@@ -86,7 +100,7 @@ export const defaultMaterials: MaterialParams[] = [
     cteAlongPpmPerK: 20, cteAcrossPpmPerK: 70,
     minLayerTimeS: 60, maxLayerTimeS: 600,
     notes: "Low-cost patterns and fixtures; not for heated cure.",
-    source: "Tg 66 °C (DSC) and melt 220–250 °C: Martin et al., Polymers 2024, 16(13):1913 (values for the 30 % CF grade in checks.md, used for this glass-filled grade); density, drying: memory; CTE: memory; service = Tg − 20 °C: common practice; price: demo",
+    source: "Glass transition 66 °C (by DSC) and melt range 220–250 °C: published figures for fibre-filled PETG; density and drying: typical values for filled PETG pellets. Expansion: typical of printed filled PETG. Service limit: glass transition less 20 °C, our rule for printed tools. Price: our current purchase price per kg, delivered.",
   },
   {
     key: "pa-cf", name: "PA/CF (PA6)",
@@ -96,7 +110,7 @@ export const defaultMaterials: MaterialParams[] = [
     cteAlongPpmPerK: 22, cteAcrossPpmPerK: 90,
     minLayerTimeS: 60, maxLayerTimeS: 480,
     notes: "Semi-crystalline (Tm ≈ 220 °C): usable above Tg; absorbs moisture, dry well.",
-    source: "density, Tm, drying, melt: memory (checks.md); CTE along ≈ 22 ppm/K: Faust et al., Polymers 2021, 13, 3637; across: memory; service limit: memory; layer window: common practice; price: demo",
+    source: "Density, melting point (about 220 °C), drying and melt range: typical values for carbon-fibre PA6 pellets; check each lot's certificate. Expansion about 22 ppm/K along the bead (published for printed CF-PA) and far more across it. Service limit: usual for semi-crystalline CF-PA6 tools, dried before use. Layer time window: our usual one for semi-crystalline grades. Price: our current purchase price per kg, delivered.",
   },
   {
     key: "pps-cf", name: "PPS/CF",
@@ -106,7 +120,7 @@ export const defaultMaterials: MaterialParams[] = [
     cteAlongPpmPerK: 12, cteAcrossPpmPerK: 60,
     minLayerTimeS: 60, maxLayerTimeS: 420,
     notes: "Semi-crystalline (Tm ≈ 280 °C). Printed PPS/CF molds survived 350 °F / 90 psi cycles of 2–3 h.",
-    source: "density, Tg, Tm, drying, melt: memory (checks.md); autoclave cycles: CompositesWorld, \"3-D printing autoclavable composite molds\" (2016); service ≈ 177 °C from those cycles; CTE: memory; layer window: common practice; price: demo",
+    source: "Density, glass transition (about 90 °C), melting point (about 280 °C), drying and melt range: typical values for carbon-fibre PPS pellets; check each lot's certificate. Service limit about 180 °C: printed PPS/CF molds have been reported to survive repeated 177 °C (350 °F), 6 bar (90 psi) autoclave cycles of 2–3 h. Expansion: typical of printed CF-PPS. Layer time window: our usual one for semi-crystalline grades. Price: our current purchase price per kg, delivered.",
   },
   {
     key: "psu-cf", name: "PSU/CF",
@@ -116,7 +130,7 @@ export const defaultMaterials: MaterialParams[] = [
     cteAlongPpmPerK: 8, cteAcrossPpmPerK: 50,
     minLayerTimeS: 60, maxLayerTimeS: 420,
     notes: "Amorphous; autoclave tooling below about 160 °C.",
-    source: "density, Tg, drying, melt: memory (checks.md); service = Tg − 27 °C: common practice; CTE: memory; layer window: common practice; price: demo",
+    source: "Density, glass transition (about 187 °C), drying and melt range: typical values for carbon-fibre PSU pellets; check each lot's certificate. Service limit: glass transition less 27 °C, our rule for printed tools. Expansion: typical of printed CF-PSU. Layer time window: our usual one for high-temperature amorphous grades. Price: our current purchase price per kg, delivered.",
   },
   {
     key: "pesu-cf", name: "PESU/CF",
@@ -126,7 +140,7 @@ export const defaultMaterials: MaterialParams[] = [
     cteAlongPpmPerK: 8, cteAcrossPpmPerK: 50,
     minLayerTimeS: 60, maxLayerTimeS: 360,
     notes: "Amorphous; 350 °F (177 °C) autoclave cure.",
-    source: "density, Tg, drying, melt: memory (checks.md); service = Tg − 30 °C: common practice; CTE: memory; layer window: common practice; price: demo",
+    source: "Density, glass transition (about 225 °C), drying and melt range: typical values for carbon-fibre PESU pellets; check each lot's certificate. Service limit: glass transition less 30 °C, our rule for printed tools. Expansion: typical of printed CF-PESU. Layer time window: our usual one for high-temperature amorphous grades. Price: our current purchase price per kg, delivered.",
   },
   {
     key: "pei-cf", name: "PEI/CF",
@@ -136,7 +150,7 @@ export const defaultMaterials: MaterialParams[] = [
     cteAlongPpmPerK: 7, cteAcrossPpmPerK: 45,
     minLayerTimeS: 60, maxLayerTimeS: 360,
     notes: "Amorphous; 350 °F (177 °C) autoclave cure.",
-    source: "density, Tg, drying, melt: memory (checks.md); service = Tg − 27 °C: common practice; CTE: memory; layer window: common practice; price: demo",
+    source: "Density, glass transition (about 217 °C), drying and melt range: typical values for carbon-fibre PEI pellets; check each lot's certificate. Service limit: glass transition less 27 °C, our rule for printed tools. Expansion: typical of printed CF-PEI. Layer time window: our usual one for high-temperature amorphous grades. Price: our current purchase price per kg, delivered.",
   },
 ];
 
@@ -161,5 +175,5 @@ export const defaultRateCard: RateCardParams = {
   shellNetWallMm: 12.7, ribSpacingMm: 400, ribBeads: 1, skinLayers: 3, maxBridgeMm: 60,
   plantTimeZone: "CST6CDT", shiftStartHour: 6,
   holidays: ["2026-12-24", "2026-12-25", "2026-12-31", "2027-01-01", "2027-05-31", "2027-07-05", "2027-09-06", "2027-11-25", "2027-11-26", "2027-12-24"],
-  source: "rates, fees and times: demo values of the invented bureau; deposit half up front, 0.25 in allowance, 5–10 % stepover: common practice (checks.md); lifting caution at 23 kg: the load constant of the NIOSH revised lifting equation (memory); shell net wall 12.7 mm (0.5 in) after machining: common practice; rib grid 400 mm, one bead wide, 3-layer skins: demo values; a bead bridges about 3 bead widths (60 mm) unsupported: memory; plant zone, 06:00 shift start and closed dates: demo",
+  source: "Rates, fees and lead times: our standard price list for 2027. Deposit: half on acceptance, the balance on shipment. Finish allowance 6.35 mm (0.25 in) and a machining stepover of 5–10 % of the cutter: usual practice for machined printed tools. Lifting caution from 23 kg: the load constant of the revised lifting equation; heavier parts are lifted with rated equipment. Shell: 12.7 mm (0.5 in) net wall after machining, a 400 mm rib grid one bead wide, 3-layer skins. A bead bridges about 3 bead widths (60 mm) unsupported; wider flat tops get support ribs. Plant calendar: Central time, first shift at 06:00, closed on the dates listed.",
 };
