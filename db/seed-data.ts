@@ -33,6 +33,37 @@ export const FIRMS = [
 ] as const;
 export type FirmKey = (typeof FIRMS)[number]["key"];
 
+interface DemoAddress {
+  label: string;
+  attention?: string;
+  line1: string;
+  line2?: string;
+  city: string;
+  region: string;
+  postalCode: string;
+  deliveryNotes?: string;
+  phone?: string;
+}
+
+/** Invented addresses (towns coined; state codes and ZIP formats real). The first shipping address is the default. */
+export const FIRM_ADDRESSES: Record<FirmKey, { billing: DemoAddress; shipping: DemoAddress[] }> = {
+  caldrith: {
+    billing: { label: "Head office", attention: "Accounts payable", line1: "2200 Aerodrome Parkway", city: "Harrowmere", region: "KS", postalCode: "67290" },
+    shipping: [{ label: "Tooling hall", attention: "Receiving, dock 3", line1: "2240 Aerodrome Parkway", line2: "Building 7", city: "Harrowmere", region: "KS", postalCode: "67290", deliveryNotes: "Dock open 06:00 to 14:00; forklift to 5 t on site", phone: "+1 316 555 0142" }],
+  },
+  bramblewake: {
+    billing: { label: "Yard office", attention: "Yard office", line1: "1 Slipway Road", city: "Saltcombe Reach", region: "ME", postalCode: "04590" },
+    shipping: [
+      { label: "North yard", attention: "Plug shop", line1: "1 Slipway Road", city: "Saltcombe Reach", region: "ME", postalCode: "04590", deliveryNotes: "Gantry crane 10 t; call the yard an hour ahead", phone: "+1 207 555 0198" },
+      { label: "Gulf yard", attention: "Mold loft", line1: "48 Bayou Quay", city: "Pellmoor", region: "LA", postalCode: "70397", deliveryNotes: "Flatbed access by the east gate", phone: "+1 985 555 0117" },
+    ],
+  },
+  tarnavel: {
+    billing: { label: "Purchasing", attention: "Lab purchasing", line1: "Quillbridge Hall, 9 College Row", city: "Fennick Cross", region: "MN", postalCode: "55990" },
+    shipping: [{ label: "Composites lab", attention: "Ines Varrow", line1: "Engineering annex, 9 College Row", city: "Fennick Cross", region: "MN", postalCode: "55990", deliveryNotes: "Loading bay behind the annex; no forklift over 2 t" }],
+  },
+};
+
 export const DEMO_USERS: { email: string; name: string; role: Role; firm?: FirmKey; cleared?: boolean; unitsPref?: "mm" | "in" }[] = [
   { email: "admin@ostrevane.example", name: "Wren Halloway", role: "admin", cleared: true },
   { email: "sales@ostrevane.example", name: "Ivo Marchetti-Lund", role: "sales", cleared: true },

@@ -18,7 +18,9 @@ import { openDb, type Db } from "./client";
 import { numberUnnumberedReceipts } from "./queries/payments";
 import * as s from "./schema";
 import type { Stage } from "./schema/common";
-import { DEMO_PASSWORDS, DEMO_REQUESTS, DEMO_TOTP_SECRETS, DEMO_USERS, FIRMS, type DemoMeshKey, type DemoRequest } from "./seed-data";
+import { DEMO_PASSWORDS, DEMO_REQUESTS, DEMO_TOTP_SECRETS, DEMO_USERS, FIRM_ADDRESSES, FIRMS, type DemoMeshKey, type DemoRequest } from "./seed-data";
+import { snapshotOf } from "./queries/addresses";
+import { zoneFor } from "../lib/estimating/freight";
 import { DEMO_TERMS, seedDocuments } from "./seed-documents";
 import { processorRecordsFor, type SeedProcessorRecord } from "./seed-processor";
 import { FileStore } from "../mocks/uploadthing/store";
@@ -39,8 +41,8 @@ const MESHES: Record<DemoMeshKey, { name: string; make: () => IndexedMesh; file:
 
 /** Tables in an order that respects foreign keys when deleting. */
 const WIPE_ORDER = [
-  "issued_documents", "document_series", "audit_log", "email_outbox", "webhook_events", "refunds", "payments", "schedule_blocks", "stage_events", "documents", "messages",
-  "orders", "quote_lines", "quotes", "analyses", "file_revisions", "uploads", "parts", "requests", "invitations", "memberships",
+  "issued_documents", "document_series", "audit_log", "email_outbox", "webhook_events", "transfer_funds", "refunds", "payments", "schedule_blocks", "stage_events", "documents", "messages",
+  "orders", "quote_lines", "quotes", "analyses", "tax_exemptions", "file_revisions", "uploads", "parts", "requests", "invitations", "memberships", "addresses",
   "organisations", "password_reset_tokens", "sign_in_attempts", "sessions", "accounts", "verification_tokens",
   "rate_cards", "cells", "materials", "terms_of_sale", "users",
 ];
@@ -85,6 +87,23 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
       .returning({ id: s.organisations.id });
     orgIds.set(f.key, row!.id);
   }
+  // Address book: billing, then shipping (the first one the default ship-to).
+  const shipTos = new Map<string, s.Address>();
+  for (const f of FIRMS) {
+    const book = FIRM_ADDRESSES[f.key];
+    const orgId = orgIds.get(f.key)!;
+    const row = (a: (typeof book.shipping)[number], kind: "billing" | "shipping", isDefault: boolean) => ({
+      orgId, kind, isDefault, label: a.label, attention: a.attention ?? null, line1: a.line1, line2: a.line2 ?? null, city: a.city, region: a.region,
+      postalCode: a.postalCode, country: "US", phone: a.phone ?? null, deliveryNotes: a.deliveryNotes ?? null,
+    });
+    await db.insert(s.addresses).values(row(book.billing, "billing", true));
+    const inserted = await db.insert(s.addresses).values(book.shipping.map((a, i) => row(a, "shipping", i === 0))).returning();
+    shipTos.set(f.key, inserted[0]!);
+  }
+  const zoneOfFirm = (firm: string) => {
+    const a = shipTos.get(firm);
+    return a && defaultRateCard.freight ? zoneFor(defaultRateCard.freight, a.country, a.region) : null;
+  };
   const userIds = new Map<string, string>();
   const hashes = new Map<string, string>();
   for (const u of DEMO_USERS) {
@@ -112,7 +131,8 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
   // ---- meshes, analysed once per kind and options ----
   const analysed = new Map<string, { bytes: Uint8Array; result: EstimateResult }>();
   async function analysis(r: DemoRequest) {
-    const key = `${r.mesh}|${r.material}|${r.units ?? "mm"}|${r.allowanceMm ?? defaultRateCard.defaultAllowanceMm}|${r.shellWalls ?? "solid"}`;
+    const freightZone = zoneOfFirm(r.firm)?.key ?? null;
+    const key = `${r.mesh}|${r.material}|${r.units ?? "mm"}|${r.allowanceMm ?? defaultRateCard.defaultAllowanceMm}|${r.shellWalls ?? "solid"}|${freightZone}`;
     const hit = analysed.get(key);
     if (hit) return hit;
     const m = MESHES[r.mesh];
@@ -120,7 +140,7 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
     const result = await analyse({
       bytes,
       fileName: m.file,
-      options: { ...optionsOf(r), cureTempC: r.cureTempC ?? undefined, partCtePpmPerK: r.partCte },
+      options: { ...optionsOf(r), cureTempC: r.cureTempC ?? undefined, partCtePpmPerK: r.partCte, freightZone },
       catalogue,
       now,
     });
@@ -301,6 +321,7 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
           quoteId: quote!.id,
           poNumber: `PO-${r.firm.slice(0, 3).toUpperCase()}-${4400 + n}`,
           termsVersion: 1,
+          shipTo: snapshotOf(shipTos.get(r.firm)!, zoneOfFirm(r.firm)),
           totalCents: result.totalCents,
           depositCents: result.depositCents,
           balanceCents: result.totalCents - result.depositCents,

@@ -20,6 +20,16 @@ type FormResult = ActionResult<undefined> | null;
 
 /** The form's fields; anything else posted to the action (no form at all) counts as empty. */
 const formEntries = (formData: unknown) => (formData instanceof FormData ? Object.fromEntries(formData) : {});
+/** Fields named `address.x` become `{ address: { x } }` (the sign-up form's billing address). */
+const nested = (entries: Record<string, unknown>) => {
+  const out: Record<string, unknown> = {};
+  for (const [k, v] of Object.entries(entries)) {
+    const dot = k.indexOf(".");
+    if (dot > 0) ((out[k.slice(0, dot)] ??= {}) as Record<string, unknown>)[k.slice(dot + 1)] = v;
+    else out[k] = v;
+  }
+  return out;
+};
 
 
 export async function signInWithPassword(_prev: FormResult, formData: FormData): Promise<FormResult> {
@@ -75,7 +85,7 @@ export async function requestMagicLink(_prev: FormResult, formData: FormData): P
 }
 
 export async function signUp(_prev: FormResult, formData: FormData): Promise<FormResult> {
-  const parsed = signUpSchema.safeParse(formEntries(formData));
+  const parsed = signUpSchema.safeParse(nested(formEntries(formData)));
   if (!parsed.success) {
     return { ok: false, code: "invalid_input", message: "Check the highlighted fields.", fieldErrors: fieldErrorsOf(parsed.error) };
   }

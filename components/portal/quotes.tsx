@@ -18,7 +18,62 @@ const HOURS_KINDS = new Set(["print", "machining", "engineering"]);
 
 export type { QuoteView };
 
-function AcceptForm({ quote, defaultPo }: { quote: QuoteView; defaultPo: string }) {
+/** One of the firm's shipping addresses with what the order would cost shipped there. */
+export interface ShipToChoice {
+  id: string;
+  label: string;
+  lines: string[];
+  isDefault: boolean;
+  zoneName: string | null;
+  transitDays: number | null;
+  freightCents: number;
+  taxCents: number;
+  totalCents: number;
+  depositCents: number;
+}
+
+export interface AcceptanceView {
+  shipTos: ShipToChoice[];
+  exemption: { certificateNumber: string; expiresOn: string } | null;
+  canManageAddresses: boolean;
+}
+
+function ShipToPicker({ choices, value, onChange, currency, error }: { choices: ShipToChoice[]; value: string; onChange: (id: string) => void; currency: string; error?: string }) {
+  return (
+    <fieldset className="space-y-2" aria-describedby={error ? "shipto-error" : undefined}>
+      <legend className="text-sm font-medium text-ink-700">Ship to</legend>
+      <div className="grid gap-2 sm:grid-cols-2">
+        {choices.map((c) => (
+          <label key={c.id} className={`flex cursor-pointer gap-3 rounded bg-white p-3 text-sm ring-1 ${value === c.id ? "ring-2 ring-kiln-500" : "ring-paper-300"}`} data-testid="ship-to-choice">
+            <input type="radio" name="shipTo" value={c.id} checked={value === c.id} onChange={() => onChange(c.id)} className="mt-1 accent-kiln-600" />
+            <span className="min-w-0 space-y-1">
+              <span className="block font-medium text-ink-800">{c.label}</span>
+              <span className="block text-xs text-ink-500">{c.lines.join(", ")}</span>
+              <span className="block text-xs text-ink-600">
+                {c.zoneName ?? "Freight zone not found"}
+                {c.transitDays ? `, about ${c.transitDays} working days in transit` : ""}
+              </span>
+              <span className="figures block">
+                Freight {formatCents(c.freightCents, currency)} · total <strong>{formatCents(c.totalCents, currency)}</strong>
+              </span>
+            </span>
+          </label>
+        ))}
+      </div>
+      {error ? (
+        <p id="shipto-error" className="text-xs text-signal-danger" role="alert">
+          {error}
+        </p>
+      ) : null}
+    </fieldset>
+  );
+}
+
+function AcceptForm({ quote, defaultPo, acceptance }: { quote: QuoteView; defaultPo: string; acceptance: AcceptanceView | null }) {
+  const choices = acceptance?.shipTos ?? [];
+  const [shipToId, setShipToId] = useState((choices.find((c) => c.isDefault) ?? choices[0])?.id ?? "");
+  const chosen = choices.find((c) => c.id === shipToId) ?? null;
+  const depositCents = chosen?.depositCents ?? quote.depositCents;
   const [po, setPo] = useState(defaultPo);
   const [terms, setTerms] = useState(false);
   const [errors, setErrors] = useState<Record<string, string[]>>({});
@@ -29,7 +84,7 @@ function AcceptForm({ quote, defaultPo }: { quote: QuoteView; defaultPo: string 
     if (busy) return;
     setBusy(true);
     setMessage(null);
-    const res = await acceptQuote({ quoteId: quote.id, poNumber: po, acceptTerms: terms as true });
+    const res = await acceptQuote({ quoteId: quote.id, poNumber: po, acceptTerms: terms as true, shipToId: shipToId || undefined });
     if (!res.ok) {
       setErrors(res.fieldErrors ?? {});
       setMessage(res.message);
@@ -41,9 +96,28 @@ function AcceptForm({ quote, defaultPo }: { quote: QuoteView; defaultPo: string 
   }
   return (
     <form onSubmit={submit} className="space-y-3 rounded bg-kiln-50 p-4 ring-1 ring-kiln-100" aria-label={`Accept quote version ${quote.version}`}>
+      {choices.length === 0 ? (
+        <p className="rounded bg-amber-50 px-3 py-2 text-sm text-amber-900" role="alert">
+          Your firm has no shipping address yet: the order needs one, and the freight is priced to it.{" "}
+          {acceptance?.canManageAddresses ? (
+            <a href="/portal/firm" className="underline">
+              Add one on your firm&apos;s page
+            </a>
+          ) : (
+            "Ask your firm's lead to add one."
+          )}
+        </p>
+      ) : (
+        <ShipToPicker choices={choices} value={shipToId} onChange={setShipToId} currency={quote.currency} error={errors.shipToId?.[0]} />
+      )}
+      {acceptance?.exemption ? (
+        <p className="rounded bg-tide-50 px-3 py-2 text-sm text-tide-700">
+          No tax: your firm&apos;s exemption certificate {acceptance.exemption.certificateNumber} is on file, valid until {day(acceptance.exemption.expiresOn)}.
+        </p>
+      ) : null}
       <p className="text-sm text-ink-700">
-        Accepting makes the order. A deposit of <strong className="figures">{formatCents(quote.depositCents, quote.currency)}</strong> is paid next by card; the balance
-        when the order ships.
+        Accepting makes the order{chosen ? <> for <strong className="figures">{formatCents(chosen.totalCents, quote.currency)}</strong></> : null}. A deposit of{" "}
+        <strong className="figures">{formatCents(depositCents, quote.currency)}</strong> is paid next by card; the balance when the order ships.
       </p>
       <Field label="Your purchase order number" htmlFor={`po-${quote.id}`} error={errors.poNumber?.[0]}>
         <Input id={`po-${quote.id}`} value={po} onChange={(e) => setPo(e.target.value)} aria-invalid={Boolean(errors.poNumber)} autoComplete="off" />
@@ -71,7 +145,7 @@ function AcceptForm({ quote, defaultPo }: { quote: QuoteView; defaultPo: string 
       </label>
       {errors.acceptTerms ? <p className="text-xs text-signal-danger" role="alert">{errors.acceptTerms[0]}</p> : null}
       <FormMessage>{message}</FormMessage>
-      <Button type="submit" disabled={busy}>
+      <Button type="submit" disabled={busy || choices.length === 0}>
         {busy ? "Accepting…" : "Accept and pay the deposit"}
       </Button>
     </form>
@@ -79,7 +153,7 @@ function AcceptForm({ quote, defaultPo }: { quote: QuoteView; defaultPo: string 
 }
 
 /** Every issued version of the request's quote, newest first, with its lines and changes. */
-export function QuotesSection({ quotes, canAccept, defaultPo, now }: { quotes: QuoteView[]; canAccept: boolean; defaultPo: string; now: string }) {
+export function QuotesSection({ quotes, canAccept, defaultPo, now, acceptance = null }: { quotes: QuoteView[]; canAccept: boolean; defaultPo: string; now: string; acceptance?: AcceptanceView | null }) {
   if (quotes.length === 0) {
     return (
       <Card>
@@ -128,7 +202,7 @@ export function QuotesSection({ quotes, canAccept, defaultPo, now }: { quotes: Q
             />
             {q.shipDate ? <p className="text-sm text-ink-600">Quoted ship date: {day(q.shipDate)}</p> : null}
             {q.notes ? <p className="text-sm text-ink-600">{q.notes}</p> : null}
-            {canAccept && q === latestIssued && !expired && !q.isStale ? <AcceptForm quote={q} defaultPo={defaultPo} /> : null}
+            {canAccept && q === latestIssued && !expired && !q.isStale ? <AcceptForm quote={q} defaultPo={defaultPo} acceptance={acceptance} /> : null}
             {canAccept && q === latestIssued && expired ? (
               <p className="rounded bg-amber-50 px-3 py-2 text-sm text-amber-900">This quote has expired and can no longer be accepted. Ask us for a fresh one in the messages below.</p>
             ) : null}

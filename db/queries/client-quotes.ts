@@ -1,6 +1,6 @@
 import { and, asc, desc, eq, inArray, ne } from "drizzle-orm";
 import type { Db } from "../client";
-import { orders, quoteLines, quotes, requests } from "../schema";
+import { orders, quoteLines, quotes, requests, type NewOrder } from "../schema";
 import type { Tx } from "./audit";
 
 /** Quote versions a client may see: issued ones and their later fates, never a sales draft. */
@@ -83,7 +83,11 @@ export async function getLatestIssuedVersion(db: Db | Tx, requestId: string) {
  */
 export async function acceptQuoteAndCreateOrder(
   tx: Tx,
-  input: { quoteId: string; requestId: string; orgId: string; acceptedById: string; poNumber: string; termsVersion: number | null; totalCents: number; depositCents: number; balanceCents: number; currency: string; now: Date },
+  input: {
+    quoteId: string; requestId: string; orgId: string; acceptedById: string; poNumber: string; termsVersion: number | null; totalCents: number; depositCents: number; balanceCents: number; currency: string; now: Date;
+    /** The order's own figures, ship-to and the rest (lib/orders/acceptance.ts). */
+    extra?: Partial<Pick<NewOrder, "shipTo" | "billTo" | "lines" | "subtotalCents" | "marginCents" | "taxBp" | "taxCents" | "taxExemption" | "paymentTerms" | "poUploadId">>;
+  },
 ) {
   const updated = await tx
     .update(quotes)
@@ -107,6 +111,7 @@ export async function acceptQuoteAndCreateOrder(
       depositCents: input.depositCents,
       balanceCents: input.balanceCents,
       currency: input.currency,
+      ...input.extra,
     })
     .returning({ id: orders.id });
   return order!;

@@ -1,6 +1,8 @@
 import { eq } from "drizzle-orm";
 import type { Db } from "../client";
 import { memberships, organisations, users } from "../schema";
+import type { AddressValues } from "../../lib/validation/address";
+import { createAddress } from "./addresses";
 
 export async function isEmailTaken(db: Db, email: string): Promise<boolean> {
   const [row] = await db.select({ id: users.id }).from(users).where(eq(users.email, email.toLowerCase()));
@@ -19,7 +21,7 @@ export function slugify(name: string): string {
 /** Sign-up: a new client firm whose first user is its client_admin, in one transaction. */
 export async function createClientFirmWithAdmin(
   db: Db,
-  input: { name: string; firmName: string; email: string; passwordHash: string; unitsPref: "mm" | "in" },
+  input: { name: string; firmName: string; email: string; passwordHash: string; unitsPref: "mm" | "in"; address?: AddressValues; shipHere?: boolean },
 ) {
   return db.transaction(async (tx) => {
     const base = slugify(input.firmName);
@@ -34,6 +36,10 @@ export async function createClientFirmWithAdmin(
       .values({ name: input.name, email: input.email, passwordHash: input.passwordHash, role: "client_admin", unitsPref: input.unitsPref })
       .returning({ id: users.id });
     await tx.insert(memberships).values({ orgId: org!.id, userId: user!.id });
+    if (input.address) {
+      await createAddress(tx, { orgId: org!.id, kind: "billing", values: input.address, actorId: user!.id });
+      if (input.shipHere) await createAddress(tx, { orgId: org!.id, kind: "shipping", values: input.address, actorId: user!.id });
+    }
     return { orgId: org!.id, userId: user!.id };
   });
 }

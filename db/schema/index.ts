@@ -11,3 +11,4 @@ export * from "./change-counters";
 export * from "./two-factor";
 export * from "./retention";
 export * from "./issued-documents";
+export * from "./firm-accounts";

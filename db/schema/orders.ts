@@ -1,7 +1,7 @@
 import { index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
 import { users } from "./auth";
 import { createdAt, id, STAGES, ts } from "./common";
-import { organisations } from "./organisations";
+import { PAYMENT_TERMS, organisations } from "./organisations";
 import { quotes } from "./quotes";
 import { requests } from "./requests";
 
@@ -29,6 +29,29 @@ export const orders = sqliteTable(
     cellKey: text("cell_key"),
     plannedStart: ts("planned_start"),
     plannedShip: ts("planned_ship"),
+    /** "prepay": deposit, then balance at shipping; net terms: one invoice at shipping, due N days later. */
+    paymentTerms: text("payment_terms", { enum: PAYMENT_TERMS }).notNull().default("prepay"),
+    /** The buyer's purchase order as a PDF (optional), an upload of the firm's. */
+    poUploadId: text("po_upload_id"),
+    /** The ship-to picked at acceptance and the firm's billing address then, copied (AddressSnapshot). */
+    shipTo: text("ship_to", { mode: "json" }).$type<AddressSnapshot>(),
+    billTo: text("bill_to", { mode: "json" }).$type<AddressSnapshot>(),
+    /**
+     * The order's own lines and figures when they differ from the accepted quote's (freight
+     * re-priced for the ship-to, tax exemption); null = the quote's.
+     */
+    lines: text("lines", { mode: "json" }).$type<OrderLine[]>(),
+    subtotalCents: integer("subtotal_cents"),
+    marginCents: integer("margin_cents"),
+    taxBp: integer("tax_bp"),
+    taxCents: integer("tax_cents"),
+    /** The certificate that made the order tax-free, copied at acceptance. */
+    taxExemption: text("tax_exemption", { mode: "json" }).$type<{ certificateNumber: string; issuedBy: string; expiresOn: string }>(),
+    /** Net terms: when the invoice was issued and when it falls due; reminders sent. */
+    invoicedAt: ts("invoiced_at"),
+    dueAt: ts("due_at"),
+    reminderSentAt: ts("reminder_sent_at"),
+    overdueNoticeAt: ts("overdue_notice_at"),
     carrier: text("carrier"),
     trackingNumber: text("tracking_number"),
     actualPrintHours: real("actual_print_hours"),
@@ -41,6 +64,33 @@ export const orders = sqliteTable(
   (t) => [uniqueIndex("orders_request_uq").on(t.requestId), index("orders_org_idx").on(t.orgId)],
 );
 export type Order = typeof orders.$inferSelect;
+
+/** An address as an order keeps it, with the freight zone it was priced to. */
+export interface AddressSnapshot {
+  addressId: string | null;
+  label: string;
+  attention: string | null;
+  line1: string;
+  line2: string | null;
+  city: string;
+  region: string | null;
+  postalCode: string;
+  country: string;
+  phone: string | null;
+  deliveryNotes: string | null;
+  zoneKey?: string | null;
+  zoneName?: string | null;
+}
+
+/** A line of an order whose figures differ from its quote's. */
+export interface OrderLine {
+  kind: string;
+  partId: string | null;
+  description: string;
+  quantity: number;
+  unitCents: number;
+  amountCents: number;
+}
 export type NewOrder = typeof orders.$inferInsert;
 
 export const SCHEDULE_BLOCK_KINDS = ["print", "cooling", "machining", "finishing"] as const;

@@ -1,6 +1,9 @@
-import { index, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
+import { index, integer, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
 import { users } from "./auth";
 import { CLIENT_ROLES, createdAt, id, ts } from "./common";
+
+export const PAYMENT_TERMS = ["prepay", "net30", "net45", "net60"] as const;
+export type PaymentTerms = (typeof PAYMENT_TERMS)[number];
 
 /** A client firm. */
 export const organisations = sqliteTable(
@@ -13,6 +16,14 @@ export const organisations = sqliteTable(
     billingContact: text("billing_contact"),
     defaultPoNumber: text("default_po_number"),
     unitsPref: text("units_pref", { enum: ["mm", "in"] }).notNull().default("mm"),
+    /** Paying on account: "prepay" (card or transfer up front) until accounts approves net terms. */
+    paymentTerms: text("payment_terms", { enum: PAYMENT_TERMS }).notNull().default("prepay"),
+    /** Most the firm may owe on account at once (open invoices + a new order), cents. */
+    creditLimitCents: integer("credit_limit_cents").notNull().default(0),
+    termsApprovedById: text("terms_approved_by_id").references(() => users.id),
+    termsApprovedAt: ts("terms_approved_at"),
+    /** The payment processor's customer record (bank-transfer account details hang on it). */
+    processorCustomerId: text("processor_customer_id"),
     createdAt: createdAt(),
   },
   (t) => [uniqueIndex("organisations_slug_uq").on(t.slug)],

@@ -7,6 +7,9 @@ import { organisations } from "./organisations";
 export const PAYMENT_STATUSES = ["pending", "paid", "failed", "expired", "refunded", "partially_refunded"] as const;
 export type PaymentStatus = (typeof PAYMENT_STATUSES)[number];
 
+export const PAYMENT_METHODS = ["card", "bank_transfer", "manual"] as const;
+export type PaymentMethod = (typeof PAYMENT_METHODS)[number];
+
 export const payments = sqliteTable(
   "payments",
   {
@@ -30,6 +33,15 @@ export const payments = sqliteTable(
     receiptUrl: text("receipt_url"),
     /** The bureau's own receipt number (`RC-<year>-<five digits>`), given when the money arrives. */
     receiptNumber: text("receipt_number"),
+    /** card: a payment page; bank_transfer: the processor's bank-transfer method; manual: recorded by accounts. */
+    method: text("method", { enum: PAYMENT_METHODS }).notNull().default("card"),
+    /** Bank transfer: the reference the payer quotes, the account details to pay, and funds seen so far. */
+    transferReference: text("transfer_reference"),
+    transferDetails: text("transfer_details", { mode: "json" }).$type<TransferDetails>(),
+    receivedCents: integer("received_cents").notNull().default(0),
+    /** Manual payment: the bank's or cheque's reference, and accounts' note. */
+    externalReference: text("external_reference"),
+    note: text("note"),
     createdById: text("created_by_id").references(() => users.id),
     createdAt: createdAt(),
     paidAt: ts("paid_at"),
@@ -42,6 +54,47 @@ export const payments = sqliteTable(
   ],
 );
 export type Payment = typeof payments.$inferSelect;
+
+/** Where to send a bank transfer (the processor's account for this firm). */
+export interface TransferDetails {
+  bankName: string;
+  accountHolder: string;
+  accountNumber: string;
+  routingNumber: string;
+  swiftCode: string | null;
+}
+
+export const FUNDS_STATUSES = ["applied", "short", "over", "unmatched", "late"] as const;
+
+/**
+ * Money the processor saw arrive by bank transfer, one row per arrival, for reconciliation:
+ * matched to a payment by its reference (or not), with what was applied and what is left in the
+ * firm's balance at the processor.
+ */
+export const transferFunds = sqliteTable(
+  "transfer_funds",
+  {
+    id: id(),
+    /** The processor's id of the arrival (its cash-balance transaction). */
+    processorId: text("processor_id").notNull(),
+    processorCustomerId: text("processor_customer_id").notNull(),
+    orgId: text("org_id").references(() => organisations.id),
+    paymentId: text("payment_id").references(() => payments.id),
+    amountCents: integer("amount_cents").notNull(),
+    currency: text("currency").notNull().default("usd"),
+    reference: text("reference"),
+    /** Applied to the payment from this arrival, cents; the rest stays in the firm's balance. */
+    appliedCents: integer("applied_cents").notNull().default(0),
+    status: text("status", { enum: FUNDS_STATUSES }).notNull(),
+    receivedAt: ts("received_at").notNull(),
+    resolvedAt: ts("resolved_at"),
+    resolvedById: text("resolved_by_id").references(() => users.id),
+    resolution: text("resolution"),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("transfer_funds_processor_uq").on(t.processorId), index("transfer_funds_org_idx").on(t.orgId), index("transfer_funds_status_idx").on(t.status)],
+);
+export type TransferFunds = typeof transferFunds.$inferSelect;
 export type NewPayment = typeof payments.$inferInsert;
 
 export const refunds = sqliteTable(

@@ -1,4 +1,5 @@
 import type { Db } from "../../db/client";
+import { firmFreightZone } from "./freight-zone";
 import { claimAnalysis, getAnalysisJob, listStrandedAnalyses, renewAnalysisLease, requeueAnalysis, resetFailedAnalysis, setRevisionSha256 } from "../../db/queries/analysis-jobs";
 import { loadCatalogue } from "../../db/queries/catalogue";
 import { createAnalysis, getAnalysis, updateAnalysis } from "../../db/queries/parts";
@@ -131,7 +132,8 @@ async function runOnce(db: Db, analysisId: string, deps: RunDeps): Promise<Outco
     if (!cat) return { kind: "failed", code: "catalogue:missing", message: "The bureau's catalogue is not set up yet; our staff have been told." };
     // The worker fetches the file itself, off the request thread, and hashes it.
     const remote = { url: await fileUrl(job.fileKey), maxBytes: MAX_MODEL_BYTES };
-    const options = job.options as unknown as AnalyseOptions;
+    // Freight is priced to the firm's default ship-to (the rate card's default zone without one).
+    const options: AnalyseOptions = { ...(job.options as unknown as AnalyseOptions), freightZone: await firmFreightZone(db, job.orgId, cat.rateCard) };
 
     // Progress writes are throttled: at most one every 400 ms, and never backwards.
     let lastWrite = 0;

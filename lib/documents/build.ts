@@ -5,6 +5,10 @@ import { getIssuedDocumentBySource, getTermsVersion } from "../../db/queries/iss
 import { listPartsWithAnalysis } from "../../db/queries/parts";
 import { orders, organisations, payments, quoteLines, quotes, refunds, requests } from "../../db/schema";
 import type { EstimateResult } from "../estimating/types";
+import { zoneFor } from "../estimating/freight";
+import { addressLines } from "../validation/address";
+import { getBillingAddress, getDefaultShipTo } from "../../db/queries/addresses";
+import { getCurrentRateCard, getRateCardById } from "../../db/queries/catalogue";
 import { bureauParty } from "./bureau";
 import type { BalanceInvoiceData, CreditNoteData, DepositInvoiceData, DocumentLine, DocumentTotals, PackingListData, Party, QuoteData } from "./types";
 
@@ -21,11 +25,29 @@ async function requestAndFirm(q: Q, requestId: string) {
     .innerJoin(organisations, eq(organisations.id, requests.orgId))
     .where(eq(requests.id, requestId));
   if (!row) throw new Error(`documents: request ${requestId} not found`);
-  return row;
+  const billing = await getBillingAddress(q, row.request.orgId);
+  return { ...row, firm: { ...row.firm, billing } };
 }
 
-function clientParty(firm: { name: string; billingContact: string | null; billingEmail: string | null }): Party {
-  return { name: firm.name, lines: [firm.billingContact, firm.billingEmail].filter((x): x is string => Boolean(x)) };
+type AddressLike = Parameters<typeof addressLines>[0];
+
+/** The firm as billed: contact, billing address (the order's copy when it has one), e-mail. */
+function clientParty(firm: { name: string; billingContact: string | null; billingEmail: string | null; billing: AddressLike | null }, billTo?: AddressLike | null): Party {
+  const address = billTo ?? firm.billing;
+  return { name: firm.name, lines: [firm.billingContact, ...(address ? addressLines(address) : []), firm.billingEmail].filter((x): x is string => Boolean(x)) };
+}
+
+function shipParty(a: (AddressLike & { label: string; zoneName?: string | null; deliveryNotes?: string | null; phone?: string | null }) | null | undefined, firmName: string, withZone = false): Party | null {
+  if (!a) return null;
+  const extra = [a.phone ? `Phone ${a.phone}` : null, a.deliveryNotes ? `Delivery: ${a.deliveryNotes}` : null, withZone && a.zoneName ? `Freight: ${a.zoneName}` : null];
+  return { name: `${firmName}, ${a.label}`, lines: [...addressLines(a), ...extra].filter((x): x is string => Boolean(x)) };
+}
+
+/** "No tax charged: …" for an order accepted under an exemption certificate. */
+export function taxNoteOf(ex: { certificateNumber: string; issuedBy: string; expiresOn: string } | null | undefined): string | null {
+  if (!ex) return null;
+  const until = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" }).format(new Date(ex.expiresOn));
+  return `No tax charged: the buyer holds tax-exemption certificate ${ex.certificateNumber} (issued by ${ex.issuedBy}, valid until ${until}), on file with the bureau.`;
 }
 
 /** The cautions of every part's analysis, de-duplicated, then the general one. */
@@ -59,6 +81,9 @@ export function taxIncluded(grossCents: number, orderTotalCents: number, orderTa
 export async function buildQuoteData(q: Q, quoteId: string, now: Date): Promise<QuoteData> {
   const { quote, lines } = await quoteWithLines(q, quoteId);
   const { request, firm } = await requestAndFirm(q, quote.requestId);
+  const defaultShipTo = await getDefaultShipTo(q, request.orgId);
+  const card = await (quote.rateCardId ? getRateCardById(q as Db, quote.rateCardId) : getCurrentRateCard(q as Db));
+  const zone = defaultShipTo && card?.params.freight ? zoneFor(card.params.freight, defaultShipTo.country, defaultShipTo.region) : null;
   const { cautions } = await cautionsFor(q, request.id);
   const terms = quote.termsVersion ? await getTermsVersion(q, quote.termsVersion) : null;
   return {
@@ -73,6 +98,7 @@ export async function buildQuoteData(q: Q, quoteId: string, now: Date): Promise<
     projectName: request.projectName,
     poNumber: null,
     cautions,
+    shipTo: defaultShipTo ? shipParty({ ...defaultShipTo, zoneName: zone?.name ?? null }, firm.name, true) : null,
     version: quote.version,
     validUntil: quote.validUntil?.toISOString() ?? null,
     shipDate: quote.shipDate?.toISOString() ?? null,
@@ -92,22 +118,31 @@ async function orderContext(q: Q, orderId: string) {
   const { request, firm } = await requestAndFirm(q, order.requestId);
   const { quote, lines } = await quoteWithLines(q, order.quoteId);
   const quoteDoc = await getIssuedDocumentBySource(q, "quote", quote.id);
-  return { order, request, firm, quote, lines, quoteNumber: quoteDoc?.number ?? null };
+  // An order whose figures moved from the quote's (freight to its ship-to, no tax) keeps its own.
+  const own = order.lines && order.subtotalCents !== null;
+  const orderLines: DocumentLine[] = own ? order.lines!.map((l) => ({ description: l.description, quantity: l.quantity, unitCents: l.unitCents, amountCents: l.amountCents })) : lines;
+  const totals: DocumentTotals = own
+    ? { subtotalCents: order.subtotalCents!, marginCents: order.marginCents ?? 0, taxBp: order.taxBp ?? 0, taxCents: order.taxCents ?? 0, totalCents: order.totalCents }
+    : quoteTotals(quote);
+  const shipTo = shipParty(order.shipTo, firm.name);
+  return { order, request, firm, quote, lines: orderLines, totals, quoteNumber: quoteDoc?.number ?? null, shipTo, taxNote: taxNoteOf(order.taxExemption), client: clientParty(firm, order.billTo) };
 }
 
 export async function buildDepositInvoiceData(q: Q, paymentId: string, now: Date): Promise<DepositInvoiceData> {
   const [payment] = await q.select().from(payments).where(eq(payments.id, paymentId));
   if (!payment || payment.kind !== "deposit") throw new Error(`documents: deposit payment ${paymentId} not found`);
-  const { order, request, firm, quote, quoteNumber } = await orderContext(q, payment.orderId);
+  const { order, request, quote, quoteNumber, totals: orderTotals, shipTo, taxNote, client } = await orderContext(q, payment.orderId);
   const { cautions } = await cautionsFor(q, request.id);
-  const tax = taxIncluded(payment.amountCents, order.totalCents, quote.taxCents);
+  const tax = taxIncluded(payment.amountCents, order.totalCents, orderTotals.taxCents);
   const share = order.totalCents > 0 ? Math.round((payment.amountCents / order.totalCents) * 100) : 0;
   return {
     kind: "deposit_invoice",
     issuedAt: (payment.paidAt ?? now).toISOString(),
     currency: payment.currency,
     bureau: bureauParty(),
-    client: clientParty(firm),
+    client,
+    shipTo,
+    taxNote,
     requestId: request.id,
     orgId: request.orgId,
     reference: request.reference,
@@ -119,7 +154,7 @@ export async function buildDepositInvoiceData(q: Q, paymentId: string, now: Date
     orderTotalCents: order.totalCents,
     depositBp: quote.depositBp,
     lines: [{ description: `Deposit, ${share}% of the order total on quotation ${quoteNumber ?? `v${quote.version}`}`, quantity: 1, unitCents: payment.amountCents - tax, amountCents: payment.amountCents - tax }],
-    totals: { subtotalCents: payment.amountCents - tax, marginCents: 0, taxBp: quote.taxBp, taxCents: tax, totalCents: payment.amountCents },
+    totals: { subtotalCents: payment.amountCents - tax, marginCents: 0, taxBp: orderTotals.taxBp, taxCents: tax, totalCents: payment.amountCents },
     paidAt: payment.paidAt?.toISOString() ?? null,
     paymentReference: payment.id.slice(0, 8).toUpperCase(),
     termsVersion: order.termsVersion,
@@ -127,7 +162,7 @@ export async function buildDepositInvoiceData(q: Q, paymentId: string, now: Date
 }
 
 export async function buildBalanceInvoiceData(q: Q, orderId: string, now: Date): Promise<BalanceInvoiceData> {
-  const { order, request, firm, quote, lines, quoteNumber } = await orderContext(q, orderId);
+  const { order, request, quote, lines, quoteNumber, totals, shipTo, taxNote, client } = await orderContext(q, orderId);
   const { cautions } = await cautionsFor(q, request.id);
   const deposits = await q.select().from(payments).where(and(eq(payments.orderId, orderId), eq(payments.kind, "deposit"), inArray(payments.status, ["paid", "partially_refunded", "refunded"])));
   const depositPayment = deposits[0] ?? null;
@@ -137,7 +172,9 @@ export async function buildBalanceInvoiceData(q: Q, orderId: string, now: Date):
     issuedAt: now.toISOString(),
     currency: order.currency,
     bureau: bureauParty(),
-    client: clientParty(firm),
+    client,
+    shipTo,
+    taxNote,
     requestId: request.id,
     orgId: request.orgId,
     reference: request.reference,
@@ -147,7 +184,7 @@ export async function buildBalanceInvoiceData(q: Q, orderId: string, now: Date):
     quoteNumber,
     quoteVersion: quote.version,
     lines,
-    totals: quoteTotals(quote),
+    totals,
     deposit: { invoiceNumber: depositDoc?.number ?? null, amountCents: order.depositCents, isPaid: Boolean(depositPayment) },
     balanceDueCents: order.balanceCents,
     dueText: "Due on receipt of this invoice (the parts have shipped).",
@@ -160,15 +197,16 @@ export async function buildCreditNoteData(q: Q, refundId: string, now: Date): Pr
   if (!refund) throw new Error(`documents: refund ${refundId} not found`);
   const [payment] = await q.select().from(payments).where(eq(payments.id, refund.paymentId));
   if (!payment) throw new Error(`documents: payment ${refund.paymentId} not found`);
-  const { order, request, firm, quote } = await orderContext(q, payment.orderId);
+  const { order, request, totals: orderTotals, client, taxNote } = await orderContext(q, payment.orderId);
   const invoice = payment.kind === "deposit" ? await getIssuedDocumentBySource(q, "deposit_invoice", payment.id) : await getIssuedDocumentBySource(q, "invoice", order.id);
-  const tax = taxIncluded(refund.amountCents, order.totalCents, quote.taxCents);
+  const tax = taxIncluded(refund.amountCents, order.totalCents, orderTotals.taxCents);
   return {
     kind: "credit_note",
     issuedAt: now.toISOString(),
     currency: payment.currency,
     bureau: bureauParty(),
-    client: clientParty(firm),
+    client,
+    taxNote,
     requestId: request.id,
     orgId: request.orgId,
     reference: request.reference,
@@ -179,12 +217,12 @@ export async function buildCreditNoteData(q: Q, refundId: string, now: Date): Pr
     paymentKind: payment.kind,
     reason: refund.reason,
     lines: [{ description: `Refund of the ${payment.kind} payment${invoice ? ` invoiced on ${invoice.number}` : ""}: ${refund.reason}`, quantity: 1, unitCents: refund.amountCents - tax, amountCents: refund.amountCents - tax }],
-    totals: { subtotalCents: refund.amountCents - tax, marginCents: 0, taxBp: quote.taxBp, taxCents: tax, totalCents: refund.amountCents },
+    totals: { subtotalCents: refund.amountCents - tax, marginCents: 0, taxBp: orderTotals.taxBp, taxCents: tax, totalCents: refund.amountCents },
   };
 }
 
 export async function buildPackingListData(q: Q, orderId: string, now: Date, unitsPref: "mm" | "in" = "mm"): Promise<PackingListData> {
-  const { order, request, firm } = await orderContext(q, orderId);
+  const { order, request, shipTo, client } = await orderContext(q, orderId);
   const { cautions, parts } = await cautionsFor(q, request.id);
   const items = parts.map(({ part, revision, analysis }) => {
     const r = analysis?.status === "done" ? (analysis.result as unknown as EstimateResult | null) : null;
@@ -204,7 +242,8 @@ export async function buildPackingListData(q: Q, orderId: string, now: Date, uni
     issuedAt: now.toISOString(),
     currency: order.currency,
     bureau: bureauParty(),
-    client: clientParty(firm),
+    client,
+    shipTo,
     requestId: request.id,
     orgId: request.orgId,
     reference: request.reference,

@@ -99,6 +99,15 @@ function Lines({ lines, currency }: { lines: DocumentLine[]; currency: string })
   );
 }
 
+function TaxNote({ note }: { note: string | null | undefined }) {
+  if (!note) return null;
+  return (
+    <View style={[s.section, { marginTop: 8 }]} wrap={false}>
+      <Text style={s.bold}>{note}</Text>
+    </View>
+  );
+}
+
 function Totals({ totals, currency, grandLabel, extra }: { totals: DocumentTotals; currency: string; grandLabel: string; extra?: { label: string; cents: number; strong?: boolean }[] }) {
   return (
     <View style={s.totals} wrap={false}>
@@ -113,7 +122,7 @@ function Totals({ totals, currency, grandLabel, extra }: { totals: DocumentTotal
         </View>
       ) : null}
       <View style={s.totalRow}>
-        <Text>Tax ({pct(totals.taxBp)})</Text>
+        <Text>{totals.taxBp === 0 && totals.taxCents === 0 ? "Tax (none)" : `Tax (${pct(totals.taxBp)})`}</Text>
         <Text>{formatCents(totals.taxCents, currency)}</Text>
       </View>
       <View style={s.grand}>
@@ -219,6 +228,7 @@ function Body({ d }: { d: DocumentData }) {
           <Meta items={[["Project", d.projectName], ["Request", d.reference], ["Quotation", d.quoteNumber ?? `version ${d.quoteVersion}`], ["Order total", formatCents(d.orderTotalCents, d.currency)], ["Terms of sale", d.termsVersion ? `version ${d.termsVersion}` : null]]} />
           <Lines lines={d.lines} currency={d.currency} />
           <Totals totals={d.totals} currency={d.currency} grandLabel="Deposit" extra={d.paidAt ? [{ label: "Amount due", cents: 0, strong: true }] : undefined} />
+          <TaxNote note={d.taxNote} />
           {d.paidAt ? <Text style={s.stamp}>{`PAID ${day(d.paidAt)} by card · payment ${d.paymentReference}`}</Text> : null}
           <View style={s.section}>
             <Text style={s.muted}>The balance is invoiced when the parts ship. Tax on this deposit is the order&apos;s tax in proportion to the amount.</Text>
@@ -239,6 +249,7 @@ function Body({ d }: { d: DocumentData }) {
               { label: "Balance due", cents: d.balanceDueCents, strong: true },
             ]}
           />
+          <TaxNote note={d.taxNote} />
           <View style={s.section}>
             <Text style={s.h2}>Payment</Text>
             <Text>{d.dueText}</Text>
@@ -254,6 +265,7 @@ function Body({ d }: { d: DocumentData }) {
           <Meta items={[["Project", d.projectName], ["Request", d.reference], ["Credits invoice", d.invoiceNumber], ["Payment", d.paymentKind]]} />
           <Lines lines={d.lines} currency={d.currency} />
           <Totals totals={d.totals} currency={d.currency} grandLabel="Credited" />
+          <TaxNote note={d.taxNote} />
           <View style={s.section}>
             <Text>The amount is returned to the card that paid; it usually appears within 5 to 10 working days.</Text>
           </View>
@@ -332,7 +344,9 @@ export function IssuedDocumentPdf({ data }: { data: DocumentData }) {
           </View>
         </View>
         <View style={s.row}>
-          <PartyBlock label={data.kind === "packing_list" ? "Deliver to" : data.kind === "quote" ? "Prepared for" : "Bill to"} party={data.client} />
+          {data.kind === "packing_list" && data.shipTo ? <PartyBlock label="Deliver to" party={data.shipTo} /> : null}
+          <PartyBlock label={data.kind === "packing_list" ? (data.shipTo ? "Customer" : "Deliver to") : data.kind === "quote" ? "Prepared for" : "Bill to"} party={data.client} />
+          {data.kind !== "packing_list" && data.shipTo ? <PartyBlock label={data.kind === "quote" ? "Freight priced to (your default ship-to)" : "Ship to"} party={data.shipTo} /> : null}
         </View>
         <Body d={data} />
       </Page>

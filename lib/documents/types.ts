@@ -43,6 +43,10 @@ interface Base {
   projectName: string;
   poNumber: string | null;
   cautions: string[];
+  /** Where the order ships (invoices, packing list) or where freight was priced to (quote). */
+  shipTo?: Party | null;
+  /** Why no tax is charged (a valid exemption certificate), printed under the totals. */
+  taxNote?: string | null;
 }
 
 export interface QuoteData extends Base {

@@ -34,6 +34,8 @@ export interface AnalyseOptions {
   toleranceMm?: number;
   /** STEP/IGES: indices of the bodies to print; all when absent. */
   bodies?: number[];
+  /** Destination zone of the rate card's freight table (the firm's default ship-to); the card's default when absent. */
+  freightZone?: string | null;
 }
 
 export interface AnalyseInput {
@@ -92,7 +94,7 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
   const choice = chooseStage({
     mesh, ms, cells: cat.cells, material, card, rules, plant, allowanceMm: t, quantity, printMode, wallsOverride,
     cellKey: o.cellKey, orientation, queue: input.queue ?? {}, now: input.now,
-    priceOptions: { sealingCoat: o.sealingCoat, vacuumTest: o.vacuumTest }, machining: mach,
+    priceOptions: { sealingCoat: o.sealingCoat, vacuumTest: o.vacuumTest, freightZone: o.freightZone }, machining: mach,
   }, warnings);
   const c = choice.chosen, bp = c.bp, cell = c.cell, plan = bp.layers, pr = c.pricing, sched = c.schedule;
   const h = bp.layerHeightMm, w = bp.beadWidthMm, z0 = c.sections.z0, layerCount = c.sections.layerCount;
@@ -189,6 +191,7 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
     totalCents: pr.totalCents,
     depositCents: pr.depositCents,
     balanceCents: pr.balanceCents,
+    ...(pr.crate ? { crate: pr.crate } : {}),
     validUntil,
     schedule: {
       queueHours,

@@ -166,6 +166,20 @@ export const defaultRateCard: RateCardParams = {
   sealingCoatCentsPerM2: 9_500, vacuumTestCents: 35_000,
   crateBaseCents: 25_000, crateCentsPerKg: 150, crateCentsPerM3: 9_000, cratePaddingMm: 100,
   freightBaseCents: 40_000, freightCentsPerKg: 120,
+  freight: {
+    // Zones and rates: demo values of the invented bureau, shipping from its one plant.
+    zones: [
+      { key: "zone-1", name: "Zone 1, plant region", regions: ["US-TX", "US-OK", "US-LA", "US-AR", "US-KS", "US-MO"], baseCents: 30_000, centsPerKg: 95, flatbedSurchargeCents: 85_000, transitDays: 2 },
+      { key: "zone-2", name: "Zone 2, central states", regions: ["US-NM", "US-CO", "US-NE", "US-IA", "US-IL", "US-MS", "US-AL", "US-TN", "US-KY", "US-IN", "US-WI", "US-MN", "US-SD", "US-ND"], baseCents: 42_000, centsPerKg: 130, flatbedSurchargeCents: 120_000, transitDays: 3 },
+      { key: "zone-3", name: "Zone 3, rest of the mainland", regions: ["US"], baseCents: 55_000, centsPerKg: 170, flatbedSurchargeCents: 165_000, transitDays: 5 },
+      { key: "zone-4", name: "Zone 4, Alaska, Hawaii, Canada and Mexico", regions: ["US-AK", "US-HI", "CA", "MX"], baseCents: 90_000, centsPerKg: 260, flatbedSurchargeCents: 240_000, transitDays: 8 },
+      { key: "zone-5", name: "Zone 5, overseas by sea", regions: ["*"], baseCents: 180_000, centsPerKg: 320, flatbedSurchargeCents: 400_000, transitDays: 30 },
+    ],
+    defaultZoneKey: "zone-3",
+    dimKgPerM3: 333,
+    crateTareKgPerM3: 45,
+    closedTrailer: { lengthMm: 15_900, widthMm: 2_490, heightMm: 2_690, maxKg: 20_000 },
+  },
   marginBp: 2_500, taxBp: 0, depositBp: 5_000,
   quoteValidityDays: 30, defaultAllowanceMm: 6.35,
   coolingHoursBase: 4, coolingHoursPerKg: 0.02, coolingHoursMax: 48,
@@ -175,5 +189,5 @@ export const defaultRateCard: RateCardParams = {
   shellNetWallMm: 12.7, ribSpacingMm: 400, ribBeads: 1, skinLayers: 3, maxBridgeMm: 60,
   plantTimeZone: "CST6CDT", shiftStartHour: 6,
   holidays: ["2026-12-24", "2026-12-25", "2026-12-31", "2027-01-01", "2027-05-31", "2027-07-05", "2027-09-06", "2027-11-25", "2027-11-26", "2027-12-24"],
-  source: "Rates, fees and lead times: our standard price list for 2027. Deposit: half on acceptance, the balance on shipment. Finish allowance 6.35 mm (0.25 in) and a machining stepover of 5–10 % of the cutter: usual practice for machined printed tools. Lifting caution from 23 kg: the load constant of the revised lifting equation; heavier parts are lifted with rated equipment. Shell: 12.7 mm (0.5 in) net wall after machining, a 400 mm rib grid one bead wide, 3-layer skins. A bead bridges about 3 bead widths (60 mm) unsupported; wider flat tops get support ribs. Plant calendar: Central time, first shift at 06:00, closed on the dates listed.",
+  source: "Rates, fees and lead times: our standard price list for 2027. Deposit: half on acceptance, the balance on shipment. Finish allowance 6.35 mm (0.25 in) and a machining stepover of 5–10 % of the cutter: usual practice for machined printed tools. Lifting caution from 23 kg: the load constant of the revised lifting equation; heavier parts are lifted with rated equipment. Shell: 12.7 mm (0.5 in) net wall after machining, a 400 mm rib grid one bead wide, 3-layer skins. A bead bridges about 3 bead widths (60 mm) unsupported; wider flat tops get support ribs. Plant calendar: Central time, first shift at 06:00, closed on the dates listed. Freight: per crate and per billable kg by destination zone; billable mass at 333 kg/m³; a crate no closed trailer takes goes on a flatbed at the zone's surcharge.",
 };

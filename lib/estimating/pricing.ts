@@ -1,3 +1,4 @@
+import { crateFor, freightTo, zoneByKey, type Crate, type FreightQuote } from "./freight";
 import { applyBp, roundCents } from "./money";
 import type { CostLine, RateCardParams } from "./types";
 
@@ -15,6 +16,8 @@ export interface PricingInput {
   crateSizeMm: [number, number, number];
   partMassKg: number;
   options: { sealingCoat?: boolean; vacuumTest?: boolean };
+  /** Destination zone key (the firm's default ship-to); the card's default zone when absent. */
+  freightZone?: string | null;
 }
 
 export interface Pricing {
@@ -25,6 +28,8 @@ export interface Pricing {
   totalCents: number;
   depositCents: number;
   balanceCents: number;
+  /** The crate and the freight it was priced with; absent on a card with no zone table. */
+  crate?: Crate & { freight: FreightQuote };
 }
 
 function line(key: string, label: string, quantity: number, unit: string, unitCents: number): CostLine {
@@ -51,12 +56,21 @@ export function price(inp: PricingInput, card: RateCardParams): Pricing {
   if (inp.options.vacuumTest) lines.push(line("vacuum-test", "Vacuum-integrity test", q, "part", card.vacuumTestCents));
   const crate = roundCents(card.crateBaseCents + card.crateCentsPerKg * inp.partMassKg + card.crateCentsPerM3 * crateM3);
   lines.push(line("crating", "Crating", q, "crate", crate));
-  const freight = roundCents(card.freightBaseCents + card.freightCentsPerKg * inp.partMassKg);
-  lines.push(line("freight", "Freight", q, "crate", freight));
+  const zone = card.freight ? zoneByKey(card.freight, inp.freightZone) : null;
+  let crateOut: Pricing["crate"];
+  if (card.freight && zone) {
+    const crate = crateFor(inp.crateSizeMm, inp.partMassKg, card.freight);
+    const fq = freightTo(crate, zone, card.freight);
+    crateOut = { ...crate, freight: fq };
+    lines.push(line("freight", `Freight to ${zone.name}${fq.flatbed ? " (flatbed, oversize)" : ""}`, q, "crate", fq.perCrateCents));
+  } else {
+    const freight = roundCents(card.freightBaseCents + card.freightCentsPerKg * inp.partMassKg);
+    lines.push(line("freight", "Freight", q, "crate", freight));
+  }
   const subtotalCents = lines.reduce((s, l) => s + l.amountCents, 0);
   const marginCents = applyBp(subtotalCents, card.marginBp);
   const taxCents = applyBp(subtotalCents + marginCents, card.taxBp);
   const totalCents = subtotalCents + marginCents + taxCents;
   const depositCents = applyBp(totalCents, card.depositBp);
-  return { lines, subtotalCents, marginCents, taxCents, totalCents, depositCents, balanceCents: totalCents - depositCents };
+  return { lines, subtotalCents, marginCents, taxCents, totalCents, depositCents, balanceCents: totalCents - depositCents, ...(crateOut ? { crate: crateOut } : {}) };
 }

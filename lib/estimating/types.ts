@@ -1,3 +1,4 @@
+import type { Crate, FreightQuote, FreightRules } from "./freight";
 /**
  * Shared plain-data types of the estimating engine. Pure TypeScript: no framework imports.
  * Units are in the names: Mm = millimetres, Kg = kilograms, S = seconds, Cents = integer money,
@@ -112,8 +113,11 @@ export interface RateCardParams {
   crateCentsPerM3: number;
   /** Padding around the part inside the crate, mm per side. */
   cratePaddingMm: number;
+  /** Freight when the card has no zone table (cards saved before freight by destination). */
   freightBaseCents: number;
   freightCentsPerKg: number;
+  /** Freight by destination: the zone table, dimensional weight and the closed trailer's limits. */
+  freight?: FreightRules;
   /** Margin on the subtotal, basis points. */
   marginBp: number;
   /** Tax on subtotal + margin, basis points. */
@@ -287,6 +291,8 @@ export interface EstimateResult {
   totalCents: number;
   depositCents: number;
   balanceCents: number;
+  /** The crate and its freight to the destination zone it was priced for (cards with a zone table). */
+  crate?: Crate & { freight: FreightQuote };
   validUntil: string;
   schedule: {
     queueHours: number;

@@ -1,3 +1,4 @@
+import { addressSchema } from "./address";
 import { z } from "zod";
 
 export const signInSchema = z.object({
@@ -28,6 +29,12 @@ export const signUpSchema = z.object({
     .max(200, "Use at most 200 characters.")
     .refine((p) => /[A-Za-z]/.test(p) && /[0-9]/.test(p), "Use letters and at least one digit."),
   unitsPref: z.enum(["mm", "in"]).default("mm"),
+  /** The firm's billing address; with `shipHere` it is also the first ship-to. */
+  address: addressSchema,
+  shipHere: z
+    .union([z.literal("on"), z.literal("true"), z.boolean()])
+    .optional()
+    .transform((v) => v === true || v === "on" || v === "true"),
 });
 export type SignUpInput = z.infer<typeof signUpSchema>;
 

@@ -128,6 +128,8 @@ export const acceptQuoteSchema = z.object({
   quoteId: z.string().min(1),
   poNumber: z.string().trim().min(1, "Enter your purchase order number.").max(60, "Use at most 60 characters.").regex(/^[\w ./#-]+$/, "Use letters, digits, spaces and . / # - _ only."),
   acceptTerms: z.literal(true, { error: "Accept the terms to go ahead." }),
+  /** One of the firm's shipping addresses, freight priced to it; the default ship-to when absent. */
+  shipToId: z.string().min(1, "Pick where the order ships.").max(64).optional(),
 });
 export type AcceptQuoteInput = z.input<typeof acceptQuoteSchema>;
 

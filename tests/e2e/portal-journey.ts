@@ -23,6 +23,10 @@ export async function signUp(page: Page, baseUrl: string, who: { name: string; f
   await page.getByLabel("Firm").fill(who.firm);
   await page.getByLabel("Work e-mail").fill(who.email);
   await page.getByLabel("Password").fill(who.password);
+  await page.getByLabel("Street address").fill("14 Quarry Lane");
+  await page.getByLabel("Town or city").fill("Fennick Cross");
+  await page.getByLabel("State").selectOption("KS");
+  await page.getByLabel("Postal code").fill("66002");
   await page.getByRole("button", { name: "Create account" }).click();
   await page.waitForURL((u) => u.pathname === "/portal", { timeout: 60_000 });
 }

@@ -9,6 +9,8 @@ import { fieldErrorsOf } from "@/lib/validation/form";
 import { setModelRetentionDays } from "@/db/queries/retention";
 import { RETENTION_DAYS_MAX, RETENTION_DAYS_MIN } from "@/lib/retention/policy";
 import { z } from "zod";
+import { getCurrentRateCard } from "@/db/queries/catalogue";
+import { freightRulesSchema } from "@/lib/validation/freight-zones";
 import { cellSchema, materialSchema, rateCardSchema, toCellParams, toMaterialParams, toRateCardParams } from "@/lib/validation/admin-catalogue";
 
 /** A refused edit leads with its first problem; every field's problems show beside it. */
@@ -43,7 +45,9 @@ export const saveCell = defineAction({ access: "admin:catalogue", input: anyReco
 
 /** A new rate card version; every constant the estimator uses, none negative. */
 export const saveRateCard = defineAction({ access: "admin:catalogue", input: anyRecord(rateCardSchema), invalid: refuse }, async (input, { user, db }) => {
-  const params = toRateCardParams(input);
+  // The generic form carries the card's flat fields; the freight table has its own form and stays as it was.
+  const current = await getCurrentRateCard(db);
+  const params = { ...toRateCardParams(input), ...(current?.params.freight ? { freight: current.params.freight } : {}) };
   if (params.coolingHoursMax < params.coolingHoursBase) throw new AppError("invalid_input", "The cooling cap is below the cooling base.", { coolingHoursMax: ["At least the cooling base."] });
   const r = await db.transaction(async (tx) => {
     const saved = await saveRateCardVersion(tx, params, user.id);
@@ -61,4 +65,18 @@ export const saveModelRetention = defineAction({ access: "admin:catalogue", inpu
   await setModelRetentionDays(db, { days: input.days, actorId: user.id, now: new Date() });
   revalidatePath("/admin/catalogue");
   return { days: input.days };
+});
+
+/** The destination zone table: a new rate card version with the table replaced, the rest kept. */
+export const saveFreightZones = defineAction({ access: "admin:catalogue", input: freightRulesSchema, invalid: refuse }, async (input, { user, db }) => {
+  const current = await getCurrentRateCard(db);
+  if (!current) throw new AppError("conflict", "There is no rate card to add the freight table to.");
+  const params = { ...current.params, freight: input };
+  const r = await db.transaction(async (tx) => {
+    const saved = await saveRateCardVersion(tx, params, user.id);
+    await writeAudit(tx, { actorId: user.id, action: "rate_card.version", entityType: "rate_card", entityId: saved.after.id, before: current.params.freight ?? null, after: { version: saved.after.version, freight: input } });
+    return saved.after;
+  });
+  revalidatePath("/admin/catalogue");
+  return { version: r.version };
 });

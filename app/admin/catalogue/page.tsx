@@ -8,6 +8,7 @@ import { getCurrentRateCard, listCurrentCells, listCurrentMaterials } from "@/db
 import { getBureauSettings } from "@/db/queries/retention";
 import { pagePermission } from "@/lib/auth/page-guard";
 import { RetentionForm } from "./_components/retention-form";
+import { FreightZonesForm } from "./_components/freight-zones-form";
 import { formatCents } from "@/lib/money";
 import { cellFormValues, rateCardFormValues } from "@/lib/validation/admin-catalogue";
 
@@ -27,6 +28,13 @@ export default async function CataloguePage() {
           <div className="mt-3">
             {card ? <ParamsForm kind="rateCard" idPrefix="rc" initial={rateCardFormValues(card.params)} /> : <p className="text-sm text-ink-500">No rate card yet.</p>}
           </div>
+        </Card>
+        <Card className="space-y-3">
+          <CardTitle>Freight by destination</CardTitle>
+          <p className="text-sm text-ink-600">
+            Estimates price each crate to the client&apos;s default ship-to; acceptance prices it again for the ship-to picked.
+          </p>
+          {card?.params.freight ? <FreightZonesForm initial={card.params.freight} /> : <p className="text-sm text-ink-500">This rate card has no zone table; freight is its flat base and rate per kg.</p>}
         </Card>
         <Card className="space-y-3">
           <CardTitle>Clients&apos; model files</CardTitle>

@@ -1,3 +1,4 @@
+import { firmFreightZone } from "@/lib/analysis/freight-zone";
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { getDb } from "@/db/client";
@@ -77,7 +78,7 @@ export const POST = withErrors(async (req: Request) => {
     // The worker fetches the file itself by a signed URL (valid while the job may wait its turn)
     // and checks its content, so this thread never holds the model's bytes.
     const url = await signedFileUrl(upload.fileKey, { expiresInS: 600 });
-    const result = await ticket.run({ remote: { url, maxBytes: MAX_MODEL_BYTES }, fileName: upload.fileName, options: body.options, catalogue, now: new Date() });
+    const result = await ticket.run({ remote: { url, maxBytes: MAX_MODEL_BYTES }, fileName: upload.fileName, options: { ...body.options, freightZone: await firmFreightZone(db, upload.orgId ?? user.orgId, catalogue.rateCard) }, catalogue, now: new Date() });
     return NextResponse.json(result, { headers: { "cache-control": "no-store" } });
   } catch (e) {
     // (A reservation's run is never refused for room, so no QueueFullError can arrive here.)

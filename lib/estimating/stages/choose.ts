@@ -39,7 +39,7 @@ export interface SearchInput {
   orientation?: Orientation;
   queue: Record<string, number>;
   now: Date;
-  priceOptions: { sealingCoat?: boolean; vacuumTest?: boolean };
+  priceOptions: { sealingCoat?: boolean; vacuumTest?: boolean; freightZone?: string | null };
   machining: MachiningPlan;
 }
 

@@ -4,6 +4,11 @@ import { listMembers } from "@/db/queries/members";
 import { getOrganisation } from "@/db/queries/organisations";
 import { getBureauSettings } from "@/db/queries/retention";
 import { BillingForm, InviteForm, RemoveMemberButton } from "@/components/portal/firm-forms";
+import { AddressBook } from "@/components/portal/address-book";
+import { listAddresses } from "@/db/queries/addresses";
+import { getCurrentRateCard } from "@/db/queries/catalogue";
+import { zoneFor } from "@/lib/estimating/freight";
+import { addressLines } from "@/lib/validation/address";
 import { Badge } from "@/components/ui/badge";
 import { Card, CardTitle, PageHeader } from "@/components/ui/card";
 import { pagePermission } from "@/lib/auth/page-guard";
@@ -17,7 +22,8 @@ export default async function FirmPage() {
   const user = await pagePermission("members:manage", "/portal/firm");
   if (!user.orgId) notFound();
   const db = getDb();
-  const [org, members, settings] = await Promise.all([getOrganisation(db, user.orgId), listMembers(db, user.orgId), getBureauSettings(db)]);
+  const [org, members, settings, addresses, card] = await Promise.all([getOrganisation(db, user.orgId), listMembers(db, user.orgId), getBureauSettings(db), listAddresses(db, user.orgId), getCurrentRateCard(db)]);
+  const rules = card?.params.freight ?? null;
   if (!org) notFound();
   return (
     <>
@@ -47,6 +53,23 @@ export default async function FirmPage() {
             cancelled, then deletes them from storage. Quotes, invoices, inspection reports and the order&apos;s record stay. On a closed
             order&apos;s page you can have its files deleted sooner.
           </p>
+        </Card>
+        <Card className="space-y-4" aria-label="Addresses">
+          <CardTitle>Addresses</CardTitle>
+          <p className="text-sm text-ink-600">
+            Estimates price crating and freight to your default ship-to; when you accept a quote you pick where the order ships, and
+            the freight is priced for that address.
+          </p>
+          <AddressBook
+            addresses={addresses.map((a) => {
+              const zone = a.kind === "shipping" && rules ? zoneFor(rules, a.country, a.region) : null;
+              return {
+                id: a.id, kind: a.kind, isDefault: a.isDefault, label: a.label, attention: a.attention ?? "", line1: a.line1, line2: a.line2 ?? "", city: a.city,
+                region: a.region ?? "", postalCode: a.postalCode, country: a.country, phone: a.phone ?? "", deliveryNotes: a.deliveryNotes ?? "",
+                lines: addressLines(a), zoneName: zone?.name ?? null, transitDays: zone?.transitDays ?? null,
+              };
+            })}
+          />
         </Card>
         <Card className="space-y-4">
           <CardTitle>Billing</CardTitle>

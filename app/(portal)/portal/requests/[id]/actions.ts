@@ -3,6 +3,8 @@
 import { revalidatePath } from "next/cache";
 import { getDb } from "@/db/client";
 import { writeAudit } from "@/db/queries/audit";
+import { snapshotOf } from "@/db/queries/addresses";
+import { acceptanceContext } from "@/lib/orders/acceptance";
 import { acceptQuoteAndCreateOrder, getLatestIssuedVersion, getQuoteWithRequest } from "@/db/queries/client-quotes";
 import { createDocument } from "@/db/queries/documents";
 import { getCurrentTerms } from "@/db/queries/issued-documents";
@@ -53,7 +55,24 @@ export async function acceptQuote(input: AcceptQuoteInput): Promise<ActionResult
     if ((await getLatestIssuedVersion(db, request.id)) !== quote.version) throw new AppError("conflict:quote", "A newer version of this quote replaces it; review the latest version.");
     if (request.stage !== "quoted") throw new AppError("conflict:stage", "This request is not waiting for a quote to be accepted.");
 
+    // Where it ships decides the freight; a valid tax exemption takes the tax off.
+    const ctx = await acceptanceContext(db, { quote, orgId: request.orgId, requestId: request.id, now });
+    if (ctx.shipTos.length === 0) {
+      throw new AppError("conflict:address", "Add a shipping address on your firm's page first: the order needs somewhere to ship, and the freight is priced to it.", { shipToId: ["Your firm has no shipping address yet."] });
+    }
+    const option = parsed.data.shipToId ? ctx.shipTos.find((o) => o.address.id === parsed.data.shipToId) : (ctx.shipTos.find((o) => o.address.isDefault) ?? ctx.shipTos[0]);
+    if (!option) throw new AppError("invalid_input", "Pick one of your firm's shipping addresses.", { shipToId: ["That address is not in your firm's address book."] });
+    const f = option.figures;
     const split = splitDeposit(quote.totalCents, quote.depositBp);
+    const quotedDeposit = quote.depositCents > 0 ? quote.depositCents : split.depositCents;
+    const totalCents = f.isChanged ? f.totalCents : quote.totalCents;
+    const depositCents = f.isChanged ? f.depositCents : quotedDeposit;
+    const extra = {
+      shipTo: snapshotOf(option.address, option.zone),
+      billTo: ctx.billing ? snapshotOf(ctx.billing) : null,
+      ...(f.isChanged ? { lines: f.lines, subtotalCents: f.subtotalCents, marginCents: f.marginCents, taxBp: f.taxBp, taxCents: f.taxCents } : {}),
+      taxExemption: ctx.exemption ? { certificateNumber: ctx.exemption.certificateNumber, issuedBy: ctx.exemption.issuedBy, expiresOn: ctx.exemption.expiresOn.toISOString() } : null,
+    };
     // The terms printed on the quote are the ones accepted; a quote from before versioned terms takes the current ones.
     const termsVersion = quote.termsVersion ?? (await getCurrentTerms(db))?.version ?? null;
     const order = await db.transaction(async (tx) => {
@@ -64,15 +83,19 @@ export async function acceptQuote(input: AcceptQuoteInput): Promise<ActionResult
         acceptedById: user.id,
         poNumber: parsed.data.poNumber,
         termsVersion,
-        totalCents: quote.totalCents,
-        depositCents: quote.depositCents > 0 ? quote.depositCents : split.depositCents,
-        balanceCents: quote.totalCents - (quote.depositCents > 0 ? quote.depositCents : split.depositCents),
+        totalCents,
+        depositCents,
+        balanceCents: totalCents - depositCents,
         currency: quote.currency,
         now,
+        extra,
       });
       if (!o) throw new AppError("conflict:quote", "This quote changed meanwhile; reload the page.");
-      await transitionStage(tx, { requestId: request.id, to: "accepted", actorId: user.id, note: `Quote v${quote.version} accepted, PO ${parsed.data.poNumber}`, expectedFrom: "quoted" });
-      await writeAudit(tx, { actorId: user.id, action: "quote.accept", entityType: "quote", entityId: quote.id, orgId: request.orgId, after: { poNumber: parsed.data.poNumber, totalCents: quote.totalCents, termsVersion } });
+      await transitionStage(tx, { requestId: request.id, to: "accepted", actorId: user.id, note: `Quote v${quote.version} accepted, PO ${parsed.data.poNumber}, ships to ${option.address.label}`, expectedFrom: "quoted" });
+      await writeAudit(tx, {
+        actorId: user.id, action: "quote.accept", entityType: "quote", entityId: quote.id, orgId: request.orgId,
+        after: { poNumber: parsed.data.poNumber, totalCents, quotedTotalCents: quote.totalCents, freightCents: f.freightCents, shipTo: option.address.label, freightZone: option.zone?.key ?? null, taxExempt: Boolean(ctx.exemption), termsVersion },
+      });
       return o;
     });
     const checkout = await openCheckout(db, { orderId: order.id, kind: "deposit", userId: user.id, email: user.email, appUrl: env().APP_URL }).catch((e: unknown) => {

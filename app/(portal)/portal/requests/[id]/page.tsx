@@ -1,6 +1,8 @@
 import type { Metadata } from "next";
 import { getDb } from "@/db/client";
-import { listClientQuotes } from "@/db/queries/client-quotes";
+import { getQuoteWithRequest, listClientQuotes } from "@/db/queries/client-quotes";
+import { acceptanceContext } from "@/lib/orders/acceptance";
+import { addressLines } from "@/lib/validation/address";
 import { listDocuments } from "@/db/queries/documents";
 import { listIssuedDocuments } from "@/db/queries/issued-documents";
 import { listMessages } from "@/db/queries/messages";
@@ -19,6 +21,7 @@ import { loadDraft, loadFormCatalogue } from "@/components/portal/request-form/l
 import { clientEstimateOf } from "@/lib/estimating/client-view";
 import { PartReview } from "@/components/portal/request-form/part-review";
 import { StageBadge } from "@/components/stage-badge";
+import { ShipToBlock } from "@/components/ship-to";
 import { RevisionUpload } from "@/components/portal/revision-upload";
 import { StageTimeline } from "@/components/portal/timeline";
 import { IssuedDocumentsList } from "@/components/issued-documents";
@@ -89,6 +92,10 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
     shipped: order?.plannedShip ?? acceptedQuote?.shipDate ?? quotes[0]?.shipDate ?? null,
   };
   const canPay = can(user, "payment:pay", { orgId: req.orgId, createdById: req.createdById });
+  const canAccept = can(user, "quote:accept", { orgId: req.orgId, createdById: req.createdById }) && req.stage === "quoted";
+  const open = canAccept ? quotes.find((q) => q.status === "issued") : undefined;
+  const openQuote = open ? (await getQuoteWithRequest(db, open.id))?.quote : undefined;
+  const acceptCtx = openQuote ? await acceptanceContext(db, { quote: openQuote, orgId: req.orgId, requestId: req.id, now: new Date() }) : null;
   const canRevise = (req.stage === "submitted" || req.stage === "quoted") && can(user, "request:edit_draft", { orgId: req.orgId, createdById: req.createdById });
   const checkout = sp.checkout === "success" || sp.checkout === "cancelled" ? sp.checkout : null;
 
@@ -140,6 +147,8 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
                 {canPay && (req.stage === "shipped" || req.stage === "delivered") && !paid("balance") && order.balanceCents > 0 ? (
                   <PayButton orderId={order.id} kind="balance" amountCents={order.balanceCents} currency={order.currency} />
                 ) : null}
+                <ShipToBlock shipTo={order.shipTo} />
+                {order.taxExemption ? <p className="text-sm text-tide-700">No tax: exemption certificate {order.taxExemption.certificateNumber} ({order.taxExemption.issuedBy}).</p> : null}
                 {order.carrier || order.trackingNumber ? (
                   <p className="text-sm">
                     Shipped with {order.carrier ?? "our carrier"}
@@ -155,8 +164,23 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
                 const doc = issued.find((d) => d.kind === "quote" && d.sourceId === q.id);
                 return { ...q, shipDate: iso(q.shipDate), issuedAt: iso(q.issuedAt), validUntil: iso(q.validUntil), pdf: doc ? { number: doc.number, url: documentUrl(doc.id) } : null };
               })}
-              canAccept={can(user, "quote:accept", { orgId: req.orgId, createdById: req.createdById }) && req.stage === "quoted"}
+              canAccept={canAccept}
               defaultPo={org?.defaultPoNumber ?? ""}
+              acceptance={
+                acceptCtx
+                  ? {
+                      shipTos: acceptCtx.shipTos.map((o) => ({
+                        id: o.address.id, label: o.address.label, lines: addressLines(o.address), isDefault: o.address.isDefault,
+                        zoneName: o.zone?.name ?? null, transitDays: o.zone?.transitDays ?? null,
+                        freightCents: o.figures.freightCents, taxCents: o.figures.isChanged ? o.figures.taxCents : (openQuote?.taxCents ?? 0),
+                        totalCents: o.figures.isChanged ? o.figures.totalCents : (openQuote?.totalCents ?? 0),
+                        depositCents: o.figures.isChanged ? o.figures.depositCents : (openQuote?.depositCents ?? 0),
+                      })),
+                      exemption: acceptCtx.exemption ? { certificateNumber: acceptCtx.exemption.certificateNumber, expiresOn: acceptCtx.exemption.expiresOn.toISOString() } : null,
+                      canManageAddresses: user.role === "client_admin",
+                    }
+                  : null
+              }
               now={new Date().toISOString()}
             />
 

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { ShipToBlock } from "@/components/ship-to";
 import { notFound } from "next/navigation";
 import { dateText, dateTimeText, hoursText, stageText } from "@/components/admin/format";
 import { ActualsForm, ScheduleForm, StageForm } from "@/components/admin/order-forms";
@@ -85,6 +86,9 @@ export default async function ProductionOrderPage({ params }: { params: Promise<
           </Alert>
         </div>
         <div className="min-w-0 space-y-4">
+          <Card>
+            <ShipToBlock shipTo={o.order.shipTo} />
+          </Card>
           <Card>
             <CardTitle>Actuals, inspection and shipping</CardTitle>
             <div className="mt-2">
