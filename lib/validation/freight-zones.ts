@@ -12,7 +12,7 @@ export const freightZoneSchema = z.object({
   key: z.string().trim().regex(/^[a-z0-9-]{1,40}$/, "Lower-case letters, digits and dashes."),
   name: z.string().trim().min(1, "Name the zone.").max(80),
   regions: z.array(region).min(1, "List at least one region."),
-  baseCents: cents("base charge"),
+  baseCents: cents("base price"),
   centsPerKg: cents("rate per kg"),
   flatbedSurchargeCents: cents("flatbed surcharge"),
   transitDays: z.number().int("Whole days.").min(0).max(120),

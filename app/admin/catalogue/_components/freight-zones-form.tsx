@@ -21,7 +21,7 @@ interface ZoneRow {
 const dollars = (cents: number) => (cents / 100).toFixed(2);
 
 /**
- * The rate card's destination zones: each zone's regions, base charge, rate per billable kg,
+ * The rate card's destination zones: each zone's regions, base price, rate per billable kg,
  * flatbed surcharge and transit days, plus dimensional weight, crate tare and the closed
  * trailer's limits. Saving adds a rate card version; quotes keep the version they were made with.
  */
