@@ -10,10 +10,10 @@ const config: Config = {
     extend: {
       colors: {
         paper: { 50: "#fbfaf7", 100: "#f4f1ea", 200: "#e8e3d7", 300: "#d6cfbf" },
-        ink: { 400: "#6b7480", 500: "#4d5662", 600: "#353d47", 700: "#242b33", 800: "#181d23", 900: "#0f1317" },
+        ink: { 400: "#5f6874", 500: "#4d5662", 600: "#353d47", 700: "#242b33", 800: "#181d23", 900: "#0f1317" },
         kiln: { 50: "#fdf2ea", 100: "#fadfcb", 400: "#e98a4c", 500: "#d9692a", 600: "#b9531d", 700: "#93401a" },
         tide: { 50: "#ecf6f5", 100: "#cfe9e6", 500: "#2c8a83", 600: "#22706a", 700: "#1b5853" },
-        signal: { warn: "#b7791f", danger: "#b42318", ok: "#2f7a3d" },
+        signal: { warn: "#8a5a0b", danger: "#b42318", ok: "#2f7a3d" },
       },
       fontFamily: {
         sans: ["var(--font-inter)", "ui-sans-serif", "system-ui", "sans-serif"],

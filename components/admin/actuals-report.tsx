@@ -21,7 +21,7 @@ export function ActualsReport() {
   if (!data || data.perOrder.length === 0) return <EmptyState title="No actuals recorded yet">Record print hours, kilograms and machining hours on an order to compare them here.</EmptyState>;
   return (
     <div className="space-y-6">
-      <div className="overflow-x-auto rounded-md bg-white ring-1 ring-paper-200">
+      <div tabIndex={0} className="focus-visible:outline-2 focus-visible:outline-ink-600 overflow-x-auto rounded-md bg-white ring-1 ring-paper-200">
         <table className="min-w-full text-sm" aria-label="Error per material">
           <thead className="bg-paper-100 text-left text-xs uppercase tracking-wide text-ink-500">
             <tr><th className="px-4 py-2">Material</th><th className="px-4 py-2">Print time error</th><th className="px-4 py-2">Mass error</th><th className="px-4 py-2">Machining error</th></tr>
@@ -38,7 +38,7 @@ export function ActualsReport() {
           </tbody>
         </table>
       </div>
-      <div className="overflow-x-auto rounded-md bg-white ring-1 ring-paper-200">
+      <div tabIndex={0} className="focus-visible:outline-2 focus-visible:outline-ink-600 overflow-x-auto rounded-md bg-white ring-1 ring-paper-200">
         <table className="min-w-full text-sm" aria-label="Actual against estimate per order">
           <thead className="bg-paper-100 text-left text-xs uppercase tracking-wide text-ink-500">
             <tr><th className="px-4 py-2">Order</th><th className="px-4 py-2">Material</th><th className="px-4 py-2">Print h (est → act)</th><th className="px-4 py-2">kg (est → act)</th><th className="px-4 py-2">Machining h (est → act)</th></tr>

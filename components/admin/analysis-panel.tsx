@@ -161,7 +161,7 @@ export function AnalysisPanel({ part, materialName }: { part: Part; materialName
             </p>
           ) : null}
           {alternatives.length ? (
-            <div className="overflow-x-auto">
+            <div tabIndex={0} className="focus-visible:outline-2 focus-visible:outline-ink-600 overflow-x-auto">
               <table
                 className="w-full text-left text-sm"
                 data-testid="analysis-alternatives"

@@ -45,7 +45,7 @@ export function CellCalendar({ cellKey, cellName, days = 21 }: { cellKey: string
           <Button variant="ghost" size="sm" onClick={() => setOffset((o) => o + 1)} aria-label={`${cellName}: later week`}>→</Button>
         </div>
       </div>
-      <div className="overflow-x-auto">
+      <div tabIndex={0} className="focus-visible:outline-2 focus-visible:outline-ink-600 overflow-x-auto">
         <div className="min-w-[44rem]">
           <div className="relative flex h-6 border-b border-paper-200 text-[10px] text-ink-400">
             <div className="sticky left-0 z-10 w-36 shrink-0 bg-white px-1 leading-6">Order</div>

@@ -159,7 +159,7 @@ export function DataTable<T>({
       ) : !isLoading && !hasAnyRows && !isFiltered ? (
         <EmptyState title={empty.title}>{empty.body}</EmptyState>
       ) : (
-        <div className="overflow-x-auto rounded-md bg-white ring-1 ring-paper-200">
+        <div tabIndex={0} className="focus-visible:outline-2 focus-visible:outline-ink-600 overflow-x-auto rounded-md bg-white ring-1 ring-paper-200">
           <table className="min-w-full text-sm" aria-label={label} aria-busy={isLoading || undefined}>
             <thead className="bg-paper-100 text-left text-xs uppercase tracking-wide text-ink-500">
               {table.getHeaderGroups().map((hg) => (

@@ -113,7 +113,7 @@ export function Landing({ cells: cellRows, materials: materialRows }: LandingCat
           <div>
             <h2 className="text-2xl font-semibold text-ink-900">Materials</h2>
             <p className="mt-2 text-sm text-ink-600">Fibre-filled thermoplastics, chosen for the cure your tool must survive.</p>
-            <div className="mt-6 overflow-x-auto rounded-md bg-white ring-1 ring-paper-200">
+            <div tabIndex={0} className="focus-visible:outline-2 focus-visible:outline-ink-600 mt-6 overflow-x-auto rounded-md bg-white ring-1 ring-paper-200">
               <table className="min-w-full text-sm">
                 <thead className="bg-paper-50 text-left text-xs uppercase tracking-wide text-ink-500">
                   <tr>

@@ -29,7 +29,7 @@ export function CostLines({
   currency?: string;
 }) {
   return (
-    <div className="overflow-x-auto">
+    <div tabIndex={0} className="focus-visible:outline-2 focus-visible:outline-ink-600 overflow-x-auto">
       <table className="min-w-full text-sm">
         {caption ? <caption className="sr-only">{caption}</caption> : null}
         <thead className="text-left text-xs uppercase tracking-wide text-ink-500">

@@ -22,7 +22,7 @@ export default async function OutboxPage() {
       {rows.length === 0 ? (
         <EmptyState title="No e-mail sent yet">Sign-in links, quotes and order news will appear here as they go out.</EmptyState>
       ) : (
-        <div className="overflow-x-auto rounded-md bg-white ring-1 ring-paper-200">
+        <div tabIndex={0} className="focus-visible:outline-2 focus-visible:outline-ink-600 overflow-x-auto rounded-md bg-white ring-1 ring-paper-200">
           <table className="min-w-full text-sm">
             <thead className="bg-paper-100 text-left text-xs uppercase tracking-wide text-ink-500">
               <tr>

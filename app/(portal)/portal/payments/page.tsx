@@ -23,7 +23,7 @@ export default async function PaymentsPage() {
       {rows.length === 0 ? (
         <EmptyState title="No payments yet">Deposits are paid by card when you accept a quote; the balance when the order ships.</EmptyState>
       ) : (
-        <div className="overflow-x-auto rounded-md bg-white ring-1 ring-paper-200">
+        <div tabIndex={0} className="focus-visible:outline-2 focus-visible:outline-ink-600 overflow-x-auto rounded-md bg-white ring-1 ring-paper-200">
           <table className="min-w-full text-sm">
             <thead className="bg-paper-100 text-left text-xs uppercase tracking-wide text-ink-500">
               <tr>

@@ -17,7 +17,7 @@ export default async function OutboxMessagePage({ params }: { params: Promise<{ 
       <Card className="p-0">
         {/* The message is shown in a sandboxed frame: no scripts, no access to this page. */}
         {/* E-mails are laid out 600 px wide: on a phone the preview scrolls inside its own frame, never clipped. */}
-        <div className="overflow-x-auto rounded-md">
+        <div tabIndex={0} className="focus-visible:outline-2 focus-visible:outline-ink-600 overflow-x-auto rounded-md">
           <iframe title="Rendered e-mail" sandbox="" srcDoc={message.html ?? `<pre>${message.text ?? ""}</pre>`} className="h-[70vh] w-full min-w-[640px] rounded-md" />
         </div>
       </Card>

@@ -16,7 +16,7 @@ export function UndeliveredEmails({ rows }: { rows: Row[] }) {
       <Alert tone="info" title="The e-mail service did not take these">
         Each is tried again with growing waits (1, 2, 4 … minutes, for about four hours). After that, or when the service refuses an e-mail outright, it shows as failed here until you send it again.
       </Alert>
-      <div className="overflow-x-auto rounded-md bg-white ring-1 ring-paper-200">
+      <div tabIndex={0} className="focus-visible:outline-2 focus-visible:outline-ink-600 overflow-x-auto rounded-md bg-white ring-1 ring-paper-200">
         <table className="min-w-full text-sm">
           <thead className="bg-paper-100 text-left text-xs uppercase tracking-wide text-ink-500">
             <tr>
