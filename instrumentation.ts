@@ -1,12 +1,29 @@
 /**
- * Next.js start-up and error hooks. `onRequestError` records every server error (render, route
- * handler, server action, proxy) as one structured log line with the request's id, path and
- * where it happened; the user sees error.tsx with the same digest.
+ * Next.js start-up and error hooks.
+ *
+ * `register` runs once when a server process starts. In production it checks the environment
+ * first and stops the process, naming each missing or refused variable, rather than serve with a
+ * published demo secret (exit code 78, "configuration error", which `npm start` does not retry).
+ * Then it gives Auth.js the app's own URL, so links are never built from a request's Host header,
+ * and starts the background work.
+ *
+ * `onRequestError` records every server error (render, route handler, server action, proxy) as one
+ * structured log line with the request's id, path and where it happened; the user sees error.tsx
+ * with the same digest.
  */
 import type { Instrumentation } from "next";
 
 export async function register() {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
+  const { env, isProductionRuntime, productionEnvProblems } = await import("./lib/env");
+  if (isProductionRuntime()) {
+    const problems = productionEnvProblems(process.env);
+    if (problems.length) {
+      console.error(`Layerwright will not start: the environment is not fit for production.\n${problems.map((p) => `  - ${p}`).join("\n")}`);
+      process.exit(78);
+    }
+  }
+  process.env.AUTH_URL ??= env().APP_URL;
   const { startBackgroundWork } = await import("./lib/observability/background");
   startBackgroundWork();
 }

@@ -1,15 +1,18 @@
 "use server";
 
 import { AuthError } from "next-auth";
+import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { createElement } from "react";
 import { getDb } from "@/db/client";
-import { getUserForSignIn } from "@/db/queries/auth";
+import { countAttempt, getUserForSignIn } from "@/db/queries/auth";
 import { createClientFirmWithAdmin, isEmailTaken } from "@/db/queries/organisations";
 import WelcomeEmail from "@/emails/welcome";
+import { clientAddress } from "@/lib/auth/client-address";
 import { signIn, signOut } from "@/lib/auth/config";
 import { hashPassword } from "@/lib/auth/password";
 import { homePathFor } from "@/lib/auth/policy";
+import { isOverLimit, SIGNUP_ADDRESS_RULE, SIGNUP_EMAIL_RULE } from "@/lib/auth/throttle";
 import { sendEmail } from "@/lib/email/send";
 import { env } from "@/lib/env";
 import type { ActionResult } from "@/lib/errors";
@@ -91,6 +94,14 @@ export async function signUp(_prev: FormResult, formData: FormData): Promise<For
   }
   const input = { ...parsed.data, email: parsed.data.email.toLowerCase() };
   const db = getDb();
+  // Every attempt counts, so the form cannot be used to try address after address.
+  const now = new Date();
+  const address = clientAddress(await headers());
+  const byEmail = await countAttempt(db, `signup:email:${input.email}`, SIGNUP_EMAIL_RULE, now);
+  const byAddress = address ? await countAttempt(db, `signup:addr:${address}`, SIGNUP_ADDRESS_RULE, now) : null;
+  if (isOverLimit(byEmail, SIGNUP_EMAIL_RULE) || (byAddress && isOverLimit(byAddress, SIGNUP_ADDRESS_RULE))) {
+    return { ok: false, code: "rate_limited", message: "Too many sign-up attempts. Please wait 15 minutes before trying again." };
+  }
   if (await isEmailTaken(db, input.email)) {
     return {
       ok: false,

@@ -1,7 +1,8 @@
-import { eq } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { memberships, signInAttempts, twoFactor, users } from "../schema";
-import type { ThrottleState } from "../../lib/auth/throttle";
+import type { ThrottleRule, ThrottleState } from "../../lib/auth/throttle";
+import type { Tx } from "./audit";
 
 /** The fields the session and the policy need; never the password hash. */
 export async function getSessionUser(db: Db, userId: string) {
@@ -14,6 +15,7 @@ export async function getSessionUser(db: Db, userId: string) {
       isControlledCleared: users.isControlledCleared,
       unitsPref: users.unitsPref,
       disabledAt: users.disabledAt,
+      sessionVersion: users.sessionVersion,
       orgId: memberships.orgId,
       twoFactorConfirmedAt: twoFactor.confirmedAt,
     })
@@ -46,4 +48,52 @@ export async function saveThrottle(db: Db, key: string, state: ThrottleState) {
 
 export async function clearThrottle(db: Db, key: string) {
   await db.delete(signInAttempts).where(eq(signInAttempts.key, key));
+}
+
+/**
+ * Count one attempt against `key` in one statement (an upsert with RETURNING), so parallel
+ * attempts each see their own number and none is lost: a fresh window starts at 1; the attempt
+ * that reaches `rule.maxFailures` locks the key for `rule.lockMs` (unless `lock` is false: the
+ * count alone then refuses attempts past the limit until the window ends); a lock in force is kept.
+ */
+export async function countAttempt(db: Db, key: string, rule: ThrottleRule, now: Date, { lock = true }: { lock?: boolean } = {}): Promise<ThrottleState> {
+  const nowMs = now.getTime();
+  const windowFrom = nowMs - rule.windowMs;
+  const lockUntil = lock ? nowMs + rule.lockMs : null;
+  const fresh = sql`${signInAttempts.windowStartedAt} < ${windowFrom}`;
+  const count = sql`CASE WHEN ${fresh} THEN 1 ELSE ${signInAttempts.failures} + 1 END`;
+  const [row] = await db
+    .insert(signInAttempts)
+    .values({ key, failures: 1, windowStartedAt: now, lockedUntil: lockUntil !== null && rule.maxFailures <= 1 ? new Date(lockUntil) : null })
+    .onConflictDoUpdate({
+      target: signInAttempts.key,
+      set: {
+        failures: count,
+        windowStartedAt: sql`CASE WHEN ${fresh} THEN ${nowMs} ELSE ${signInAttempts.windowStartedAt} END`,
+        lockedUntil: sql`CASE WHEN ${signInAttempts.lockedUntil} > ${nowMs} THEN ${signInAttempts.lockedUntil} WHEN ${count} >= ${rule.maxFailures} THEN ${lockUntil} ELSE NULL END`,
+      },
+    })
+    .returning({ failures: signInAttempts.failures, windowStartedAt: signInAttempts.windowStartedAt, lockedUntil: signInAttempts.lockedUntil });
+  return row!;
+}
+
+/** Take back one counted attempt (a sign-in that succeeded is not held against its address). */
+export async function uncountAttempt(db: Db, key: string) {
+  await db
+    .update(signInAttempts)
+    .set({ failures: sql`max(${signInAttempts.failures} - 1, 0)` })
+    .where(eq(signInAttempts.key, key));
+}
+
+/** End every session of a user (sign-out, password reset, role change, removal). */
+export async function bumpSessionVersion(db: Db | Tx, userId: string) {
+  await db
+    .update(users)
+    .set({ sessionVersion: sql`${users.sessionVersion} + 1` })
+    .where(eq(users.id, userId));
+}
+
+export async function getSessionVersion(db: Db, userId: string): Promise<number | null> {
+  const [row] = await db.select({ v: users.sessionVersion }).from(users).where(eq(users.id, userId));
+  return row ? row.v : null;
 }

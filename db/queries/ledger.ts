@@ -1,4 +1,5 @@
 import { and, asc, desc, eq, gte, inArray, lte, or, sql } from "drizzle-orm";
+import { containsText } from "./search";
 import type { Db } from "../client";
 import { orders, organisations, payments, refunds, requests, type PaymentStatus } from "../schema";
 import type { Tx } from "./audit";
@@ -48,7 +49,7 @@ function ledgerWhere(input: LedgerQuery) {
     input.status ? eq(payments.status, input.status) : undefined,
     input.kind ? eq(payments.kind, input.kind) : undefined,
     input.q
-      ? or(sql`${requests.reference} like ${"%" + input.q + "%"}`, sql`${organisations.name} like ${"%" + input.q + "%"}`, sql`${payments.paymentIntentId} like ${"%" + input.q + "%"}`)
+      ? or(containsText(requests.reference, input.q), containsText(organisations.name, input.q), containsText(payments.paymentIntentId, input.q))
       : undefined,
   );
 }

@@ -1,4 +1,4 @@
-import { and, count, eq, isNull, ne } from "drizzle-orm";
+import { and, count, eq, isNull, ne, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { invitations, memberships, organisations, users } from "../schema";
 import type { Tx } from "./audit";
@@ -46,7 +46,10 @@ export async function createInvitedMember(
 /** Remove a member: the membership goes and the account is disabled (its history stays). */
 export async function removeMember(tx: Tx, orgId: string, userId: string) {
   await tx.delete(memberships).where(and(eq(memberships.orgId, orgId), eq(memberships.userId, userId)));
-  await tx.update(users).set({ disabledAt: new Date() }).where(eq(users.id, userId));
+  await tx
+    .update(users)
+    .set({ disabledAt: new Date(), sessionVersion: sql`${users.sessionVersion} + 1` })
+    .where(eq(users.id, userId));
 }
 
 export async function updateBilling(db: Db | Tx, orgId: string, set: { billingContact: string | null; billingEmail: string | null; defaultPoNumber: string | null }) {

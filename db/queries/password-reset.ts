@@ -1,4 +1,4 @@
-import { and, eq, gt, isNull } from "drizzle-orm";
+import { and, eq, gt, isNull, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { passwordResetTokens, signInAttempts, users } from "../schema";
 
@@ -37,7 +37,8 @@ export async function consumePasswordResetToken(db: Db, input: { tokenHash: stri
     if (!claimed) return null;
     const [user] = await tx
       .update(users)
-      .set({ passwordHash: input.passwordHash })
+      // Every session signed in before the reset ends with it.
+      .set({ passwordHash: input.passwordHash, sessionVersion: sql`${users.sessionVersion} + 1` })
       .where(eq(users.id, claimed.userId))
       .returning({ email: users.email });
     if (!user) return null;

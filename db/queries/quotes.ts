@@ -1,4 +1,5 @@
 import { and, asc, desc, eq, inArray, ne, or, sql } from "drizzle-orm";
+import { containsText } from "./search";
 import type { Db } from "../client";
 import { analyses, fileRevisions, messages, organisations, orders, parts, quoteLines, quotes, requests, users, type QuoteStatus } from "../schema";
 import type { Tx } from "./audit";
@@ -187,7 +188,7 @@ export async function listQuotes(
   const page = Math.max(1, input.page ?? 1);
   const where = and(
     input.status ? eq(quotes.status, input.status) : undefined,
-    input.q ? or(sql`${requests.reference} like ${"%" + input.q + "%"}`, sql`${requests.projectName} like ${"%" + input.q + "%"}`, sql`${organisations.name} like ${"%" + input.q + "%"}`) : undefined,
+    input.q ? or(containsText(requests.reference, input.q), containsText(requests.projectName, input.q), containsText(organisations.name, input.q)) : undefined,
   );
   const col = { issuedAt: quotes.issuedAt, createdAt: quotes.createdAt, totalCents: quotes.totalCents, reference: requests.reference, status: quotes.status }[input.sort ?? "createdAt"];
   const rows = await db

@@ -1,4 +1,5 @@
 import { and, asc, count, desc, eq, inArray, like, or, sql, type SQL } from "drizzle-orm";
+import { containsText } from "./search";
 import type { Db } from "../client";
 import type { Stage } from "../schema/common";
 import { memberships, orders, organisations, parts, quotes, requests, stageEvents, users } from "../schema";
@@ -43,8 +44,7 @@ export async function listRequestsForScope(db: Db, scope: RequestScope, input: L
   if (input.stages?.length) where.push(inArray(requests.stage, input.stages));
   const q = input.search?.trim();
   if (q) {
-    const pattern = `%${q.replace(/[%_\\]/g, (c) => `\\${c}`)}%`;
-    where.push(or(like(requests.reference, pattern), like(requests.projectName, pattern), like(requests.notes, pattern))!);
+    where.push(or(containsText(requests.reference, q), containsText(requests.projectName, q), containsText(requests.notes, q))!);
   }
   const partCount = sql<number>`(select count(*) from ${parts} where ${parts.requestId} = ${requests.id})`;
   const latestQuoteTotal = sql<number | null>`(select ${quotes.totalCents} from ${quotes} where ${quotes.requestId} = ${requests.id} and ${quotes.status} in ('issued','accepted') order by ${quotes.version} desc limit 1)`;

@@ -37,8 +37,13 @@ export async function countOtherActiveAdmins(db: Db | Tx, exceptUserId: string) 
   return Number(row?.n ?? 0);
 }
 
+/** A change of role or of access also ends the member's sessions (they sign in again under the new terms). */
 export async function updateStaffUser(tx: Tx, userId: string, set: { role?: (typeof STAFF_ROLES)[number]; isControlledCleared?: boolean; disabledAt?: Date | null }) {
-  await tx.update(users).set(set).where(eq(users.id, userId));
+  const endsSessions = set.role !== undefined || set.disabledAt !== undefined;
+  await tx
+    .update(users)
+    .set({ ...set, ...(endsSessions ? { sessionVersion: sql`${users.sessionVersion} + 1` } : {}) })
+    .where(eq(users.id, userId));
 }
 
 export async function listPendingStaffInvitations(db: Db) {

@@ -16,6 +16,12 @@ export const users = sqliteTable(
     isControlledCleared: integer("is_controlled_cleared", { mode: "boolean" }).notNull().default(false),
     unitsPref: text("units_pref", { enum: ["mm", "in"] }).notNull().default("mm"),
     disabledAt: ts("disabled_at"),
+    /**
+     * Sessions carry the version they were signed in at; the guard refuses a session whose
+     * version is not the user's current one. Sign-out, a password reset, a role change and
+     * removal add one, so every session of the user ends at once.
+     */
+    sessionVersion: integer("session_version").notNull().default(0),
     createdAt: createdAt(),
   },
   (t) => [uniqueIndex("users_email_uq").on(t.email)],

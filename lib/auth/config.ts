@@ -2,15 +2,17 @@ import { DrizzleAdapter } from "@auth/drizzle-adapter";
 import NextAuth, { CredentialsSignin, type NextAuthConfig } from "next-auth";
 import Credentials from "next-auth/providers/credentials";
 import { createElement } from "react";
-import { z } from "zod";
 import { getDb } from "@/db/client";
-import { clearThrottle, getThrottle, getUserForSignIn, saveThrottle } from "@/db/queries/auth";
+import { countAttempt, getSessionVersion, getUserForSignIn } from "@/db/queries/auth";
 import { accounts, sessions, users, verificationTokens } from "@/db/schema";
 import MagicLinkEmail from "@/emails/magic-link";
 import { sendEmail } from "@/lib/email/send";
-import { verifyPassword } from "./password";
-import { checkSecondFactor, needsCodeToSignIn } from "./second-factor";
-import { ADDRESS_RULE, afterFailure, EMAIL_RULE, isLocked } from "./throttle";
+import { env } from "@/lib/env";
+import { clientAddress } from "./client-address";
+import { needsCodeToSignIn } from "./second-factor";
+import { checkPasswordSignIn } from "./sign-in";
+import { endSessionsOnSignOut } from "./sign-out";
+import { isOverLimit, LINK_EMAIL_RULE } from "./throttle";
 
 class LockedSignin extends CredentialsSignin {
   code = "locked";
@@ -24,46 +26,12 @@ class CodeInvalidSignin extends CredentialsSignin {
   code = "code_invalid";
 }
 
-const credentialsSchema = z.object({
-  email: z.email().max(320),
-  password: z.string().min(1).max(200),
-  code: z.string().max(40).optional(),
-});
-
-function clientAddress(request: Request | undefined): string {
-  const forwarded = request?.headers.get("x-forwarded-for")?.split(",")[0]?.trim();
-  return forwarded || request?.headers.get("x-real-ip") || "local";
-}
-
-/** Password check with per-e-mail and per-address throttling; says nothing of whether the e-mail exists. */
 async function authorizeCredentials(raw: unknown, request: Request | undefined) {
-  const parsed = credentialsSchema.safeParse(raw);
-  if (!parsed.success) return null;
-  const db = getDb();
-  const email = parsed.data.email.toLowerCase();
-  const now = new Date();
-  const emailKey = `email:${email}`;
-  const addressKey = `addr:${clientAddress(request)}`;
-  const [emailState, addressState] = await Promise.all([getThrottle(db, emailKey), getThrottle(db, addressKey)]);
-  if (isLocked(emailState, now) || isLocked(addressState, now)) throw new LockedSignin();
-
-  const user = await getUserForSignIn(db, email);
-  const ok = await verifyPassword(parsed.data.password, user?.passwordHash);
-  if (!ok || !user || user.disabledAt) {
-    await saveThrottle(db, emailKey, afterFailure(emailState, now, EMAIL_RULE));
-    await saveThrottle(db, addressKey, afterFailure(addressState, now, ADDRESS_RULE));
-    return null;
-  }
-  const secondFactor = await checkSecondFactor(db, user.id, parsed.data.code, now);
-  if (secondFactor === "missing") throw new CodeRequiredSignin();
-  if (secondFactor === "wrong") {
-    // A wrong code counts like a wrong password, so six digits can not be guessed at leisure.
-    await saveThrottle(db, emailKey, afterFailure(emailState, now, EMAIL_RULE));
-    await saveThrottle(db, addressKey, afterFailure(addressState, now, ADDRESS_RULE));
-    throw new CodeInvalidSignin();
-  }
-  await clearThrottle(db, emailKey);
-  return { id: user.id, email: user.email, name: user.name };
+  const result = await checkPasswordSignIn(getDb(), raw, clientAddress(request?.headers), new Date());
+  if (result.kind === "locked") throw new LockedSignin();
+  if (result.kind === "code_required") throw new CodeRequiredSignin();
+  if (result.kind === "code_invalid") throw new CodeInvalidSignin();
+  return result.kind === "ok" ? result.user : null;
 }
 
 export const authConfig = {
@@ -73,10 +41,13 @@ export const authConfig = {
     sessionsTable: sessions,
     verificationTokensTable: verificationTokens,
   }),
-  // Credentials sign-in needs JWT sessions; the guard reloads the user from the database on
-  // every request, so a changed role or a disabled account takes effect at once.
+  // Credentials sign-in needs JWT sessions. Each token carries the user's session version at
+  // sign-in (`sv`); the guard reloads the user on every request and refuses a token whose version
+  // is no longer the user's, so sign-out, a reset, a role change or a removal end it everywhere.
   session: { strategy: "jwt", maxAge: 8 * 60 * 60 },
-  trustHost: true,
+  secret: env().AUTH_SECRET,
+  // Whether to trust the Host header is the deployment's choice (AUTH_TRUST_HOST); links are
+  // built from AUTH_URL, which instrumentation.ts sets from APP_URL.
   pages: { signIn: "/sign-in", error: "/sign-in/problem", verifyRequest: "/sign-in/check-email" },
   providers: [
     Credentials({
@@ -87,15 +58,19 @@ export const authConfig = {
       id: "email",
       type: "email",
       name: "E-mail link",
-      from: process.env.EMAIL_FROM ?? "Ostrevane Additive Works <orders@ostrevane.example>",
+      from: env().EMAIL_FROM,
       maxAge: 15 * 60,
       options: {},
       async sendVerificationRequest({ identifier, url }) {
-        // Only existing accounts get a link; the page says the same either way.
-        const user = await getUserForSignIn(getDb(), identifier);
+        const db = getDb();
+        // The page says the same whatever happens here: only existing accounts get a link, and
+        // an address asked for too often in a quarter hour gets no more mail.
+        const count = await countAttempt(db, `link:email:${identifier.toLowerCase()}`, LINK_EMAIL_RULE, new Date());
+        if (isOverLimit(count, LINK_EMAIL_RULE)) return;
+        const user = await getUserForSignIn(db, identifier);
         if (!user || user.disabledAt) return;
         // A link would skip the second factor: staff and clients who turned it on sign in with password and code.
-        if (await needsCodeToSignIn(getDb(), user)) return;
+        if (await needsCodeToSignIn(db, user)) return;
         await sendEmail({
           to: identifier,
           subject: "Your Layerwright sign-in link",
@@ -117,14 +92,19 @@ export const authConfig = {
       return true;
     },
     async jwt({ token, user }) {
-      if (user?.id) token.sub = user.id;
+      if (user?.id) {
+        token.sub = user.id;
+        token.sv = (await getSessionVersion(getDb(), user.id)) ?? 0;
+      }
       return token;
     },
     async session({ session, token }) {
       if (token.sub) session.user.id = token.sub;
+      session.sessionVersion = typeof token.sv === "number" ? token.sv : -1;
       return session;
     },
   },
+  events: { signOut: endSessionsOnSignOut },
 } satisfies NextAuthConfig;
 
 export const { handlers, auth, signIn, signOut } = NextAuth(authConfig);

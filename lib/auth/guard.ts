@@ -4,7 +4,7 @@ import { getSessionUser } from "@/db/queries/auth";
 import type { Role } from "@/db/schema/common";
 import { AppError } from "@/lib/errors";
 import { canOpenFiles, canSee, hasPermission, type Permission, type PolicyResource, type PolicyUser } from "./policy";
-import { sessionUserId } from "./session";
+import { currentSession } from "./session";
 import { requiresTwoFactor } from "./two-factor";
 
 export interface CurrentUser extends PolicyUser {
@@ -17,14 +17,16 @@ export interface CurrentUser extends PolicyUser {
 
 /**
  * Who is signed in, loaded fresh from the database (cached for the request), whether or not they
- * have finished setting up what their role requires. Only the enrolment page and its actions use
- * this directly; everything else goes through `getCurrentUser`.
+ * have finished setting up what their role requires. Null when signed out, disabled, or when the
+ * session's version is no longer the user's (signed out elsewhere, password reset, role changed,
+ * removed). Only the enrolment page and its actions use this directly; everything else goes
+ * through `getCurrentUser`.
  */
 export const getSignedInUser = cache(async (): Promise<CurrentUser | null> => {
-  const id = await sessionUserId();
-  if (!id) return null;
-  const row = await getSessionUser(getDb(), id);
-  if (!row || row.disabledAt) return null;
+  const session = await currentSession();
+  if (!session) return null;
+  const row = await getSessionUser(getDb(), session.userId);
+  if (!row || row.disabledAt || row.sessionVersion !== session.sessionVersion) return null;
   return {
     id: row.id,
     name: row.name,

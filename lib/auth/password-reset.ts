@@ -1,12 +1,12 @@
 import { createHash, randomBytes } from "node:crypto";
 import { createElement } from "react";
 import type { Db } from "@/db/client";
-import { getThrottle, getUserForSignIn, saveThrottle } from "@/db/queries/auth";
+import { countAttempt, getUserForSignIn } from "@/db/queries/auth";
 import { consumePasswordResetToken, createPasswordResetToken } from "@/db/queries/password-reset";
 import PasswordResetEmail from "@/emails/password-reset";
 import type { SendEmailInput } from "@/lib/email/send";
 import { hashPassword } from "./password";
-import { afterFailure, isLocked, type ThrottleRule } from "./throttle";
+import { isOverLimit, type ThrottleRule } from "./throttle";
 
 /** A reset link works for 30 minutes (common practice for account recovery links). */
 export const RESET_TTL_MS = 30 * 60_000;
@@ -33,15 +33,14 @@ export type ResetRequestOutcome = "sent_if_known" | "throttled";
  */
 export async function requestPasswordReset(
   db: Db,
-  input: { email: string; address: string; appUrl: string; now: Date; send: (msg: SendEmailInput) => void | Promise<unknown> },
+  input: { email: string; address: string | null; appUrl: string; now: Date; send: (msg: SendEmailInput) => void | Promise<unknown> },
 ): Promise<ResetRequestOutcome> {
   const email = input.email.toLowerCase();
   const emailKey = `reset:email:${email}`;
-  const addressKey = `reset:addr:${input.address}`;
-  const [emailState, addressState] = await Promise.all([getThrottle(db, emailKey), getThrottle(db, addressKey)]);
-  if (isLocked(emailState, input.now) || isLocked(addressState, input.now)) return "throttled";
-  await saveThrottle(db, emailKey, afterFailure(emailState, input.now, RESET_EMAIL_RULE));
-  await saveThrottle(db, addressKey, afterFailure(addressState, input.now, RESET_ADDRESS_RULE));
+  // Counted atomically, so parallel requests cannot all pass on one stale count.
+  const emailCount = await countAttempt(db, emailKey, RESET_EMAIL_RULE, input.now);
+  const addressCount = input.address ? await countAttempt(db, `reset:addr:${input.address}`, RESET_ADDRESS_RULE, input.now) : null;
+  if (isOverLimit(emailCount, RESET_EMAIL_RULE) || (addressCount && isOverLimit(addressCount, RESET_ADDRESS_RULE))) return "throttled";
 
   const user = await getUserForSignIn(db, email);
   if (!user || user.disabledAt) return "sent_if_known";

@@ -6,20 +6,23 @@
  * request's cost on the list APIs. A token seen valid in the last `ttlMs` is trusted for that
  * long without asking again. What this may change, on purpose and bounded: a token is honoured up
  * to `ttlMs` past its own expiry if it was verified just before; the user is still reloaded from
- * the database on every request by the guard, so a disabled account or a new role apply at once.
+ * the database on every request by the guard, so a disabled account or a new role apply at once,
+ * and the cached session version is compared with the user's current one there, so a session
+ * ended (sign-out, reset, role change, removal) in any process is refused at once in every other.
  */
 export interface SessionCacheOptions {
   ttlMs: number;
   maxEntries: number;
 }
 
-interface Entry {
-  userId: string | null;
+interface Entry<V> {
+  value: V;
   untilMs: number;
 }
 
-export class SessionCache {
-  private readonly entries = new Map<string, Entry>();
+/** `V`: what Auth.js said of the token (`null` for no session). */
+export class SessionCache<V = string | null> {
+  private readonly entries = new Map<string, Entry<V>>();
 
   constructor(private readonly opts: SessionCacheOptions) {}
 
@@ -27,18 +30,18 @@ export class SessionCache {
     return this.entries.size;
   }
 
-  /** The user id verified for this token, `null` for a token verified as no session, `undefined` if unknown or stale. */
-  get(token: string, nowMs: number): string | null | undefined {
+  /** What was verified for this token, `undefined` if unknown or stale. */
+  get(token: string, nowMs: number): V | undefined {
     const entry = this.entries.get(token);
     if (!entry) return undefined;
     if (entry.untilMs <= nowMs) {
       this.entries.delete(token);
       return undefined;
     }
-    return entry.userId;
+    return entry.value;
   }
 
-  set(token: string, userId: string | null, nowMs: number): void {
+  set(token: string, value: V, nowMs: number): void {
     this.entries.delete(token);
     if (this.entries.size >= this.opts.maxEntries) {
       // Oldest first: a Map iterates in insertion order.
@@ -47,7 +50,7 @@ export class SessionCache {
         this.entries.delete(key);
       }
     }
-    this.entries.set(token, { userId, untilMs: nowMs + this.opts.ttlMs });
+    this.entries.set(token, { value, untilMs: nowMs + this.opts.ttlMs });
   }
 
   clear(): void {

@@ -7,7 +7,7 @@ import { spawn, type ChildProcess } from "node:child_process";
 import { existsSync, readFileSync, renameSync } from "node:fs";
 import path from "node:path";
 import { processorObjectsFor, type SeedProcessorRecord } from "../../db/seed-processor";
-import { LOCAL_UPLOADTHING_TOKEN } from "../uploads/token";
+import { demoSecrets } from "./demo-secrets";
 import { waitForHttp } from "./free-port";
 
 export const root = path.resolve(import.meta.dirname, "../..");
@@ -31,29 +31,33 @@ function demoPorts(base: string | undefined): StackPorts {
   return { app: n, stripe: n + 10, resend: n + 20, uploads: n + 30 };
 }
 
-/** Environment that points every service at the local fakes. */
+/**
+ * Environment that points every service at the local fakes, with the data folder's own random
+ * secrets (demo-secrets.ts): the app runs in production mode and would refuse published ones.
+ */
 export function stackEnv(ports: StackPorts, dataDir: string, extra: Record<string, string> = {}, host = "localhost"): Record<string, string> {
   const appUrl = `http://${host}:${ports.app}`;
+  const secrets = demoSecrets(dataDir, appUrl);
   return {
     NODE_ENV: "production",
     APP_URL: appUrl,
-    // Auth.js builds its links from this; without it `next start` reports its host as localhost.
+    // Auth.js builds its links from this, never from a request's Host header.
     AUTH_URL: appUrl,
     AUTH_TRUST_HOST: "true",
-    AUTH_SECRET: process.env.AUTH_SECRET ?? "layerwright-local-demo-secret-change-me",
+    AUTH_SECRET: secrets.AUTH_SECRET,
     DATA_DIR: dataDir,
     DATABASE_URL: `file:${path.join(dataDir, "layerwright.db")}`,
-    STRIPE_SECRET_KEY: "sk_test_layerwright_local",
-    STRIPE_WEBHOOK_SECRET: "whsec_layerwright_local",
+    STRIPE_SECRET_KEY: secrets.STRIPE_SECRET_KEY,
+    STRIPE_WEBHOOK_SECRET: secrets.STRIPE_WEBHOOK_SECRET,
     STRIPE_API_HOST: "127.0.0.1",
     STRIPE_API_PORT: String(ports.stripe),
     STRIPE_API_PROTOCOL: "http",
     STRIPE_FAKE_PORT: String(ports.stripe),
     STRIPE_FAKE_WEBHOOK_URL: `${appUrl}/api/webhooks/stripe`,
-    RESEND_API_KEY: "re_layerwright_local",
+    RESEND_API_KEY: secrets.RESEND_API_KEY,
     RESEND_BASE_URL: `http://127.0.0.1:${ports.resend}`,
     RESEND_FAKE_PORT: String(ports.resend),
-    UPLOADTHING_TOKEN: LOCAL_UPLOADTHING_TOKEN,
+    UPLOADTHING_TOKEN: secrets.UPLOADTHING_TOKEN,
     UPLOADTHING_API_URL: `http://127.0.0.1:${ports.uploads}`,
     UPLOADTHING_INGEST_URL: `http://127.0.0.1:${ports.uploads}`,
     UPLOADTHING_CALLBACK_URL: `${appUrl}/api/uploadthing`,

@@ -38,10 +38,26 @@ export const signUpSchema = z.object({
 });
 export type SignUpInput = z.infer<typeof signUpSchema>;
 
-/** Only same-site relative paths may be used as a post-sign-in destination. */
+const PROBE_ORIGIN = "http://layerwright.invalid";
+
+/**
+ * Only a path on this site may be a post-sign-in destination. Browsers drop tabs and line breaks
+ * from a URL and read a backslash as a slash, so `/<tab>/host` or `/<backslash>host` would leave
+ * the site: any control character, white space or backslash is refused, and what remains must
+ * resolve to our own origin.
+ * Returns the normalised path (with query and fragment), or null.
+ */
 export function safeCallbackPath(value: string | undefined | null): string | null {
-  if (!value || !value.startsWith("/") || value.startsWith("//") || value.includes("\\")) return null;
-  return value;
+  if (!value || value.length > 500 || !value.startsWith("/") || value.startsWith("//")) return null;
+  if (/[\u0000-\u0020\u007f-\u00a0\u2028\u2029\\]/.test(value)) return null;
+  let url: URL;
+  try {
+    url = new URL(value, PROBE_ORIGIN);
+  } catch {
+    return null;
+  }
+  if (url.origin !== PROBE_ORIGIN) return null;
+  return url.pathname + url.search + url.hash;
 }
 
 /** A code typed to confirm the authenticator app (six digits; spaces allowed). */

@@ -192,4 +192,17 @@ describe("Stripe webhook", () => {
     expect((await paymentRow()).status).toBe("pending");
     expect(await stageOf()).toBe("accepted");
   });
+
+  it("ten parallel deliveries of one event: all answered 200, taken once", async () => {
+    await resetCase();
+    const movesBefore = await depositEvents();
+    const ev = sessionEvent("checkout.session.completed");
+    const answers = await Promise.all(Array.from({ length: 10 }, () => deliver(ev)));
+    expect(answers.map((a) => a.status)).toEqual(Array(10).fill(200));
+    expect(answers.filter((a) => a.body.outcome === "paid_stage_moved")).toHaveLength(1);
+    expect(answers.filter((a) => a.body.outcome === "duplicate")).toHaveLength(9);
+    // Earlier cases moved the same order too: only this event's move is new.
+    expect((await depositEvents()) - movesBefore).toBe(1);
+    expect((await db.select().from(webhookEvents).where(eq(webhookEvents.id, ev.id))).length).toBe(1);
+  });
 });

@@ -4,6 +4,7 @@ import { after } from "next/server";
 import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { getDb } from "@/db/client";
+import { clientAddress } from "@/lib/auth/client-address";
 import { completePasswordReset, requestPasswordReset } from "@/lib/auth/password-reset";
 import { sendEmail } from "@/lib/email/send";
 import { env } from "@/lib/env";
@@ -14,10 +15,6 @@ import { fieldErrorsOf, formField as field } from "@/lib/validation/form";
 type FormResult = ActionResult<undefined> | null;
 
 
-async function clientAddress(): Promise<string> {
-  const h = await headers();
-  return h.get("x-forwarded-for")?.split(",")[0]?.trim() || h.get("x-real-ip") || "local";
-}
 
 
 export async function requestPasswordResetAction(_prev: FormResult, formData: FormData): Promise<FormResult> {
@@ -25,7 +22,7 @@ export async function requestPasswordResetAction(_prev: FormResult, formData: Fo
   if (!parsed.success) return { ok: false, code: "invalid_input", message: "Check the highlighted fields.", fieldErrors: fieldErrorsOf(parsed.error) };
   const outcome = await requestPasswordReset(getDb(), {
     email: parsed.data.email,
-    address: await clientAddress(),
+    address: clientAddress(await headers()),
     appUrl: env().APP_URL,
     now: new Date(),
     // Sent after the answer, so known and unknown addresses take the same time to answer.

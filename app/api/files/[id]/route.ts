@@ -2,6 +2,7 @@ import { getDb } from "@/db/client";
 import { writeAudit } from "@/db/queries/audit";
 import { findStoredFile } from "@/db/queries/files";
 import { getFileRetention } from "@/db/queries/retention";
+import { clientAddress } from "@/lib/auth/client-address";
 import { requireUser, type CurrentUser } from "@/lib/auth/guard";
 import { canOpenFiles, isStaff } from "@/lib/auth/policy";
 import { withErrors } from "@/lib/auth/route";
@@ -33,7 +34,7 @@ export const GET = withErrors(async (req: Request, ctx: { params: Promise<{ id: 
   const { id } = await ctx.params;
   const db = getDb();
   const file = id.length <= 64 ? await findStoredFile(db, id) : null;
-  const ip = req.headers.get("x-forwarded-for")?.split(",")[0]?.trim() ?? null;
+  const ip = clientAddress(req.headers);
   if (!file || !mayOpen(user, file)) {
     await writeAudit(db, { actorId: user.id, action: "file.download_refused", entityType: "file", entityId: id.slice(0, 64), orgId: file?.orgId ?? null, ip });
     throw new AppError("not_found:file", "That file was not found.");
