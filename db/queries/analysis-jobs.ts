@@ -55,7 +55,7 @@ export async function listStrandedAnalyses(db: Db, now: Date, queuedGraceMs: num
 /** What a job needs to run: its file and options. */
 export async function getAnalysisJob(db: Db, id: string) {
   const [row] = await db
-    .select({ id: analyses.id, status: analyses.status, attempts: analyses.attempts, options: analyses.options, revisionId: analyses.revisionId, fileKey: fileRevisions.fileKey, fileName: fileRevisions.fileName, orgId: requests.orgId })
+    .select({ id: analyses.id, status: analyses.status, attempts: analyses.attempts, options: analyses.options, revisionId: analyses.revisionId, fileKey: fileRevisions.fileKey, fileName: fileRevisions.fileName, orgId: requests.orgId, ownerId: fileRevisions.uploadedById })
     .from(analyses)
     .innerJoin(fileRevisions, eq(fileRevisions.id, analyses.revisionId))
     .innerJoin(parts, eq(parts.id, fileRevisions.partId))

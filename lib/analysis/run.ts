@@ -1,3 +1,4 @@
+import "server-only";
 import type { Db } from "../../db/client";
 import { firmFreightZone } from "./freight-zone";
 import { claimAnalysis, getAnalysisJob, listStrandedAnalyses, renewAnalysisLease, requeueAnalysis, resetFailedAnalysis, setRevisionSha256 } from "../../db/queries/analysis-jobs";
@@ -5,7 +6,7 @@ import { loadCatalogue } from "../../db/queries/catalogue";
 import { createAnalysis, getAnalysis, updateAnalysis } from "../../db/queries/parts";
 import type { AnalyseOptions } from "../estimating/analyse";
 import { isEstimateInputError } from "../estimating/errors";
-import { EstimateJobError, getEstimatePool, QueueFullError, type EstimatePool, type QueuePlace } from "../estimating/pool";
+import { EstimateJobError, getEstimatePool, OwnerBusyError, QueueFullError, type EstimatePool, type QueuePlace } from "../estimating/pool";
 import { errorFields, logFor } from "../observability/log";
 import { signedFileUrl } from "../uploads/uploadthing";
 
@@ -153,15 +154,20 @@ async function runOnce(db: Db, analysisId: string, deps: RunDeps): Promise<Outco
       pending = pending.then(() => updateAnalysis(db, analysisId, { stageLabel: label })).catch(() => {});
     };
 
+    // Counted against the uploader's share of the estimator with their estimates and previews:
+    // while their other jobs run, this one waits its turn (each job has a time limit, so it comes).
     let result;
-    for (let attempt = 0; ; attempt++) {
+    for (let full = 0, yours = 0; ; ) {
       try {
-        result = await pool.run({ remote, fileName: job.fileName, options, catalogue: cat, now: now() }, onProgress, { lane: job.orgId, onPlace });
+        result = await pool.run({ remote, fileName: job.fileName, options, catalogue: cat, now: now() }, onProgress, { lane: job.orgId, owner: job.ownerId ?? undefined, onPlace });
         break;
       } catch (e) {
-        if (e instanceof QueueFullError && attempt < 5) {
-          await updateAnalysis(db, analysisId, { stageLabel: "Waiting for the estimator" });
-          await new Promise((r) => setTimeout(r, deps.retryDelayMs ? deps.retryDelayMs(e.retryAfterS) : e.retryAfterS * 1000));
+        // The user's own jobs end within the pool's time limit each: look again every second.
+        const busy = e instanceof QueueFullError ? full++ < 5 : e instanceof OwnerBusyError ? yours++ < 600 : false;
+        if (busy) {
+          const wait = e instanceof OwnerBusyError ? 1 : (e as QueueFullError).retryAfterS;
+          await updateAnalysis(db, analysisId, { stageLabel: e instanceof OwnerBusyError ? "Waiting for your other estimates to finish" : "Waiting for the estimator" });
+          await new Promise((r) => setTimeout(r, deps.retryDelayMs ? deps.retryDelayMs(wait) : wait * 1000));
           continue;
         }
         throw e;
@@ -186,7 +192,7 @@ async function runOnce(db: Db, analysisId: string, deps: RunDeps): Promise<Outco
       const retryable = e.code === "worker-failed" || e.code === "storage";
       return { kind: retryable ? "retry" : "failed", code: `job:${e.code}`, message: e.message };
     }
-    if (e instanceof QueueFullError) return { kind: "retry", code: "busy", message: "The estimator is busy; save the draft again in a minute to retry." };
+    if (e instanceof QueueFullError || e instanceof OwnerBusyError) return { kind: "retry", code: "busy", message: "The estimator is busy; save the draft again in a minute to retry." };
     logFor({ analysisId }).error({ ...errorFields(e), event: "analysis.error" }, "analysis failed");
     return { kind: "retry", code: "internal", message: "The analysis could not run; please try again, or ask us to look at the file." };
   }

@@ -25,4 +25,12 @@ export const LIMITS = {
   maxZipRatio: 1000,
   /** Largest coordinate magnitude accepted, mm (100 km: anything beyond is a broken file). */
   maxCoordinate: 1e8,
+  /**
+   * Most object instances a file's component graph may expand to (3MF components and build
+   * items; STEP assembly occurrences and mapped items), counted before anything is tessellated.
+   * Nested instancing multiplies: ten components ten deep is ten billion instances from a file of
+   * about a kilobyte. Our own bound, not a standard: well above a large-format build plate or an
+   * assembly sent for quoting (hundreds of parts), far below what would hold a worker for minutes.
+   */
+  maxComponentInstances: 10_000,
 } as const;

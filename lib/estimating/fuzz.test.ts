@@ -112,6 +112,23 @@ describe("fuzzing the readers", () => {
     expect(await outcome(zipSync({ "3D/3dmodel.model": strToU8('<model unit="parsec"></model>') }), "g.3mf")).toBe("3mf:bad-unit");
   });
 
+  it("3MF components nested ten by ten, twelve deep (about a kilobyte, 10^12 instances), are refused before tessellating", async () => {
+    // Each level holds ten copies of the next; the innermost is empty, so no triangle limit is
+    // ever reached: only a bound on the instances the graph expands to stops it.
+    const levels = Array.from({ length: 12 }, (_, i) => `<object id="${i + 2}"><components>${`<component objectid="${i + 3}"/>`.repeat(10)}</components></object>`).join("");
+    const leaf = `<object id="14"><components></components></object>`;
+    const mesh = '<object id="1"><mesh><vertices><vertex x="0" y="0" z="0"/><vertex x="1" y="0" z="0"/><vertex x="0" y="1" z="0"/><vertex x="0" y="0" z="1"/></vertices><triangles><triangle v1="0" v2="2" v3="1"/><triangle v1="0" v2="1" v3="3"/><triangle v1="0" v2="3" v3="2"/><triangle v1="1" v2="2" v3="3"/></triangles></mesh></object>';
+    const bomb = zipSync({ "3D/3dmodel.model": strToU8(`<model unit="millimeter"><resources>${mesh}${levels}${leaf}</resources><build><item objectid="1"/><item objectid="2"/></build></model>`) });
+    expect(bomb.length).toBeLessThan(2048);
+    const t = Date.now();
+    expect(await outcome(bomb, "nested.3mf")).toBe("3mf:too-many-instances");
+    expect(Date.now() - t).toBeLessThan(5_000);
+    // A plate of 400 copies (20 × 20 by components) of one part is an ordinary file and reads.
+    const plate = zipSync({ "3D/3dmodel.model": strToU8(`<model unit="millimeter"><resources>${mesh}<object id="2"><components>${'<component objectid="1"/>'.repeat(20)}</components></object><object id="3"><components>${'<component objectid="2"/>'.repeat(20)}</components></object></resources><build><item objectid="3"/></build></model>`) });
+    expect(await outcome(plate, "plate.3mf")).toBe("ok");
+    expect((await readModel(plate, "plate.3mf")).mesh.triangleCount).toBe(400 * 4);
+  }, 60_000);
+
   it("an unterminated attribute quote in a large 3MF model costs bounded time", async () => {
     const junk = "<vertex x=\"" + "1".repeat(200_000) + " <vertex y=\"".repeat(2000);
     const zip = zipSync({ "3D/3dmodel.model": strToU8(`<model><resources><object id="1"><mesh><vertices>${junk}`) });

@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { binaryStl, box } from "../../mocks/fixtures/meshes";
 import type { AnalyseInput } from "./analyse";
 import { defaultCells, defaultMaterials, defaultRateCard } from "./defaults";
-import { EstimatePool, type QueuePlace } from "./pool";
+import { EstimatePool, OwnerBusyError, type QueuePlace } from "./pool";
 
 const root = path.resolve(import.meta.dirname, "../..");
 const workerPath = path.join(root, ".worker", "estimate-worker.mjs");
@@ -47,4 +47,26 @@ describe("the estimate pool serves firms in turn", () => {
     for (const r of [...held, other]) if (!("reason" in r)) r.release();
     expect("reason" in pool.tryReserve("lead-a", "firm-a")).toBe(false);
   });
+
+  it("one user's share counts every kind of job: an estimate held and a preview running refuse a third of either kind", async () => {
+    const pool = new EstimatePool({ workerPath, size: 1, maxQueue: 8, maxPerOwner: 2 });
+    pools.push(pool);
+    const bytes = binaryStl(box(40, 30, 20));
+    const estimate = pool.tryReserve("user-a", "firm-a");
+    expect("reason" in estimate).toBe(false);
+    const preview = pool.read({ bytes, fileName: "part.stl", options: {} }, { owner: "user-a", lane: "firm-a" });
+    // A third job of any kind is refused with the user's own reason, before it costs anything.
+    await expect(pool.read({ bytes, fileName: "part.stl", options: {} }, { owner: "user-a", lane: "firm-a" })).rejects.toBeInstanceOf(OwnerBusyError);
+    await expect(pool.run(input(bytes), undefined, { owner: "user-a", lane: "firm-a" })).rejects.toBeInstanceOf(OwnerBusyError);
+    expect(pool.tryReserve("user-a", "firm-a")).toMatchObject({ reason: "owner" });
+    // Another user of the same firm is not held by it.
+    const colleague = pool.read({ bytes, fileName: "part.stl", options: {} }, { owner: "user-b", lane: "firm-a" });
+    expect((await preview).triangles).toBe(12);
+    expect((await colleague).triangles).toBe(12);
+    // With the preview done, the share has room again; a released reservation gives its place back.
+    const next = pool.run(input(bytes), undefined, { owner: "user-a", lane: "firm-a" });
+    if (!("reason" in estimate)) estimate.release();
+    expect("reason" in pool.tryReserve("user-a", "firm-a")).toBe(false);
+    await next;
+  }, 180_000);
 });

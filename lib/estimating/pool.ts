@@ -16,6 +16,20 @@ export class QueueFullError extends Error {
 }
 
 /**
+ * This owner (a user) already has their share of jobs in the pool, whichever route started them
+ * (an estimate, an analysis, a mesh preview): the caller should answer 429 with `retryAfterS`,
+ * or, for work that waits anyway, try again then.
+ */
+export class OwnerBusyError extends Error {
+  readonly retryAfterS: number;
+  constructor(retryAfterS: number) {
+    super("You already have estimates running; wait for one to finish.");
+    this.name = "OwnerBusyError";
+    this.retryAfterS = retryAfterS;
+  }
+}
+
+/**
  * A job ran past its time limit (its worker was terminated), its worker died (e.g. out of
  * memory), or the worker could not fetch the file from storage.
  */
@@ -39,7 +53,10 @@ export interface PoolOptions {
   maxOldGenerationSizeMb?: number;
   /** Bundled worker file; default $ESTIMATE_WORKER_PATH or <cwd>/.worker/estimate-worker.mjs. */
   workerPath?: string;
-  /** Jobs one owner (e.g. a user) may have reserved, waiting or running at once (default 2). */
+  /**
+   * Jobs one owner (a user) may have reserved, waiting or running at once (default 2), counted
+   * over every kind of job: reservations (`tryReserve`), `run` and `read` given an owner.
+   */
   maxPerOwner?: number;
   /**
    * Jobs one lane (a client firm) may have reserved, waiting or running at once (default: half
@@ -248,14 +265,17 @@ export class EstimatePool {
     return { running: this.slots.filter((s) => s.job).length, queued: this.queue.length };
   }
 
-  /** Run a job; `lane` (a firm) puts it in that firm's turn of the fair queue. */
-  run(input: JobInput, onProgress?: ProgressFn, opts: { lane?: string; onPlace?: PlaceFn } = {}): Promise<EstimateResult> {
-    return this.submit<EstimateResult>({ input, onProgress, lane: opts.lane, onPlace: opts.onPlace });
+  /**
+   * Run a job; `lane` (a firm) puts it in that firm's turn of the fair queue; `owner` (a user)
+   * counts it against that user's share (OwnerBusyError when it is taken).
+   */
+  run(input: JobInput, onProgress?: ProgressFn, opts: { lane?: string; owner?: string; onPlace?: PlaceFn } = {}): Promise<EstimateResult> {
+    return this.submit<EstimateResult>({ input, onProgress, lane: opts.lane, owner: opts.owner, onPlace: opts.onPlace });
   }
 
-  /** Read (and for STEP/IGES tessellate) a model in a worker; same queue, limits and errors as `run`. */
-  read(job: ReadJob): Promise<ReadJobResult> {
-    return this.submit<ReadJobResult>({ read: job });
+  /** Read (and for STEP/IGES tessellate) a model in a worker; same queue, limits, owner's share and errors as `run`. */
+  read(job: ReadJob, opts: { lane?: string; owner?: string } = {}): Promise<ReadJobResult> {
+    return this.submit<ReadJobResult>({ read: job, lane: opts.lane, owner: opts.owner });
   }
 
   /** `reserved`: room was already held by a reservation, so the queue bound was checked then. */
@@ -263,6 +283,11 @@ export class EstimatePool {
     const { owner } = work;
     // A reserved job's lane share was taken at reservation; it is given back when the job settles.
     const lane = reserved ? work.lane : undefined;
+    // A reserved job's owner share was taken at reservation; other work takes it now, or is refused.
+    if (!reserved && owner !== undefined) {
+      if ((this.perOwner.get(owner) ?? 0) >= this.maxPerOwner) return Promise.reject(new OwnerBusyError(this.retryAfterS));
+      this.perOwner.set(owner, (this.perOwner.get(owner) ?? 0) + 1);
+    }
     const startedAt = { t: 0 };
     const settle = () => {
       if (owner !== undefined) this.ownerDone(owner);

@@ -84,6 +84,24 @@ describe("durable analyses", () => {
     expect(finished.result).not.toHaveProperty("fileSha256");
   }, 120_000);
 
+  it("counts against its uploader's share of the estimator: it waits while their other jobs fill it, then runs", async () => {
+    const [rev] = await db.select({ by: fileRevisions.uploadedById }).from(fileRevisions).where(eq(fileRevisions.id, revisionId));
+    const owner = rev!.by!;
+    const small = new EstimatePool({ size: 1, maxPerOwner: 1, workerPath: path.join(root, ".worker", "estimate-worker.mjs") });
+    try {
+      // The uploader already has one job (an estimate being prepared): their share is full.
+      const held = small.tryReserve(owner, "firm");
+      expect("reason" in held).toBe(false);
+      const { analysisId, done } = await start(deps({ pool: small, retryDelayMs: () => 50 }));
+      await expect.poll(async () => (await rowOf(analysisId)).stageLabel, { timeout: 20_000 }).toBe("Waiting for your other estimates to finish");
+      if (!("reason" in held)) held.release();
+      await done;
+      expect(await rowOf(analysisId)).toMatchObject({ status: "done" });
+    } finally {
+      await small.close();
+    }
+  }, 120_000);
+
   it("a job whose process died (lease ran out) is taken over by the sweeper and finishes", async () => {
     const hung: RunDeps["pool"] = { run: () => new Promise(() => {}) };
     const { analysisId } = await start(deps({ pool: hung }));

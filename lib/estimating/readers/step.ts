@@ -3,6 +3,7 @@ import type { Mesh } from "../types";
 import { scanIges } from "./step-iges";
 import { meanSideMm, toMesh, type StepBody } from "./step-mesh";
 import { dropOcct, loadOcct, occtHeapBytes, occtLoadMs, withKernelLog, type OcctModule, type OcctParams, type OcctResult } from "./step-occt";
+import { stepInstanceCount } from "./step-instances";
 import { scanStep } from "./step-scan";
 import { stepLengthUnits } from "./step-units";
 
@@ -107,8 +108,12 @@ export async function readStepOrIges(bytes: Uint8Array, opts: ReadStepOptions): 
   if (bytes.length > maxBytes) throw new EstimateInputError(`${format}:too-large`, `The ${label} file is ${(bytes.length / 2 ** 20).toFixed(0)} MB, more than the ${(maxBytes / 2 ** 20).toFixed(0)} MB accepted.`);
 
   let units: { symbol: string; mmPerUnit: number }[];
-  if (format === "step") units = stepLengthUnits(bytes, scanStep(bytes));
-  else units = [scanIges(bytes).unit];
+  if (format === "step") {
+    const layout = scanStep(bytes);
+    // Before the kernel: an assembly whose nested copies expand past the limit is refused here.
+    stepInstanceCount(bytes, layout);
+    units = stepLengthUnits(bytes, layout);
+  } else units = [scanIges(bytes).unit];
   units = units.filter((u) => u.symbol !== "unknown");
 
   const occt = await loadOcct();

@@ -213,22 +213,46 @@ export function read3mf(bytes: Uint8Array): ThreeMfResult {
   if (root.items.length === 0) fail("3mf:empty-build", "The 3MF model has no build items, so there is nothing to print.");
   const rootScale = UNIT_MM[root.unit]!;
 
-  // First pass counts triangles, so the soup is allocated once and instancing cannot explode memory.
-  const count = (mf: ModelFile, id: string, depth: number): number => {
+  // First pass counts instances and triangles per object, once each (memoised, so a shared
+  // sub-assembly costs one visit however often it is used): the soup is allocated once, and a
+  // graph that expands past the limits is refused before any instance is emitted.
+  const tooMany = () => fail("3mf:too-many", "The 3MF model has more triangles (after instancing) than the estimator accepts.");
+  const tooManyInstances = () =>
+    fail("3mf:too-many-instances", `The 3MF model's components expand to more than ${LIMITS.maxComponentInstances.toLocaleString("en-GB")} object instances; send the parts to be printed without nested copies.`);
+  const counted = new Map<ModelFile, Map<string, { tris: number; instances: number }>>();
+  const open = new Set<ObjectDef>();
+  const count = (mf: ModelFile, id: string, depth: number): { tris: number; instances: number } => {
     if (depth > 32) fail("3mf:deep-components", "The 3MF components nest too deeply (or refer to themselves).");
     const o = mf.objects.get(id);
     if (!o) fail("3mf:missing-object", `The 3MF model refers to object ${id.slice(0, 20)}, which it does not define.`);
-    let n = o.tris ? o.tris.length / 3 : 0;
+    let memo = counted.get(mf);
+    if (!memo) counted.set(mf, (memo = new Map()));
+    const known = memo.get(id);
+    if (known) return known;
+    if (open.has(o)) fail("3mf:deep-components", "The 3MF components nest too deeply (or refer to themselves).");
+    open.add(o);
+    let tris = o.tris ? o.tris.length / 3 : 0;
+    let instances = 1;
     for (const c of o.components) {
-      n += count(c.path ? getModel(c.path) : mf, c.objectId, depth + 1);
-      if (n > LIMITS.maxTriangles) fail("3mf:too-many", "The 3MF model has more triangles (after instancing) than the estimator accepts.");
+      const sub = count(c.path ? getModel(c.path) : mf, c.objectId, depth + 1);
+      tris += sub.tris;
+      instances += sub.instances;
+      if (tris > LIMITS.maxTriangles) tooMany();
+      if (instances > LIMITS.maxComponentInstances) tooManyInstances();
     }
-    return n;
+    open.delete(o);
+    const result = { tris, instances };
+    memo.set(id, result);
+    return result;
   };
   let total = 0;
+  let instances = 0;
   for (const it of root.items) {
-    total += count(it.path ? getModel(it.path) : root, it.objectId, 0);
-    if (total > LIMITS.maxTriangles) fail("3mf:too-many", "The 3MF model has more triangles (after instancing) than the estimator accepts.");
+    const sub = count(it.path ? getModel(it.path) : root, it.objectId, 0);
+    total += sub.tris;
+    instances += sub.instances;
+    if (total > LIMITS.maxTriangles) tooMany();
+    if (instances > LIMITS.maxComponentInstances) tooManyInstances();
   }
   if (total === 0) fail("3mf:empty", "The 3MF model has no triangles.");
 

@@ -7,7 +7,7 @@ import { canOpenFiles } from "@/lib/auth/policy";
 import { withErrors } from "@/lib/auth/route";
 import { AppError } from "@/lib/errors";
 import { isEstimateInputError } from "@/lib/estimating/errors";
-import { EstimateJobError, getEstimatePool, QueueFullError } from "@/lib/estimating/pool";
+import { EstimateJobError, getEstimatePool, OwnerBusyError, QueueFullError } from "@/lib/estimating/pool";
 import { signedFileUrl } from "@/lib/uploads/uploadthing";
 
 export const runtime = "nodejs";
@@ -19,7 +19,8 @@ const PREVIEW_MAX_TRIANGLES = 400_000;
  * GET /api/portal/revisions/:id/mesh?units=mm|in — the file's triangles in millimetres as raw
  * little-endian float32 (9 per triangle), for the 3D preview. Same rules as a download (firm,
  * controlled clearance) and logged as one. The file is read in the estimator's worker pool;
- * STEP/IGES arrive tessellated by the engine's reader.
+ * STEP/IGES arrive tessellated by the engine's reader. A preview counts against the user's share
+ * of the estimator like an estimate or an analysis: past it, 429 with Retry-After.
  */
 export const GET = withErrors(async (req: Request, ctx: { params: Promise<{ id: string }> }) => {
   const user = await requireUser();
@@ -41,10 +42,13 @@ export const GET = withErrors(async (req: Request, ctx: { params: Promise<{ id: 
       remote: { url, maxBytes: MAX_MODEL_BYTES },
       fileName: file.fileName,
       options: { ...(units === "mm" || units === "in" ? { units } : {}), ...(bodies?.length ? { bodies } : {}), maxTriangles: PREVIEW_MAX_TRIANGLES },
-    });
+    }, { owner: user.id, lane: file.orgId ?? `staff:${user.id}` });
     positions = r.positions;
     tris = r.triangles;
   } catch (e) {
+    if (e instanceof OwnerBusyError) {
+      return Response.json({ error: { code: "busy:yours", message: e.message, retryAfterS: e.retryAfterS } }, { status: 429, headers: { "retry-after": String(e.retryAfterS) } });
+    }
     if (e instanceof QueueFullError) {
       return Response.json({ error: { code: "busy", message: e.message } }, { status: 503, headers: { "retry-after": String(e.retryAfterS) } });
     }
