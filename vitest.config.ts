@@ -4,7 +4,14 @@ import { defineConfig } from "vitest/config";
 
 export default defineConfig({
   plugins: [react()],
-  resolve: { alias: { "@": path.resolve(import.meta.dirname) } },
+  resolve: {
+    alias: {
+      "@": path.resolve(import.meta.dirname),
+      // Server modules say `import "server-only"` (a client bundle that reaches one fails to build);
+      // tests import them directly, so the marker is empty here.
+      "server-only": path.resolve(import.meta.dirname, "tests/helpers/server-only.ts"),
+    },
+  },
   test: {
     projects: [
       {

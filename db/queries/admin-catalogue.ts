@@ -1,3 +1,4 @@
+import "server-only";
 import { and, desc, eq, sql } from "drizzle-orm";
 import type { CellParams, MaterialParams, RateCardParams } from "../../lib/estimating/types";
 import type { Db } from "../client";

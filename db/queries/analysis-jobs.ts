@@ -1,3 +1,4 @@
+import "server-only";
 import { and, eq, isNull, lt, or, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { analyses, fileRevisions, parts, requests } from "../schema";

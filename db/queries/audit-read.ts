@@ -1,3 +1,4 @@
+import "server-only";
 import { and, desc, eq, gte, lte, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { auditLog, users } from "../schema";

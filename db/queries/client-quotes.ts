@@ -1,3 +1,4 @@
+import "server-only";
 import { and, asc, desc, eq, inArray, ne } from "drizzle-orm";
 import type { Db } from "../client";
 import { orders, quoteLines, quotes, requests, type NewOrder } from "../schema";

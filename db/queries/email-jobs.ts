@@ -1,3 +1,4 @@
+import "server-only";
 import { and, desc, eq, inArray, isNull, lt, lte, or, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { emailJobs, type EmailJob } from "../schema";

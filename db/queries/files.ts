@@ -1,3 +1,4 @@
+import "server-only";
 import { and, desc, eq, max, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { documents, fileRevisions, parts, requests, uploads } from "../schema";

@@ -1,3 +1,4 @@
+import "server-only";
 import { and, count, eq, min, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { analyses } from "../schema";

@@ -1,3 +1,4 @@
+import "server-only";
 import { and, count, eq, isNull, ne, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { invitations, memberships, organisations, users } from "../schema";

@@ -1,3 +1,4 @@
+import "server-only";
 import { and, asc, eq, inArray, isNull, or } from "drizzle-orm";
 import type { Db } from "../client";
 import { documents, memberships, messages, requests, users } from "../schema";

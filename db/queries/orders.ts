@@ -1,3 +1,4 @@
+import "server-only";
 import { and, asc, count, desc, eq, gt, inArray, lt, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import type { Stage } from "../schema/common";

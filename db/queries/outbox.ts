@@ -1,3 +1,4 @@
+import "server-only";
 import { desc, eq } from "drizzle-orm";
 import type { Db } from "../client";
 import { emailOutbox, type NewOutboxMessage } from "../schema";

@@ -1,3 +1,4 @@
+import "server-only";
 import { and, eq, gt, isNull, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { passwordResetTokens, signInAttempts, users } from "../schema";

@@ -1,3 +1,4 @@
+import "server-only";
 import { and, asc, desc, eq, inArray, ne, or, sql } from "drizzle-orm";
 import { containsText } from "./search";
 import type { Db } from "../client";

@@ -1,3 +1,4 @@
+import "server-only";
 import { errorStats } from "../../lib/quoting/stats";
 import type { Db } from "../client";
 import { listOrdersWithActuals, partsWithEstimates } from "./orders";

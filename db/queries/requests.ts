@@ -1,3 +1,4 @@
+import "server-only";
 import { and, asc, count, desc, eq, inArray, like, or, sql, type SQL } from "drizzle-orm";
 import { containsText } from "./search";
 import type { Db } from "../client";

@@ -1,3 +1,4 @@
+import "server-only";
 import { and, eq, inArray, isNull, lt, ne, or, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { bureauSettings, DEFAULT_MODEL_RETENTION_DAYS, fileRetention, fileRevisions, parts, requests, type FileRetention } from "../schema";

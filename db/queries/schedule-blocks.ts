@@ -1,3 +1,4 @@
+import "server-only";
 import { and, eq, gt, gte, lt } from "drizzle-orm";
 import { scheduleBlocks } from "../schema";
 import type { Tx } from "./audit";

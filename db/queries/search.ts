@@ -1,3 +1,4 @@
+import "server-only";
 import { sql, type SQL, type SQLWrapper } from "drizzle-orm";
 
 /** `%`, `_` and the escape character itself, escaped with a backslash for LIKE … ESCAPE '\'. */

@@ -1,3 +1,4 @@
+import "server-only";
 import { and, eq, gt, inArray, isNotNull, isNull } from "drizzle-orm";
 import type { Db } from "../client";
 import { STAFF_ROLES, invitations, signInAttempts, users } from "../schema";

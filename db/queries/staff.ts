@@ -1,3 +1,4 @@
+import "server-only";
 import { and, asc, eq, inArray, isNull, ne, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { STAFF_ROLES, invitations, twoFactor, users } from "../schema";

@@ -1,3 +1,4 @@
+import "server-only";
 import { and, eq } from "drizzle-orm";
 import type { Stage } from "../schema/common";
 import { requests, stageEvents } from "../schema";

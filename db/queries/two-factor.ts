@@ -1,3 +1,4 @@
+import "server-only";
 import { and, count, eq, isNull, lt, or } from "drizzle-orm";
 import type { Db } from "../client";
 import { recoveryCodes, twoFactor, type TwoFactor } from "../schema";

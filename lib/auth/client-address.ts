@@ -1,3 +1,4 @@
+import "server-only";
 /**
  * The client's network address for throttles and the audit log.
  *

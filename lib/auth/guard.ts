@@ -1,3 +1,4 @@
+import "server-only";
 import { cache } from "react";
 import { getDb } from "@/db/client";
 import { getSessionUser } from "@/db/queries/auth";

@@ -1,3 +1,4 @@
+import "server-only";
 import { forbidden, notFound, redirect } from "next/navigation";
 import type { Role } from "@/db/schema/common";
 import { isAppError } from "@/lib/errors";

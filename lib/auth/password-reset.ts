@@ -1,3 +1,4 @@
+import "server-only";
 import { createHash, randomBytes } from "node:crypto";
 import { createElement } from "react";
 import type { Db } from "@/db/client";

@@ -1,3 +1,4 @@
+import "server-only";
 import type { Db } from "@/db/client";
 import { getTwoFactor, spendRecoveryCode, spendTotpStep } from "@/db/queries/two-factor";
 import type { Role } from "@/db/schema/common";

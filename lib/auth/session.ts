@@ -1,3 +1,4 @@
+import "server-only";
 import { cookies } from "next/headers";
 import { auth } from "./config";
 import { SessionCache, sessionTokenFrom } from "./session-cache";

@@ -1,3 +1,4 @@
+import "server-only";
 import { z } from "zod";
 import type { Db } from "@/db/client";
 import { clearThrottle, countAttempt, getThrottle, getUserForSignIn, uncountAttempt } from "@/db/queries/auth";

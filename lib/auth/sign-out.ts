@@ -1,3 +1,4 @@
+import "server-only";
 import { getDb } from "@/db/client";
 import { bumpSessionVersion } from "@/db/queries/auth";
 

@@ -1,3 +1,4 @@
+import "server-only";
 import type { Db } from "@/db/client";
 import { consumeStaffInvitation, getLiveStaffInvitation } from "@/db/queries/staff-invitations";
 import { hashPassword } from "./password";

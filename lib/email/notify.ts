@@ -1,3 +1,4 @@
+import "server-only";
 import { createElement } from "react";
 import { getDb, type Db } from "@/db/client";
 import { listCurrentCells } from "@/db/queries/catalogue";

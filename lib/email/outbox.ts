@@ -1,3 +1,4 @@
+import "server-only";
 import { getDb, type Db } from "../../db/client";
 import { claimEmailJob, insertEmailJob, listDueEmailJobs, markEmailFailed, markEmailRetry, markEmailSent, resetFailedEmailJob } from "../../db/queries/email-jobs";
 import { createOutboxMessage } from "../../db/queries/outbox";

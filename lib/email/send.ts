@@ -1,3 +1,4 @@
+import "server-only";
 import { createHash } from "node:crypto";
 import { render } from "@react-email/render";
 import type { ReactElement } from "react";

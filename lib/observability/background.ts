@@ -1,3 +1,4 @@
+import "server-only";
 import { getDb } from "../../db/client";
 import { claimRetentionRun } from "../../db/queries/retention";
 import { sweepAnalyses } from "../analysis/run";

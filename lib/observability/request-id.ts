@@ -1,3 +1,4 @@
+import "server-only";
 import { headers } from "next/headers";
 import type { Logger } from "pino";
 import { isSafeRequestId, logFor } from "./log";

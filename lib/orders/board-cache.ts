@@ -1,3 +1,4 @@
+import "server-only";
 /**
  * The production board's answers, kept per process while the database's "board" change counter
  * (db/schema/change-counters.ts, raised by triggers) stays the same. Screens on the shop floor

@@ -1,3 +1,4 @@
+import "server-only";
 import type Stripe from "stripe";
 import type { Db } from "../../db/client";
 import { getOrCreatePendingPayment, getOrderWithRequest, hasPaid, markPaymentExpired, setPaymentSession, type PaymentKind } from "../../db/queries/payments";

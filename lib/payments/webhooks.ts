@@ -1,3 +1,4 @@
+import "server-only";
 import type Stripe from "stripe";
 import { and, eq, ne } from "drizzle-orm";
 import type { Db } from "../../db/client";

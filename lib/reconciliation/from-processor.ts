@@ -1,3 +1,4 @@
+import "server-only";
 import type Stripe from "stripe";
 import type { ProcessorBalanceTxn, ProcessorCharge, ProcessorIntent, ProcessorRefund } from "./match";
 

@@ -1,3 +1,4 @@
+import "server-only";
 import type { Db } from "../../db/client";
 import { deletableModelFileKeys, getBureauSettings, listFinishedRequestsWithFiles, markRequestFilesDeleted, type FinishedRequest } from "../../db/queries/retention";
 import { retentionCutoff } from "./policy";

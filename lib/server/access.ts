@@ -1,3 +1,4 @@
+import "server-only";
 import { requirePermission, requireUser, type CurrentUser } from "@/lib/auth/guard";
 import type { Permission } from "@/lib/auth/policy";
 

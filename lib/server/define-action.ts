@@ -1,3 +1,4 @@
+import "server-only";
 import { unstable_rethrow } from "next/navigation";
 import type { z } from "zod";
 import { getDb, type Db } from "@/db/client";

@@ -1,3 +1,4 @@
+import "server-only";
 import { NextResponse } from "next/server";
 import { ZodError, type z } from "zod";
 import { getDb, type Db } from "@/db/client";

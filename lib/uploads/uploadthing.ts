@@ -1,3 +1,4 @@
+import "server-only";
 import { UTApi } from "uploadthing/server";
 import { fetchModelBytes, ModelFetchError } from "../estimating/fetch-model";
 import { env, type Env } from "../env";
