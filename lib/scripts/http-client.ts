@@ -35,6 +35,13 @@ export class Session {
     return res;
   }
 
+  /** Another client holding copies of this one's cookies (as a copied or stolen cookie is used). */
+  clone(): Session {
+    const copy = new Session(this.baseUrl);
+    for (const [k, v] of this.jar) copy.jar.set(k, v);
+    return copy;
+  }
+
   hasCookie(name: string): boolean {
     return this.jar.has(name);
   }

@@ -1,12 +1,19 @@
 /**
  * Security headers and the pages working under them (no CSP violation while the 3D viewer, the
  * charts, an upload to the upload service's origin and the outbox's sandboxed e-mail frame run),
- * session cookie flags, sign-in throttling by HTTP, and the password reset journey.
+ * session cookie flags, sign-in throttling by HTTP, the password reset journey, and `npm start`
+ * refusing to serve in production with a demo secret.
  */
+import { spawn, type ChildProcess } from "node:child_process";
+import { mkdtempSync, rmSync } from "node:fs";
+import os from "node:os";
+import path from "node:path";
 import { createClient, type Client } from "@libsql/client";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { Session } from "../../lib/scripts/http-client";
+import { freePort } from "../../lib/scripts/free-port";
+import { E2E_DIST_DIR } from "./global-setup";
 import { launchBrowser, newPage, signIn, startStack, type TestStack } from "./harness";
 import { addPartWithFile, fillProject, MOLD_STL, waitForEstimate } from "./portal-journey";
 
@@ -204,6 +211,75 @@ describe("password reset in the browser", () => {
     expect(Number(after.rows[0]!.n)).toBe(Number(before.rows[0]!.n));
     await context.close();
   });
+});
+
+describe("production refuses to start with a demo or missing secret", () => {
+  /** `npm start` with this environment; resolves with its exit code and what it printed (or "running" if it served). */
+  async function npmStart(env: Record<string, string>): Promise<{ code: number | "running"; output: string }> {
+    const port = await freePort();
+    // A throwaway data folder, should the server start after all.
+    const dataDir = mkdtempSync(path.join(os.tmpdir(), "layerwright-prod-"));
+    const child: ChildProcess = spawn("npm", ["start", "--", "-p", String(port), "-H", "127.0.0.1"], {
+      cwd: path.resolve(import.meta.dirname, "../.."),
+      env: {
+        PATH: process.env.PATH ?? "",
+        HOME: process.env.HOME ?? "",
+        NEXT_DIST_DIR: E2E_DIST_DIR,
+        NEXT_TELEMETRY_DISABLED: "1",
+        WEB_CONCURRENCY: "2",
+        NODE_ENV: "production",
+        DATA_DIR: dataDir,
+        DATABASE_URL: `file:${path.join(dataDir, "layerwright.db")}`,
+        ...env,
+      },
+      stdio: ["ignore", "pipe", "pipe"],
+      detached: true,
+    });
+    let output = "";
+    let exitCode: number | null = null;
+    child.stdout?.on("data", (d) => (output += d));
+    child.stderr?.on("data", (d) => (output += d));
+    const exited = new Promise<number>((resolve) => child.once("exit", (code) => resolve((exitCode = code ?? -1))));
+    const served = async (): Promise<number | "running"> => {
+      for (let i = 0; i < 240 && exitCode === null; i++) {
+        if (await fetch(`http://127.0.0.1:${port}/api/health`).then(() => true, () => false)) return "running";
+        await new Promise((r) => setTimeout(r, 500));
+      }
+      return exited;
+    };
+    const code = await Promise.race<number | "running">([exited, served()]);
+    if (exitCode === null) {
+      process.kill(-(child.pid ?? 0), "SIGTERM");
+      await exited;
+    }
+    rmSync(dataDir, { recursive: true, force: true });
+    return { code, output };
+  }
+
+  const good = {
+    NODE_ENV: "production",
+    APP_URL: "https://portal.ostrevane.example",
+    AUTH_SECRET: "a-deployment-secret-of-at-least-32-characters",
+    STRIPE_SECRET_KEY: "sk_live_placeholder_for_the_test",
+    STRIPE_WEBHOOK_SECRET: "whsec_placeholder_for_the_test",
+    RESEND_API_KEY: "re_placeholder_for_the_test",
+    UPLOADTHING_TOKEN: "placeholder-upload-token",
+  };
+
+  it("the published demo sign-in and webhook secrets: exit 78, naming each variable and never its value", async () => {
+    const r = await npmStart({ ...good, AUTH_SECRET: "layerwright-local-demo-secret-change-me", STRIPE_WEBHOOK_SECRET: "whsec_layerwright_local" });
+    expect(r.code, r.output.slice(-2000)).toBe(78);
+    expect(r.output).toMatch(/will not start/);
+    expect(r.output).toMatch(/AUTH_SECRET is the published demo value/);
+    expect(r.output).toMatch(/STRIPE_WEBHOOK_SECRET is the published demo value/);
+    expect(r.output).not.toMatch(/layerwright-local-demo-secret-change-me|whsec_layerwright_local/);
+  }, 180_000);
+
+  it("missing secrets and app URL: exit 78, each one named", async () => {
+    const r = await npmStart({});
+    expect(r.code, r.output.slice(-2000)).toBe(78);
+    for (const name of ["APP_URL", "AUTH_SECRET", "STRIPE_SECRET_KEY", "STRIPE_WEBHOOK_SECRET", "RESEND_API_KEY", "UPLOADTHING_TOKEN"]) expect(r.output).toMatch(new RegExp(`${name} is not set`));
+  }, 180_000);
 });
 
 /** Loaded, then a moment for late scripts and fetches to run and any CSP violation to be reported. */

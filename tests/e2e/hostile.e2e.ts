@@ -3,14 +3,18 @@
  * app/api and every server action (found in the build's server-reference manifest) is sent
  * missing auth, malformed bodies, wrong types, huge strings, unknown fields, another firm's ids
  * and path traversal. Each must answer 4xx (or an action's `{ ok: false }`) with a plain message,
- * never a stack trace, and nothing may be written.
+ * never a stack trace, and nothing may be written. Then, as an attacker would: forged Host and
+ * forwarded-for headers, an off-site redirect after sign-in, parallel password guessing, and a
+ * copied session cookie after a sign-out and after a password reset.
  */
+import { request as httpRequest } from "node:http";
 import { createClient, type Client } from "@libsql/client";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser } from "playwright-core";
+import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import { tableChecksums } from "../../lib/scripts/db-backup";
 import { listActions, Session } from "../../lib/scripts/http-client";
 import { E2E_DIST_DIR } from "./global-setup";
-import { startStack, type TestStack } from "./harness";
+import { launchBrowser, newPage, startStack, type TestStack } from "./harness";
 
 let stack: TestStack;
 let db: Client;
@@ -268,5 +272,165 @@ describe("after the whole pass", () => {
     expect(changed).toEqual([]);
     const integrity = await db.execute("PRAGMA integrity_check");
     expect(String(Object.values(integrity.rows[0]!)[0])).toBe("ok");
+  });
+});
+
+/**
+ * Probes that change sign-in state (after the write check above): forged Host and forwarded-for
+ * headers, an off-site redirect after sign-in, parallel password guessing, and a session cookie
+ * copied before a sign-out or a password reset.
+ */
+describe("probes from outside", () => {
+  let browser: Browser;
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  }, 60_000);
+  afterAll(async () => {
+    await browser?.close();
+  });
+  // Each probe starts with no sign-in counters (they all come from this one address).
+  afterEach(async () => {
+    await db.execute("DELETE FROM sign_in_attempts");
+  });
+
+  async function latestEmailTo(address: string, subject: RegExp, after: number): Promise<string> {
+    for (let i = 0; i < 80; i++) {
+      const r = await db.execute({ sql: "SELECT subject, html, created_at FROM email_outbox WHERE to_addresses LIKE ? ORDER BY created_at DESC", args: [`%${address}%`] });
+      const row = r.rows.find((x) => subject.test(String(x.subject)) && Number(x.created_at) >= after);
+      if (row) return String(row.html);
+      await new Promise((res) => setTimeout(res, 250));
+    }
+    throw new Error(`no e-mail to ${address} matching ${subject}`);
+  }
+
+  /** A request with any Host header (fetch would replace it with the URL's). */
+  function rawPost(pathname: string, headers: Record<string, string>, body: string): Promise<{ status: number; location: string }> {
+    const url = new URL(pathname, stack.baseUrl);
+    return new Promise((resolve, reject) => {
+      const req = httpRequest({ host: url.hostname, port: url.port, path: url.pathname, method: "POST", headers: { ...headers, "content-length": Buffer.byteLength(body) } }, (res) => {
+        res.resume();
+        res.on("end", () => resolve({ status: res.statusCode ?? 0, location: String(res.headers.location ?? "") }));
+      });
+      req.on("error", reject);
+      req.end(body);
+    });
+  }
+
+  it("a forged Host or X-Forwarded-Host never reaches the link in a sign-in e-mail", async () => {
+    const forgeries: Record<string, string>[] = [{ host: "evil.example" }, { "x-forwarded-host": "evil.example", "x-forwarded-proto": "https" }];
+    for (const forged of forgeries) {
+      const since = Date.now() - 1000;
+      const s = new Session(stack.baseUrl);
+      const { csrfToken } = (await (await s.fetch("/api/auth/csrf")).json()) as { csrfToken: string };
+      const body = new URLSearchParams({ csrfToken, email: "engineer@caldrith.example", callbackUrl: "/after-sign-in" }).toString();
+      const headers = { host: new URL(stack.baseUrl).host, "content-type": "application/x-www-form-urlencoded", cookie: s.cookieHeader, ...forged };
+      const r = await rawPost("/api/auth/signin/email", headers, body);
+      expect(r.status, JSON.stringify(forged)).toBeLessThan(400);
+      expect(r.location).not.toMatch(/evil\.example/);
+      const html = await latestEmailTo("engineer@caldrith.example", /sign-in link/, since);
+      const link = html.match(/href="([^"]*\/api\/auth\/callback\/email[^"]*)"/)?.[1]?.replaceAll("&amp;", "&");
+      expect(link, JSON.stringify(forged)).toBeTruthy();
+      expect(new URL(link!).origin, JSON.stringify(forged)).toBe(new URL(stack.baseUrl).origin);
+      expect(html).not.toMatch(/evil\.example/);
+    }
+  });
+
+  it("a forged X-Forwarded-For neither dodges the per-address limit nor reaches the audit log", async () => {
+    // 31 wrong passwords for 31 different (unknown) accounts, each claiming another address.
+    for (let i = 0; i < 31; i += 8) {
+      await Promise.all(
+        Array.from({ length: Math.min(8, 31 - i) }, (_, k) => new Session(stack.baseUrl).signIn(`nobody${i + k}@nowhere.example`, "guess", { "x-forwarded-for": `203.0.113.${i + k + 1}` })),
+      );
+    }
+    // The 32nd, the right password of a real account from yet another claimed address, is refused:
+    // the limit counts the connection's own address.
+    const r = await new Session(stack.baseUrl).signIn("engineer@caldrith.example", "demo-client-2026", { "x-forwarded-for": "203.0.113.200" });
+    expect(r.ok).toBe(false);
+    expect(r.location).toMatch(/code=locked/);
+    const forgedKeys = await db.execute("SELECT key FROM sign_in_attempts WHERE key LIKE '%203.0.113.%'");
+    expect(forgedKeys.rows).toEqual([]);
+
+    // The audit log records the connection's address, not the claimed one.
+    await db.execute("DELETE FROM sign_in_attempts");
+    expectRefusal(await call(lead, "file", `/api/files/${other.uploadId}`, { headers: { "x-forwarded-for": "198.51.100.250" } }), [404]);
+    const audit = await db.execute("SELECT ip FROM audit_log WHERE action = 'file.download_refused' ORDER BY rowid DESC LIMIT 1");
+    expect(String(audit.rows[0]?.ip)).not.toMatch(/198\.51\.100\.250/);
+    expect(String(audit.rows[0]?.ip)).toMatch(/^(127\.0\.0\.1|::1)$/);
+  });
+
+  it("a tab-slash callback (/%09/evil.example/pwned) never takes the browser off the site after sign-in", async () => {
+    const { context, page } = await newPage(browser);
+    const offSite: string[] = [];
+    page.on("request", (req) => {
+      if (new URL(req.url()).hostname.endsWith("evil.example")) offSite.push(req.url());
+    });
+    await page.route((url) => url.hostname.endsWith("evil.example"), (route) => route.abort());
+    await page.goto(`${stack.baseUrl}/sign-in?callbackUrl=/%09/evil.example/pwned`);
+    // The page does not carry the hostile destination into its form …
+    expect(await page.locator('input[name="callbackUrl"]').inputValue()).toBe("");
+    // … and the action refuses it when it is posted anyway.
+    await page.locator('input[name="callbackUrl"]').evaluate((el) => ((el as HTMLInputElement).value = "/\t/evil.example/pwned"));
+    await page.getByLabel("E-mail", { exact: true }).fill("engineer@caldrith.example");
+    await page.getByLabel("Password").fill("demo-client-2026");
+    await page.getByRole("button", { name: "Sign in", exact: true }).click();
+    await page.waitForURL((url) => !url.pathname.startsWith("/sign-in"), { timeout: 30_000 }).catch(() => undefined);
+    expect(offSite).toEqual([]);
+    expect(new URL(page.url()).origin).toBe(new URL(stack.baseUrl).origin);
+    expect(new URL(page.url()).pathname).toBe("/portal");
+    await context.close();
+  });
+
+  it("40 parallel wrong passwords for one account: none gets in, the count is not lost, and the right password is then refused", async () => {
+    const email = "engineer@caldrith.example";
+    const answers = await Promise.all(Array.from({ length: 40 }, (_, i) => new Session(stack.baseUrl).signIn(email, `wrong-${i}`)));
+    expect(answers.filter((a) => a.ok)).toEqual([]);
+    const row = await db.execute({ sql: "SELECT failures, locked_until FROM sign_in_attempts WHERE key = ?", args: [`email:${email}`] });
+    expect(Number(row.rows[0]?.failures)).toBeGreaterThanOrEqual(5);
+    expect(Number(row.rows[0]?.locked_until)).toBeGreaterThan(Date.now());
+    // The address's own count (40 from here) is set aside: the e-mail's lock alone refuses the right password.
+    await db.execute("DELETE FROM sign_in_attempts WHERE key LIKE 'addr:%'");
+    const right = await new Session(stack.baseUrl).signIn(email, "demo-client-2026");
+    expect(right.ok).toBe(false);
+    expect(right.location).toMatch(/code=locked/);
+  });
+
+  /** Sign in, and a second client holding a copy of the session cookie (as a stolen one would be used). */
+  async function signedInTwice(email: string, password: string): Promise<[Session, Session]> {
+    const original = new Session(stack.baseUrl);
+    expect((await original.signIn(email, password)).ok).toBe(true);
+    const copy = original.clone();
+    expect((await copy.fetch("/api/portal/requests")).status).toBe(200);
+    return [original, copy];
+  }
+
+  it("a copied session cookie stops working when its user signs out (Auth.js's own sign-out route)", async () => {
+    const [original, copy] = await signedInTwice("engineer@caldrith.example", "demo-client-2026");
+    const { csrfToken } = (await (await original.fetch("/api/auth/csrf")).json()) as { csrfToken: string };
+    const out = await original.fetch("/api/auth/signout", { method: "POST", headers: { "content-type": "application/x-www-form-urlencoded" }, body: new URLSearchParams({ csrfToken }) });
+    expect(out.status).toBeLessThan(400);
+    // Past the 30 s the session cache may keep a token in memory: the version is checked every time.
+    expect((await copy.fetch("/api/portal/requests")).status).toBe(401);
+    // Signing in again works.
+    expect((await new Session(stack.baseUrl).signIn("engineer@caldrith.example", "demo-client-2026")).ok).toBe(true);
+  });
+
+  it("a copied session cookie stops working after a password reset", async () => {
+    const [, copy] = await signedInTwice("buyer@bramblewake.example", "demo-lead-2026");
+    const since = Date.now() - 1000;
+    const { context, page } = await newPage(browser);
+    await page.goto(`${stack.baseUrl}/reset`);
+    await page.getByLabel("E-mail").fill("buyer@bramblewake.example");
+    await page.getByRole("button", { name: "E-mail me a reset link" }).click();
+    await page.waitForURL(/\/reset\/sent/);
+    const html = await latestEmailTo("buyer@bramblewake.example", /Reset your Layerwright password/, since);
+    const link = html.match(/href="([^"]*\/reset\/new\?token=[^"]*)"/)?.[1]?.replaceAll("&amp;", "&");
+    await page.goto(link!);
+    await page.getByLabel("New password", { exact: true }).fill("keel-moulds-2027");
+    await page.getByLabel("New password again").fill("keel-moulds-2027");
+    await page.getByRole("button", { name: "Set new password" }).click();
+    await page.waitForURL(/\/reset\/done/);
+    await context.close();
+    expect((await copy.fetch("/api/portal/requests")).status).toBe(401);
+    expect((await new Session(stack.baseUrl).signIn("buyer@bramblewake.example", "keel-moulds-2027")).ok).toBe(true);
   });
 });

@@ -106,8 +106,9 @@ describe("client portal journey", () => {
     const pays = await db.execute({ sql: "select p.status from payments p join orders o on o.id = p.order_id where o.request_id = ?", args: [rid] });
     expect(pays.rows.map((r) => r.status)).toEqual(["paid"]);
     const ref = String((await db.execute({ sql: "select reference from requests where id = ?", args: [rid] })).rows[0]?.reference);
-    const mail = await db.execute({ sql: "select count(*) as n from email_outbox where subject = ?", args: [`Deposit received for ${ref}`] });
-    expect(Number(mail.rows[0]?.n)).toBe(1);
+    // The notice is queued with the deposit invoice attached and sent a moment later.
+    const mails = async () => Number((await db.execute({ sql: "select count(*) as n from email_outbox where subject = ?", args: [`Deposit received for ${ref}`] })).rows[0]?.n);
+    await expect.poll(mails, { timeout: 60_000, interval: 500 }).toBe(1);
     await both(page, "request-paid");
     await page.goto(`${stack.baseUrl}/portal/payments`);
     await both(page, "payments");
