@@ -24,6 +24,8 @@ export interface HardStack {
   readonly processes: number;
   /** The app server's process (changes on restart). */
   app: () => ChildProcess;
+  /** The local fakes' process (payment, e-mail, uploads). */
+  fakes: ChildProcess;
   /** SIGKILL the app server (no shutdown hooks run) and wait for it to be gone. */
   killApp: () => Promise<void>;
   /** Start `next start` again on the same port and data. */
@@ -111,6 +113,7 @@ export async function startHardStack(opts: {
       return Math.max(1, childPids(app.pid!).length);
     },
     app: () => app,
+    fakes,
     killApp,
     restartApp,
     stop: async () => {

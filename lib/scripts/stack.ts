@@ -85,18 +85,30 @@ export interface RunningStack {
   stop: () => Promise<void>;
 }
 
+/** A log line that reports SQLite's write lock as an error. */
+export const BUSY_LINE = /SQLITE_BUSY|database is locked/i;
+
+/** Lines of a quiet stack process's output that reported a locked database (see `run`). */
+export function busyLines(child: ChildProcess): string[] {
+  return (child as ChildProcess & { busy?: string[] }).busy ?? [];
+}
+
 function run(cmd: string, args: string[], env: Record<string, string>, label: string, quiet: boolean): ChildProcess {
   const child = spawn(cmd, args, { cwd: root, env: { ...process.env, ...env }, stdio: quiet ? ["ignore", "pipe", "pipe"] : "inherit" });
   if (quiet) {
     // Keep the last lines for error reports without flooding the test output.
     const tail: string[] = [];
+    // Every line that reports a locked database, kept whole (tests assert there is none).
+    const busy: string[] = [];
     const keep = (chunk: Buffer) => {
-      tail.push(...chunk.toString().split("\n"));
+      const lines = chunk.toString().split("\n");
+      tail.push(...lines);
       if (tail.length > 80) tail.splice(0, tail.length - 80);
+      for (const line of lines) if (BUSY_LINE.test(line)) busy.push(line);
     };
     child.stdout?.on("data", keep);
     child.stderr?.on("data", keep);
-    (child as ChildProcess & { tail?: string[] }).tail = tail;
+    Object.assign(child, { tail, busy });
   }
   child.on("exit", (code, signal) => {
     // 143 = stopped by our own SIGTERM.

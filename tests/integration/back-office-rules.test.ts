@@ -23,7 +23,7 @@ import { USER_BY_ROLE, userIdOf } from "./admin-setup";
 
 const session = vi.hoisted(() => ({ current: null as null | { user: { id: string } } }));
 vi.mock("@/lib/auth/config", () => ({ auth: async () => session.current }));
-vi.mock("@/lib/auth/session", () => ({ sessionUserId: async () => session.current?.user?.id ?? null }));
+vi.mock("@/lib/auth/session", () => ({ currentSession: async () => (session.current?.user?.id ? { userId: session.current.user.id, sessionVersion: 0 } : null) }));
 const dbRef = vi.hoisted(() => ({ db: null as unknown }));
 vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
 vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
