@@ -74,7 +74,7 @@ export async function checkDatabase(dbUrl: string, dataDir: string, since = 0): 
          AND EXISTS (SELECT 1 FROM audit_log a WHERE a.action = 'payment.paid' AND a.entity_id = p.id)`,
     );
     for (const p of paid) if (Number(p.audits) !== 1) problems.push(`payment ${p.id} recorded as paid ${p.audits} times`);
-    const halfPaid = await all(db, "SELECT id FROM payments WHERE (status = 'paid') <> (paid_at IS NOT NULL)");
+    const halfPaid = await all(db, "SELECT id FROM payments WHERE (status IN ('paid', 'partially_refunded', 'refunded')) <> (paid_at IS NOT NULL)");
     if (halfPaid.length) problems.push(`${halfPaid.length} payments half-written (status and paid time disagree)`);
 
     const store = path.join(dataDir, "uploads");
