@@ -8,6 +8,7 @@ import { Card, CardTitle } from "@/components/ui/card";
 import { Field, FormMessage, Input, Select, Textarea } from "@/components/ui/input";
 import { formatCents } from "@/lib/money";
 import { isEdited, lineAmount, LINE_KINDS, parseMoneyToCents, quoteTotals, type DraftLine } from "@/lib/quoting/lines";
+import { useQuoteNotice, type QuoteMessage } from "./quote-notice";
 
 export interface QuoteEditorProps {
   requestId: string;
@@ -34,7 +35,8 @@ export function QuoteEditor({ requestId, quoteId, basisAnalysisIds, initial, isS
   const [terms, setTerms] = useState(initial.terms);
   const [notes, setNotes] = useState(initial.notes);
   const [shipDate, setShipDate] = useState(initial.shipDate ?? "");
-  const [message, setMessage] = useState<{ tone: "ok" | "error"; text: string } | null>(null);
+  const notice = useQuoteNotice();
+  const [message, setMessage] = useState<QuoteMessage>(notice.last);
   const [errors, setErrors] = useState<Record<string, string[]>>({});
   const [pending, start] = useTransition();
 
@@ -82,7 +84,9 @@ export function QuoteEditor({ requestId, quoteId, basisAnalysisIds, initial, isS
         return;
       }
       setErrors({});
-      setMessage({ tone: "ok", text: res.data.status === "issued" ? `Version ${res.data.version} issued; the client has been e-mailed.` : `Draft version ${res.data.version} saved.` });
+      const done: QuoteMessage = { tone: "ok", text: res.data.status === "issued" ? `Version ${res.data.version} issued; the client has been e-mailed.` : `Draft version ${res.data.version} saved.` };
+      setMessage(done);
+      notice.keep(done); // the refreshed page may mount a new editor; it opens with this answer
       router.refresh();
     });
 

@@ -4,6 +4,7 @@ import { AnalysisPanel } from "@/components/admin/analysis-panel";
 import { dateText } from "@/components/admin/format";
 import { MessageThread } from "@/components/admin/message-thread";
 import { QuoteEditor } from "@/components/admin/quote-editor";
+import { QuoteNoticeProvider } from "@/components/admin/quote-notice";
 import { QuoteStateBadge, StageBadge } from "@/components/stage-badge";
 import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
@@ -77,7 +78,9 @@ export default async function SalesRequestPage({ params }: { params: Promise<{ i
           {request.notes ? <Alert tone="info" title="Client notes">{request.notes}</Alert> : null}
           {parts.length === 0 ? <Card><p className="text-sm text-ink-500">This request has no parts.</p></Card> : parts.map((p) => <AnalysisPanel key={p.id} part={p} materialName={materialNames.get(p.materialKey)} />)}
           {canQuote ? (
-            <QuoteEditor key={draft?.id ?? `after-${previous?.id ?? "estimate"}`} startedFrom={draft ? null : previous ? previous.version : 0} requestId={id} quoteId={draft?.id} basisAnalysisIds={basisAnalysisIds} initial={initial} isStale={Boolean(draft?.isStale)} />
+            <QuoteNoticeProvider>
+              <QuoteEditor key={draft?.id ?? `after-${previous?.id ?? "estimate"}`} startedFrom={draft ? null : previous ? previous.version : 0} requestId={id} quoteId={draft?.id} basisAnalysisIds={basisAnalysisIds} initial={initial} isStale={Boolean(draft?.isStale)} />
+            </QuoteNoticeProvider>
           ) : (
             <Alert tone="info" title={`The request is at ${label(request.stage)}`}>Quotes are made while a request is submitted or quoted.</Alert>
           )}
