@@ -166,6 +166,8 @@ describe("client portal journey", () => {
     // as1-oc-214.stp: CAx Implementor Forum assembly AS1, 18 bodies (mocks/fixtures/cad/README.md).
     await addPartWithFile(page, 0, path.resolve(import.meta.dirname, "../../mocks/fixtures/cad/as1-oc-214.stp"));
     await waitForEstimate(page, 0);
+    // A STEP file declares its units: no confirmation is asked for.
+    await expect.poll(() => page.getByTestId("part-card-0").textContent()).toContain("Units confirmed by the file: millimetres");
     const picker = page.getByTestId("body-picker-0");
     await expect(picker.getByRole("checkbox").count()).resolves.toBe(18);
     await expect(picker.textContent()).resolves.toContain("18 of 18 to print");

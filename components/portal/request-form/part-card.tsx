@@ -62,13 +62,18 @@ export function PartCard({
     setValue(`${base}.unitsConfirmed`, true, { shouldDirty: true });
   }
 
-  /** A finished analysis of an unconfirmed file sets the units to the engine's guess. */
+  /**
+   * A finished analysis of an unconfirmed file sets the units to the engine's guess. A file that
+   * declares its units (STEP, IGES, 3MF) needs no confirmation: its declaration confirms them.
+   */
   function adoptGuess(r: EstimateResult) {
-    if (!getValues(`${base}.unitsConfirmed`) && getValues(`${base}.units`) !== r.units) {
+    if (getValues(`${base}.unitsConfirmed`)) return;
+    if (getValues(`${base}.units`) !== r.units) {
       const a = Number(getValues(`${base}.allowance`)) || 0;
       setValue(`${base}.allowance`, Math.round((r.units === "in" ? a / 25.4 : a * 25.4) * 1000) / 1000);
       setValue(`${base}.units`, r.units);
     }
+    if (!r.unitsGuessed) setValue(`${base}.unitsConfirmed`, true, { shouldDirty: true });
   }
 
   return (
@@ -116,7 +121,9 @@ export function PartCard({
 
       <fieldset className="space-y-2">
         <legend className="text-sm font-medium text-ink-700">Units of the file</legend>
-        {unitsConfirmed ? (
+        {unitsConfirmed && result && !result.unitsGuessed && result.units === units ? (
+          <p className="text-xs text-tide-700">Units confirmed by the file: {units === "in" ? "inches" : "millimetres"}. {result.unitsReason}</p>
+        ) : unitsConfirmed ? (
           <p className="text-xs text-tide-700">Units confirmed: {units === "in" ? "inches" : "millimetres"}.</p>
         ) : result?.unitsGuessed ? (
           <p className="text-xs text-ink-500">Our guess: {result.units === "in" ? "inches" : "millimetres"}. {result.unitsReason}</p>
