@@ -2,11 +2,13 @@
  * `npm run faults`: SIGKILL the app server in the middle of stage changes, webhook payments and
  * uploads (FAULT_ROUNDS rounds each, kill moments spread out), restart it, and check the
  * database; then fill up and write-protect the upload store during uploads (a small tmpfs mounted
- * over it; needs root). Prints what was killed and what was checked. FAULT_DIST_DIR (default
+ * over it; needs root); last, four serving processes take sign-ins, e-mailed links, webhooks and
+ * messages at once. Prints what was killed and what was checked. FAULT_DIST_DIR (default
  * .next-hard; built when missing).
  */
 import { readdirSync, statSync } from "node:fs";
 import { buildIfMissingFor } from "./build-if-missing";
+import { concurrentWrites } from "./faults-concurrency";
 import { diskFault, mountSmallStore, prepareFaultData, stageChangeFault, uploadFault, webhookFault, type CheckReport } from "./faults-core";
 import { startHardStack } from "./hard-stack";
 
@@ -52,6 +54,18 @@ async function main() {
     }
   } finally {
     await stack.stop();
+  }
+  const four = await startHardStack({ distDir: DIST, extraEnv: { WEB_CONCURRENCY: "4" }, prepare: (url) => prepareFaultData(url, { stageOrders: 0, payOrders: 6 * ROUNDS }) });
+  try {
+    for (let i = 0; i < ROUNDS; i++) {
+      const c = await concurrentWrites(four, { wrongSignIns: 10, payments: 6, messages: 20 });
+      const ok = c.busy.length === 0 && Object.keys(c.serverErrors).length === 0 && c.signIns.rightOk === c.signIns.right && c.signIns.wrongRefused === c.signIns.wrong && c.links.mailed === c.links.asked && c.payments.recorded === c.payments.paid && c.messages.stored === c.messages.posted && verdict(c.check) === "ok";
+      console.log(
+        `${c.processes} processes  #${i + 1}: in ${c.ms} ms, sign-ins ${c.signIns.rightOk}/${c.signIns.right} right in, ${c.signIns.wrongRefused}/${c.signIns.wrong} wrong refused; links mailed ${c.links.mailed}/${c.links.asked}; deposits recorded ${c.payments.recorded}/${c.payments.paid}; messages stored ${c.messages.stored}/${c.messages.posted}; server errors ${JSON.stringify(c.serverErrors)}; busy log lines ${c.busy.length} → ${verdict(c.check)}${note(ok)}`,
+      );
+    }
+  } finally {
+    await four.stop();
   }
   console.log(failed ? `faults: ${failed} checks FAILED` : "faults: every check passed");
   process.exitCode = failed ? 1 : 0;
