@@ -32,8 +32,8 @@ export function IssuedDocumentsList({ docs, empty }: { docs: IssuedDocumentItem[
             {d.number}
           </a>
           <span className="text-xs text-ink-500">{day(d.issuedAt)}</span>
-          <a href={`${documentUrl(d.id)}?download=1`} className="ml-auto text-xs text-ink-500 underline" aria-label={`Download ${KIND_TITLES[d.kind]} ${d.number} (PDF)`}>
-            PDF
+          <a href={`${documentUrl(d.id)}?download=1`} className="ml-auto text-xs text-ink-500 underline">
+            PDF<span className="sr-only"> of {KIND_TITLES[d.kind]} {d.number}, download</span>
           </a>
         </li>
       ))}

@@ -58,7 +58,7 @@ function Composer({ requestId, parentId, onDone, label }: { requestId: string; p
     <form onSubmit={send} className="space-y-2" aria-label={label}>
       <Textarea value={body} onChange={(e) => setBody(e.target.value)} rows={3} aria-label={label} placeholder="Write to the bureau…" />
       <div className="flex flex-wrap items-center gap-2">
-        <input ref={input} type="file" multiple className="sr-only" onChange={(e) => setFiles(Array.from(e.target.files ?? []).slice(0, 4))} />
+        <input ref={input} type="file" multiple className="sr-only" aria-label="Attach files to the message" onChange={(e) => setFiles(Array.from(e.target.files ?? []).slice(0, 4))} />
         <Button type="button" variant="ghost" size="sm" onClick={() => input.current?.click()}>
           Attach files
         </Button>

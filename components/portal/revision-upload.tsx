@@ -16,6 +16,7 @@ export function RevisionUpload({ requestId, partId, fileName }: { requestId: str
       <p className="text-xs text-ink-500">Changed the design? A new revision is analysed again and our sales engineers re-quote it.</p>
       <ModelUpload
         id={`revision-${partId}`}
+        label={fileName ? `New revision of ${fileName}` : "Model file"}
         currentFileName={fileName}
         onError={setError}
         onUploaded={async (uploadId) => {

@@ -34,8 +34,8 @@ export function renderCheckoutPage(session: StripeObject, opts: { error?: string
   label { display:block; font-weight:600; font-size:13px; margin-bottom:.25rem; }
   input { width:100%; font:inherit; font-family:ui-monospace, monospace; padding:.6rem .7rem; border:1px solid #d6cfbf; border-radius:.3rem; background:#fff; }
   input:focus { outline:2px solid var(--tide); outline-offset:1px; }
-  button { margin-top:1rem; width:100%; font:inherit; font-weight:700; color:#fff; background:var(--kiln); border:0; border-radius:.3rem; padding:.7rem; cursor:pointer; }
-  button:hover { background:#b9531d; }
+  button { margin-top:1rem; width:100%; font:inherit; font-weight:700; color:#fff; background:var(--kiln7); border:0; border-radius:.3rem; padding:.7rem; cursor:pointer; }
+  button:hover { background:#7a3514; }
   .error { color:var(--danger); background:#fdecea; border:1px solid #f5c2bd; border-radius:.3rem; padding:.5rem .75rem; margin-bottom:1rem; font-weight:600; }
   .notice { color:var(--tide); background:#ecf6f5; border:1px solid #cfe9e6; border-radius:.3rem; padding:.5rem .75rem; margin-bottom:1rem; }
   .hint { margin-top:1rem; font-size:13px; color:var(--ink5); } code { font-family:ui-monospace, monospace; }

@@ -6,6 +6,7 @@
 import { mkdtempSync, rmSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
+import AxeBuilder from "@axe-core/playwright";
 import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
 import { openDb } from "../../db/client";
 import { seed } from "../../db/seed";
@@ -79,8 +80,27 @@ export async function signIn(page: Page, baseUrl: string, email: string, passwor
   await page.waitForURL((url) => !url.pathname.startsWith("/sign-in"), { timeout: 30_000 });
 }
 
-/** Save a screenshot under screenshots/ (gitignored) for people to look at. */
+/**
+ * The page's serious and critical accessibility violations (axe-core's WCAG 2.1 A and AA rules),
+ * one line each: the rule, its help text and the first few elements at fault.
+ */
+export async function accessibilityProblems(page: Page): Promise<string[]> {
+  const result = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
+  return result.violations
+    .filter((v) => v.impact === "serious" || v.impact === "critical")
+    .map((v) => `${v.id} (${v.impact}): ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(" ")).join(", ")}${v.nodes.length > 3 ? ` and ${v.nodes.length - 3} more` : ""}`);
+}
+
+/**
+ * Save a screenshot under screenshots/ (gitignored) for people to look at, after checking the page
+ * as it is then with axe: every page a journey shows people is a page that must pass, so a serious
+ * or critical violation fails the journey, naming the page (E2E_AXE=report only lists them).
+ */
 export async function shot(page: Page, name: string) {
   const dir = path.resolve(import.meta.dirname, "../../screenshots");
   await page.screenshot({ path: path.join(dir, `${name}.png`), fullPage: true });
+  const problems = await accessibilityProblems(page);
+  // E2E_AXE=report lists every page's violations and lets the journeys go on (to see them all at once).
+  if (problems.length && process.env.E2E_AXE === "report") console.log(`accessibility: ${name}\n${problems.join("\n")}`);
+  else if (problems.length) throw new Error(`accessibility: ${name} (${page.url()}) has ${problems.length} serious or critical violations:\n${problems.join("\n")}`);
 }

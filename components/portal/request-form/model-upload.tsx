@@ -14,8 +14,11 @@ export function ModelUpload({
   onUploaded,
   onError,
   disabled,
+  label = "Model file",
 }: {
   id: string;
+  /** The file chooser's accessible name (its button reads "Choose a file"). */
+  label?: string;
   currentFileName: string | null;
   onUploaded: (uploadId: string, fileName: string) => Promise<void>;
   onError: (message: string) => void;
@@ -73,6 +76,7 @@ export function ModelUpload({
           ref={input}
           id={id}
           type="file"
+          aria-label={label}
           accept={MODEL_ACCEPT}
           className="sr-only"
           disabled={disabled || phase !== "idle"}
