@@ -11,7 +11,11 @@ export type AppErrorCode =
   | "rate_limited"
   | "unavailable"
   | "payment_failed"
-  | "gone";
+  | "gone"
+  | "busy"
+  | "unprocessable"
+  | "timeout"
+  | "bad_gateway";
 
 /**
  * The one table of error → HTTP status. A code's kind (before ":") picks the status; a full code
@@ -27,6 +31,13 @@ const STATUS: Record<AppErrorCode, number> & Record<string, number> = {
   unavailable: 503,
   payment_failed: 402,
   gone: 410,
+  // The estimator (lib/analysis/estimator.ts): busy as a whole, or this caller's share used up.
+  busy: 503,
+  "busy:yours": 429,
+  "busy:firm": 429,
+  unprocessable: 422,
+  timeout: 504,
+  bad_gateway: 502,
 };
 
 export class AppError extends Error {

@@ -79,3 +79,15 @@ export async function resetFailedAnalysis(db: Db, id: string): Promise<boolean> 
 export async function setRevisionSha256(db: Db, revisionId: string, sha256: string): Promise<void> {
   await db.update(fileRevisions).set({ sha256 }).where(and(eq(fileRevisions.id, revisionId), isNull(fileRevisions.sha256)));
 }
+
+/** One analysis with the firm and author of its request (to scope who may read it), or undefined. */
+export async function getAnalysisWithScope(db: Db, id: string) {
+  const [row] = await db
+    .select({ analysis: analyses, orgId: requests.orgId, createdById: requests.createdById, partId: parts.id })
+    .from(analyses)
+    .innerJoin(fileRevisions, eq(fileRevisions.id, analyses.revisionId))
+    .innerJoin(parts, eq(parts.id, fileRevisions.partId))
+    .innerJoin(requests, eq(requests.id, parts.requestId))
+    .where(eq(analyses.id, id));
+  return row;
+}

@@ -34,7 +34,7 @@ export interface RouteContext<A extends Access, Q, B, P> {
 export function errorResponse(e: unknown): Response {
   if (isAppError(e)) {
     const headers = e.retryAfterS !== undefined ? { "retry-after": String(e.retryAfterS) } : undefined;
-    return NextResponse.json({ error: { code: e.code, message: e.message, fieldErrors: e.fieldErrors } }, { status: e.status, headers });
+    return NextResponse.json({ error: { code: e.code, message: e.message, fieldErrors: e.fieldErrors, retryAfterS: e.retryAfterS } }, { status: e.status, headers });
   }
   if (e instanceof ZodError) {
     return NextResponse.json({ error: { code: "invalid_input", message: "The request was not valid.", fieldErrors: e.flatten().fieldErrors } }, { status: 400 });

@@ -7,12 +7,16 @@ const dbRef = vi.hoisted(() => ({ db: null as unknown }));
 vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
 
 let t: TestDb;
-let GET: () => Promise<Response>;
+// The health door is public: it never reads a session, so the sign-in module stays out.
+vi.mock("@/lib/auth/config", () => ({ auth: async () => null }));
+
+let route: (req: Request) => Promise<Response>;
+const GET = () => route(new Request("http://localhost/api/health"));
 
 beforeAll(async () => {
   t = await createTestDb({ seeded: true });
   dbRef.db = t.db;
-  ({ GET } = await import("../../app/api/health/route"));
+  ({ GET: route } = await import("../../app/api/health/route"));
 }, 120_000);
 afterAll(() => t?.close());
 

@@ -87,12 +87,12 @@ describe("POST /api/estimate", () => {
     const [gone] = await db.insert(uploads).values({ fileKey: "kgone", fileName: "gone.stl", sizeBytes: 1, url: "http://127.0.0.1:1/f/kgone", userId: me, purpose: "model" }).returning({ id: uploads.id });
     const missing = await call({ uploadId: gone!.id });
     expect(missing.status).toBe(502);
-    expect(((await missing.json()) as { error: { code: string } }).error.code).toBe("job:storage");
+    expect(((await missing.json()) as { error: { code: string } }).error.code).toBe("bad_gateway:storage");
     files.set("kpdf", new TextEncoder().encode("%PDF-1.7\n" + "x".repeat(2000)));
     const [pdf] = await db.insert(uploads).values({ fileKey: "kpdf", fileName: "drawing.stl", sizeBytes: 1, url: "http://127.0.0.1:1/f/kpdf", userId: me, purpose: "model" }).returning({ id: uploads.id });
     const bad = await call({ uploadId: pdf!.id });
     expect(bad.status).toBe(422);
-    expect(((await bad.json()) as { error: { code: string } }).error.code).toBe("file:type");
+    expect(((await bad.json()) as { error: { code: string } }).error.code).toBe("unprocessable:file:type");
   }, 60_000);
 
   it("refuses unknown options, strangers' uploads and the signed-out", async () => {

@@ -10,6 +10,8 @@ import { createTestDb, type TestDb } from "../helpers/test-db";
 
 const dbRef = vi.hoisted(() => ({ db: null as unknown }));
 vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
+// The webhook's door takes no session (its access is the signature); the sign-in module stays out.
+vi.mock("@/lib/auth/config", () => ({ auth: async () => null }));
 
 const SECRET = "whsec_layerwright_local";
 let t: TestDb;

@@ -1,10 +1,10 @@
 import { NextResponse } from "next/server";
-import { getDb } from "@/db/client";
 import { emailBacklog } from "@/db/queries/email-jobs";
 import { analysisBacklog, pingDatabase } from "@/db/queries/health";
 import { getEstimatePool } from "@/lib/estimating/pool";
 import { errorFields, rootLogger } from "@/lib/observability/log";
 import { healthStatus } from "@/lib/observability/health";
+import { defineRoute } from "@/lib/server/define-route";
 
 export const dynamic = "force-dynamic";
 
@@ -14,9 +14,8 @@ export const dynamic = "force-dynamic";
  * only: no secrets, no records, no names. 200 when the database answers (status "ok" or
  * "degraded"), 503 when it does not.
  */
-export async function GET() {
+export const GET = defineRoute({ access: "public" }, async ({ db }) => {
   const now = new Date();
-  const db = getDb();
   let database: { ok: boolean; latencyMs: number | null };
   let jobs: Awaited<ReturnType<typeof analysisBacklog>> | null = null;
   let emails: Awaited<ReturnType<typeof emailBacklog>> | null = null;
@@ -34,4 +33,4 @@ export async function GET() {
     { status, time: now.toISOString(), uptimeS: Math.round(process.uptime()), database, estimator, jobs: { analyses: jobs, emails } },
     { status: status === "down" ? 503 : 200, headers: { "cache-control": "no-store" } },
   );
-}
+});

@@ -1,12 +1,11 @@
-import { getDb } from "@/db/client";
 import { writeAudit } from "@/db/queries/audit";
 import { findStoredFile } from "@/db/queries/files";
 import { getFileRetention } from "@/db/queries/retention";
 import { clientAddress } from "@/lib/auth/client-address";
-import { requireUser, type CurrentUser } from "@/lib/auth/guard";
+import type { CurrentUser } from "@/lib/auth/guard";
 import { canOpenFiles, isStaff } from "@/lib/auth/policy";
-import { withErrors } from "@/lib/auth/route";
 import { AppError } from "@/lib/errors";
+import { defineRoute } from "@/lib/server/define-route";
 import { openUploadedFile } from "@/lib/uploads/uploadthing";
 
 export const runtime = "nodejs";
@@ -29,10 +28,7 @@ const safeName = (name: string) => name.replace(/[^\w.\- ]+/g, "_").slice(0, 120
  * or a controlled file to someone not cleared, answers 404 (its existence stays hidden). Every
  * download, and every refused one, is written to the audit log.
  */
-export const GET = withErrors(async (req: Request, ctx: { params: Promise<{ id: string }> }) => {
-  const user = await requireUser();
-  const { id } = await ctx.params;
-  const db = getDb();
+export const GET = defineRoute<"signed-in", undefined, undefined, { id: string }>({ access: "signed-in" }, async ({ req, user, db, params: { id } }) => {
   const file = id.length <= 64 ? await findStoredFile(db, id) : null;
   const ip = clientAddress(req.headers);
   if (!file || !mayOpen(user, file)) {

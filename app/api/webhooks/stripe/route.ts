@@ -1,42 +1,39 @@
-import { NextResponse } from "next/server";
-import { getDb } from "@/db/client";
 import { notifyDepositReceived } from "@/lib/email/notify";
+import { AppError } from "@/lib/errors";
+import { rootLogger } from "@/lib/observability/log";
 import { recordProcessorFee } from "@/lib/payments/fees";
 import { constructWebhookEvent, WebhookSignatureError } from "@/lib/payments/stripe";
 import { handleStripeEvent } from "@/lib/payments/webhooks";
+import { defineRoute } from "@/lib/server/define-route";
 
 export const runtime = "nodejs";
 
 /**
- * Stripe webhooks: raw body → signature check with the SDK (400 on failure) → the handler, which
- * skips an event id already recorded and applies the rest once → 200. The e-mail goes after the
- * write has committed, and a failed e-mail does not make Stripe resend the event.
+ * Payment processor webhooks: raw body → signature check with the SDK (400 on failure) → the
+ * handler, which skips an event id already recorded and applies the rest once → 200. The e-mail
+ * goes after the write has committed, and a failed e-mail does not make the processor resend the
+ * event. Anything else failing answers 500 (the door's table), so the processor retries later;
+ * nothing was recorded, so the retry applies it once.
  */
-export async function POST(req: Request) {
+export const POST = defineRoute({ access: "signature" }, async ({ req, db }) => {
   const raw = await req.text();
   let event;
   try {
     event = constructWebhookEvent(raw, req.headers.get("stripe-signature"));
   } catch (e) {
     if (e instanceof WebhookSignatureError) {
-      console.warn("stripe webhook refused:", e.message);
-      return NextResponse.json({ error: { code: "webhook:signature", message: "Signature did not verify." } }, { status: 400 });
+      rootLogger().warn({ event: "webhook.refused", reason: e.message }, "webhook signature did not verify");
+      throw new AppError("invalid_input:webhook_signature", "Signature did not verify.");
     }
     throw e;
   }
-  try {
-    const result = await handleStripeEvent(getDb(), event);
-    console.info(`stripe webhook ${event.id} ${event.type}: ${result.outcome}`);
-    if (result.paidPaymentId) {
-      // The session carries no fee: ask the processor for the charge and its fee, so the ledger
-      // agrees with it. A failure here leaves the fee unrecorded (reconciliation shows it).
-      await recordProcessorFee(getDb(), result.paidPaymentId).catch((e: unknown) => console.error("recording the processing fee failed", e));
-      await notifyDepositReceived(result.paidPaymentId).catch((e: unknown) => console.error("payment e-mail failed", e));
-    }
-    return NextResponse.json({ received: true, outcome: result.outcome });
-  } catch (e) {
-    console.error("stripe webhook failed", event.id, e);
-    // 500 makes Stripe retry later; nothing was recorded, so the retry applies it once.
-    return NextResponse.json({ error: { code: "internal", message: "Could not process the event." } }, { status: 500 });
+  const result = await handleStripeEvent(db, event);
+  rootLogger().info({ event: "webhook.applied", id: event.id, type: event.type, outcome: result.outcome }, "webhook event");
+  if (result.paidPaymentId) {
+    // The session carries no fee: ask the processor for the charge and its fee, so the ledger
+    // agrees with it. A failure here leaves the fee unrecorded (reconciliation shows it).
+    await recordProcessorFee(db, result.paidPaymentId).catch((e: unknown) => rootLogger().error({ event: "webhook.fee", err: String(e) }, "recording the processing fee failed"));
+    await notifyDepositReceived(result.paidPaymentId).catch((e: unknown) => rootLogger().error({ event: "webhook.notice", err: String(e) }, "payment e-mail failed"));
   }
-}
+  return { received: true, outcome: result.outcome };
+});
