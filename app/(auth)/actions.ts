@@ -4,7 +4,7 @@ import { AuthError } from "next-auth";
 import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { createElement } from "react";
-import { getDb } from "@/db/client";
+import { z } from "zod";
 import { countAttempt, getUserForSignIn } from "@/db/queries/auth";
 import { createClientFirmWithAdmin, isEmailTaken } from "@/db/queries/organisations";
 import WelcomeEmail from "@/emails/welcome";
@@ -15,100 +15,55 @@ import { homePathFor } from "@/lib/auth/policy";
 import { isOverLimit, SIGNUP_ADDRESS_RULE, SIGNUP_EMAIL_RULE } from "@/lib/auth/throttle";
 import { sendEmail } from "@/lib/email/send";
 import { env } from "@/lib/env";
-import type { ActionResult } from "@/lib/errors";
+import { AppError } from "@/lib/errors";
+import { rootLogger } from "@/lib/observability/log";
+import { defineFormAction } from "@/lib/server/define-action";
 import { magicLinkSchema, safeCallbackPath, signInSchema, signUpSchema } from "@/lib/validation/auth";
-import { fieldErrorsOf } from "@/lib/validation/form";
+import { nestedFields } from "@/lib/validation/form";
 
-type FormResult = ActionResult<undefined> | null;
-
-/** The form's fields; anything else posted to the action (no form at all) counts as empty. */
-const formEntries = (formData: unknown) => (formData instanceof FormData ? Object.fromEntries(formData) : {});
-/** Fields named `address.x` become `{ address: { x } }` (the sign-up form's billing address). */
-const nested = (entries: Record<string, unknown>) => {
-  const out: Record<string, unknown> = {};
-  for (const [k, v] of Object.entries(entries)) {
-    const dot = k.indexOf(".");
-    if (dot > 0) ((out[k.slice(0, dot)] ??= {}) as Record<string, unknown>)[k.slice(dot + 1)] = v;
-    else out[k] = v;
-  }
-  return out;
-};
-
-
-export async function signInWithPassword(_prev: FormResult, formData: FormData): Promise<FormResult> {
-  const parsed = signInSchema.safeParse(formEntries(formData));
-  if (!parsed.success) {
-    return { ok: false, code: "invalid_input", message: "Check the highlighted fields.", fieldErrors: fieldErrorsOf(parsed.error) };
-  }
-  const { email, password, code, callbackUrl } = parsed.data;
+/** Password sign-in (with the second factor's code when the account has one); answers in the form's words. */
+export const signInWithPassword = defineFormAction({ access: "public", input: signInSchema }, async ({ email, password, code, callbackUrl }, { db }) => {
   try {
     await signIn("credentials", { email, password, ...(code ? { code } : {}), redirect: false });
   } catch (e) {
-    if (e instanceof AuthError) {
-      const reason = (e as AuthError & { code?: string }).code;
-      if (reason === "code_required") {
-        return { ok: false, code: "code_required", message: "Enter the 6-digit code from your authenticator app, or one of your recovery codes." };
-      }
-      if (reason === "code_invalid") {
-        return {
-          ok: false,
-          code: "code_invalid",
-          message: "That code did not work.",
-          fieldErrors: { code: ["Wrong, expired or already used. Wait for the app's next code and enter it."] },
-        };
-      }
-      const locked = reason === "locked";
-      return {
-        ok: false,
-        code: locked ? "rate_limited" : "unauthenticated",
-        message: locked
-          ? "Too many failed attempts. Sign-in is paused for 15 minutes; you can use an e-mail link meanwhile."
-          : "That e-mail and password do not match an account.",
-      };
+    if (!(e instanceof AuthError)) throw e;
+    const reason = (e as AuthError & { code?: string }).code;
+    if (reason === "code_required") throw new AppError("unauthenticated:code_required", "Enter the 6-digit code from your authenticator app, or one of your recovery codes.");
+    if (reason === "code_invalid") {
+      throw new AppError("unauthenticated:code_invalid", "That code did not work.", { code: ["Wrong, expired or already used. Wait for the app's next code and enter it."] });
     }
-    throw e;
+    if (reason === "locked") throw new AppError("rate_limited", "Too many failed attempts. Sign-in is paused for 15 minutes; you can use an e-mail link meanwhile.");
+    throw new AppError("unauthenticated", "That e-mail and password do not match an account.");
   }
-  const user = await getUserForSignIn(getDb(), email);
+  const user = await getUserForSignIn(db, email);
   redirect(safeCallbackPath(callbackUrl) ?? homePathFor(user?.role ?? "client"));
-}
+});
 
-export async function requestMagicLink(_prev: FormResult, formData: FormData): Promise<FormResult> {
-  const parsed = magicLinkSchema.safeParse(formEntries(formData));
-  if (!parsed.success) {
-    return { ok: false, code: "invalid_input", message: "Check the highlighted fields.", fieldErrors: fieldErrorsOf(parsed.error) };
-  }
+/** An e-mailed sign-in link; the answer is the same page whether or not the address has an account. */
+export const requestMagicLink = defineFormAction({ access: "public", input: magicLinkSchema }, async ({ email }) => {
   try {
-    await signIn("email", { email: parsed.data.email.toLowerCase(), redirect: false, redirectTo: "/after-sign-in" });
+    await signIn("email", { email: email.toLowerCase(), redirect: false, redirectTo: "/after-sign-in" });
   } catch (e) {
     // Say nothing that tells whether the address has an account; log what went wrong.
     if (!(e instanceof AuthError)) throw e;
-    console.error("sign-in link request failed", e.type);
+    rootLogger().error({ event: "auth.link_failed", type: e.type }, "sign-in link request failed");
   }
   redirect("/sign-in/check-email");
-}
+});
 
-export async function signUp(_prev: FormResult, formData: FormData): Promise<FormResult> {
-  const parsed = signUpSchema.safeParse(nested(formEntries(formData)));
-  if (!parsed.success) {
-    return { ok: false, code: "invalid_input", message: "Check the highlighted fields.", fieldErrors: fieldErrorsOf(parsed.error) };
-  }
-  const input = { ...parsed.data, email: parsed.data.email.toLowerCase() };
-  const db = getDb();
+/** A new client firm and its lead; throttled per e-mail and per address (every attempt counts). */
+export const signUp = defineFormAction({ access: "public", input: z.preprocess(nestedFields, signUpSchema) }, async (parsed, { db }) => {
+  const input = { ...parsed, email: parsed.email.toLowerCase() };
   // Every attempt counts, so the form cannot be used to try address after address.
   const now = new Date();
   const address = clientAddress(await headers());
   const byEmail = await countAttempt(db, `signup:email:${input.email}`, SIGNUP_EMAIL_RULE, now);
   const byAddress = address ? await countAttempt(db, `signup:addr:${address}`, SIGNUP_ADDRESS_RULE, now) : null;
   if (isOverLimit(byEmail, SIGNUP_EMAIL_RULE) || (byAddress && isOverLimit(byAddress, SIGNUP_ADDRESS_RULE))) {
-    return { ok: false, code: "rate_limited", message: "Too many sign-up attempts. Please wait 15 minutes before trying again." };
+    throw new AppError("rate_limited", "Too many sign-up attempts. Please wait 15 minutes before trying again.");
   }
   if (await isEmailTaken(db, input.email)) {
-    return {
-      ok: false,
-      code: "conflict",
-      message: "An account with this e-mail already exists. Sign in, or ask your firm's lead to invite you.",
-      fieldErrors: { email: ["Already registered."] },
-    };
+    throw new AppError("conflict", "An account with this e-mail already exists. Sign in, or ask your firm's lead to invite you.", { email: ["Already registered."] });
   }
   await createClientFirmWithAdmin(db, { ...input, passwordHash: await hashPassword(input.password) });
   try {
@@ -120,11 +75,11 @@ export async function signUp(_prev: FormResult, formData: FormData): Promise<For
     });
   } catch (e) {
     // The account exists; a failed welcome e-mail must not undo it.
-    console.error("welcome e-mail failed", e);
+    rootLogger().error({ event: "auth.welcome_failed", err: String(e) }, "welcome e-mail failed");
   }
   await signIn("credentials", { email: input.email, password: input.password, redirect: false });
   redirect("/portal");
-}
+});
 
 export async function signOutAction() {
   await signOut({ redirectTo: "/" });

@@ -14,7 +14,7 @@ export function SignInForm({ callbackUrl }: { callbackUrl?: string }) {
   const [email, setEmail] = useState("");
   const [password, setPassword] = useState("");
   const [startedOver, setStartedOver] = useState<unknown>(null);
-  const askCode = Boolean(state && !state.ok && (state.code === "code_required" || state.code === "code_invalid") && startedOver !== state);
+  const askCode = Boolean(state && !state.ok && (state.code === "unauthenticated:code_required" || state.code === "unauthenticated:code_invalid") && startedOver !== state);
   const errors = state && !state.ok ? state.fieldErrors : undefined;
   const linkErrors = linkState && !linkState.ok ? linkState.fieldErrors : undefined;
 
@@ -45,7 +45,7 @@ export function SignInForm({ callbackUrl }: { callbackUrl?: string }) {
                 aria-describedby={errors?.code ? "code-error" : undefined}
               />
             </Field>
-            <FormMessage tone={state && !state.ok && state.code === "code_required" ? "ok" : "error"}>
+            <FormMessage tone={state && !state.ok && state.code === "unauthenticated:code_required" ? "ok" : "error"}>
               {state && !state.ok && !errors ? state.message : undefined}
             </FormMessage>
           </>
@@ -66,7 +66,7 @@ export function SignInForm({ callbackUrl }: { callbackUrl?: string }) {
                 aria-invalid={Boolean(errors?.password)}
               />
             </Field>
-            <FormMessage>{state && !state.ok && !errors && !askCode && state.code !== "code_required" && state.code !== "code_invalid" ? state.message : undefined}</FormMessage>
+            <FormMessage>{state && !state.ok && !errors && !askCode && state.code !== "unauthenticated:code_required" && state.code !== "unauthenticated:code_invalid" ? state.message : undefined}</FormMessage>
           </>
         )}
         <Button type="submit" className="w-full" disabled={pending}>

@@ -6,7 +6,7 @@ import { AppError, toActionError, type ActionResult } from "@/lib/errors";
 import { enter, type Access, type UserFor } from "./access";
 
 /** What a form-bound action (`useActionState`) keeps between posts: nothing yet, or the last result. */
-export type FormResult = ActionResult<undefined> | null;
+export type FormResult<T = undefined> = ActionResult<T> | null;
 
 /** What the input's field errors become: each issue under its path ("parts.0.file"), "form" for the whole input. */
 export function fieldErrorsByPath(error: z.ZodError): Record<string, string[]> {
@@ -80,7 +80,6 @@ export function defineAction<A extends Access, S extends z.ZodType, T>(spec: Act
  * (anything that is not a form reads as empty) and answers `null`-able form results. A handler
  * that succeeds usually redirects; returning nothing answers `{ ok: true }`.
  */
-export function defineFormAction<A extends Access, S extends z.ZodType>(spec: ActionSpec<A, S>, handler: Handler<A, S, void | undefined>): (prev: FormResult, formData: FormData) => Promise<FormResult> {
-  const answer: Handler<A, S, undefined> = async (input, ctx) => void (await handler(input, ctx));
-  return (_prev, formData) => run(spec, answer, formData instanceof FormData ? Object.fromEntries(formData) : {});
+export function defineFormAction<A extends Access, S extends z.ZodType, T = undefined>(spec: ActionSpec<A, S>, handler: Handler<A, S, T | void>): (prev: FormResult<T>, formData: FormData) => Promise<FormResult<T>> {
+  return (_prev, formData) => run(spec, handler as Handler<A, S, T>, formData instanceof FormData ? Object.fromEntries(formData) : {});
 }

@@ -22,3 +22,15 @@ export function fieldErrorsByRow(error: { issues: { path: PropertyKey[]; message
   }
   return out;
 }
+
+/** Fields named `address.x` become `{ address: { x } }` (a form's nested group, e.g. sign-up's billing address). */
+export function nestedFields(entries: unknown): unknown {
+  if (!entries || typeof entries !== "object") return entries;
+  const out: Record<string, unknown> = {};
+  for (const [k, v] of Object.entries(entries)) {
+    const dot = k.indexOf(".");
+    if (dot > 0) ((out[k.slice(0, dot)] ??= {}) as Record<string, unknown>)[k.slice(dot + 1)] = v;
+    else out[k] = v;
+  }
+  return out;
+}
