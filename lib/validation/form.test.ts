@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { z } from "zod";
-import { fieldErrorsOf, formField } from "./form";
+import { fieldErrorsOf, nestedFields } from "./form";
 
 describe("form helpers", () => {
   it("groups zod issues by top-level field, the whole form under 'form'", () => {
@@ -13,11 +13,9 @@ describe("form helpers", () => {
     expect(fieldErrorsOf(same.error!)).toEqual({ form: ["The password must not be your name."] });
   });
 
-  it("reads a posted field, and nothing from what is not a form", () => {
-    const fd = new FormData();
-    fd.set("token", "abc");
-    expect(formField(fd, "token")).toBe("abc");
-    expect(formField(fd, "other")).toBeNull();
-    expect(formField({ token: "abc" }, "token")).toBeUndefined();
+  it("turns dotted field names into nested groups, and leaves what is not a record alone", () => {
+    expect(nestedFields({ name: "Ada", "address.city": "Fennick Cross", "address.postalCode": "55990" })).toEqual({ name: "Ada", address: { city: "Fennick Cross", postalCode: "55990" } });
+    expect(nestedFields(null)).toBeNull();
+    expect(nestedFields("x")).toBe("x");
   });
 });
