@@ -20,7 +20,9 @@ export async function waitForHttp(url: string, timeoutMs = 60_000): Promise<void
   let lastError: unknown;
   while (Date.now() < deadline) {
     try {
-      const res = await fetch(url, { redirect: "manual" });
+      // No kept-alive socket is left behind: the server closes an idle one after 5 s, and the
+      // caller's next fetch could be handed it just as it closes (ECONNRESET).
+      const res = await fetch(url, { redirect: "manual", headers: { connection: "close" } });
       await res.arrayBuffer();
       return;
     } catch (e) {
