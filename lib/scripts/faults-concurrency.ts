@@ -7,10 +7,8 @@
  * afterwards (shared by tests/e2e/faults.e2e.ts and `npm run faults`).
  */
 import { createClient } from "@libsql/client";
-import Stripe from "stripe";
 import { DEMO_PASSWORDS, DEMO_USERS } from "../../db/seed-data";
-import { createCheckoutSession } from "../payments/stripe";
-import { checkDatabase, type CheckReport } from "./faults-core";
+import { checkDatabase, pendingDeposits, type CheckReport } from "./faults-core";
 import type { HardStack } from "./hard-stack";
 import { listActions, Session } from "./http-client";
 import { busyLines } from "./stack";
@@ -59,27 +57,7 @@ export async function concurrentWrites(stack: HardStack, opts: { wrongSignIns?: 
     const messagePath = `/portal/requests/${request}`;
 
     // Deposits waiting to be paid: a pending payment and its checkout session for each.
-    const stripe = new Stripe(stack.env.STRIPE_SECRET_KEY!, { host: "127.0.0.1", port: stack.ports.stripe, protocol: "http", maxNetworkRetries: 0 });
-    const targets = (
-      await db.execute({
-        sql: "SELECT o.id AS order_id, o.org_id, o.deposit_cents, o.currency FROM orders o JOIN requests r ON r.id = o.request_id WHERE r.stage = 'accepted' AND r.reference LIKE 'LW-H%' ORDER BY r.reference LIMIT ?",
-        args: [opts.payments ?? 6],
-      })
-    ).rows;
-    const sessions: string[] = [];
-    for (const t of targets) {
-      const paymentId = crypto.randomUUID();
-      await db.execute({
-        sql: "INSERT INTO payments (id, order_id, org_id, kind, status, amount_cents, refunded_cents, currency, created_at) VALUES (?, ?, ?, 'deposit', 'pending', ?, 0, ?, ?)",
-        args: [paymentId, String(t.order_id), String(t.org_id), Number(t.deposit_cents), String(t.currency), Date.now()],
-      });
-      const s = await createCheckoutSession(
-        { paymentId, orderId: String(t.order_id), amountCents: Number(t.deposit_cents), currency: String(t.currency), description: "Deposit (concurrency run)", successUrl: `${stack.baseUrl}/portal`, cancelUrl: `${stack.baseUrl}/portal`, idempotencyKey: `concurrency-${paymentId}` },
-        stripe,
-      );
-      await db.execute({ sql: "UPDATE payments SET checkout_session_id = ? WHERE id = ?", args: [s.id, paymentId] });
-      sessions.push(s.id);
-    }
+    const sessions = await pendingDeposits(stack, db, opts.payments ?? 6, "concurrency run");
 
     const wrong = opts.wrongSignIns ?? 10;
     const right = CLIENTS.length * PER_ACCOUNT;

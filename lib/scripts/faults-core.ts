@@ -187,17 +187,13 @@ async function fakeEvents(stack: HardStack) {
 }
 
 /**
- * Deposits paid on the payment fake one after another while its webhooks reach the app; the app
- * is killed midway, so some events are left unacknowledged. After the restart the fake resends
- * them; every payment must be recorded exactly once, and a second full replay changes nothing.
+ * Deposits waiting to be paid on the grown orders at `accepted`: a pending payment row and its
+ * checkout session on the payment fake for each (at most `count`); returns the sessions' ids.
  */
-export async function webhookFault(stack: HardStack, opts: { killAfterMs: number; payments?: number }): Promise<WebhookFaultFigures> {
-  const since = Date.now();
-  const db = createClient({ url: stack.dbUrl, timeout: 10_000 });
+export async function pendingDeposits(stack: HardStack, db: Client, count: number, label: string): Promise<string[]> {
   const stripe = stripeFor(stack);
-  const targets = (await db.execute("SELECT o.id AS order_id, o.org_id, o.deposit_cents, o.currency FROM orders o JOIN requests r ON r.id = o.request_id WHERE r.stage = 'accepted' AND r.reference LIKE 'LW-H%' ORDER BY r.reference LIMIT ?", [opts.payments ?? 1000])).rows;
+  const targets = (await db.execute("SELECT o.id AS order_id, o.org_id, o.deposit_cents, o.currency FROM orders o JOIN requests r ON r.id = o.request_id WHERE r.stage = 'accepted' AND r.reference LIKE 'LW-H%' ORDER BY r.reference LIMIT ?", [count])).rows;
   const sessions: string[] = [];
-  const eventsAtStart = Number((await db.execute("SELECT count(*) AS n FROM webhook_events")).rows[0]!.n);
   for (const t of targets) {
     const paymentId = crypto.randomUUID();
     await db.execute({
@@ -205,12 +201,25 @@ export async function webhookFault(stack: HardStack, opts: { killAfterMs: number
       args: [paymentId, String(t.order_id), String(t.org_id), Number(t.deposit_cents), String(t.currency), Date.now()],
     });
     const s = await createCheckoutSession(
-      { paymentId, orderId: String(t.order_id), amountCents: Number(t.deposit_cents), currency: String(t.currency), description: "Deposit (fault run)", successUrl: `${stack.baseUrl}/portal`, cancelUrl: `${stack.baseUrl}/portal`, idempotencyKey: `fault-${paymentId}` },
+      { paymentId, orderId: String(t.order_id), amountCents: Number(t.deposit_cents), currency: String(t.currency), description: `Deposit (${label})`, successUrl: `${stack.baseUrl}/portal`, cancelUrl: `${stack.baseUrl}/portal`, idempotencyKey: `${label.replaceAll(" ", "-")}-${paymentId}` },
       stripe,
     );
     await db.execute({ sql: "UPDATE payments SET checkout_session_id = ? WHERE id = ?", args: [s.id, paymentId] });
     sessions.push(s.id);
   }
+  return sessions;
+}
+
+/**
+ * Deposits paid on the payment fake one after another while its webhooks reach the app; the app
+ * is killed midway, so some events are left unacknowledged. After the restart the fake resends
+ * them; every payment must be recorded exactly once, and a second full replay changes nothing.
+ */
+export async function webhookFault(stack: HardStack, opts: { killAfterMs: number; payments?: number }): Promise<WebhookFaultFigures> {
+  const since = Date.now();
+  const db = createClient({ url: stack.dbUrl, timeout: 10_000 });
+  const eventsAtStart = Number((await db.execute("SELECT count(*) AS n FROM webhook_events")).rows[0]!.n);
+  const sessions = await pendingDeposits(stack, db, opts.payments ?? 1000, "fault run");
   const started = Date.now();
   const paying = (async () => {
     for (const id of sessions) {

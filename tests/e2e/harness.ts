@@ -92,15 +92,39 @@ export async function accessibilityProblems(page: Page): Promise<string[]> {
 }
 
 /**
+ * On a phone-wide page, whether the page itself scrolls sideways (a table may, inside its own
+ * scroller): one line naming the widest element that sticks out, or nothing.
+ */
+export async function sidewaysScroll(page: Page): Promise<string[]> {
+  const width = page.viewportSize()?.width ?? 0;
+  if (width > 400) return [];
+  const out = await page.evaluate(() => {
+    const doc = document.documentElement;
+    if (doc.scrollWidth <= window.innerWidth + 1) return null;
+    let worst: { tag: string; right: number } | null = null;
+    for (const el of Array.from(document.body.querySelectorAll("*"))) {
+      const r = el.getBoundingClientRect();
+      if (r.right > window.innerWidth + 1 && (!worst || r.right > worst.right)) {
+        const cls = typeof el.className === "string" ? el.className.split(" ").slice(0, 3).join(".") : "";
+        worst = { tag: `${el.tagName.toLowerCase()}${cls ? `.${cls}` : ""}`, right: Math.round(r.right) };
+      }
+    }
+    return { scrollWidth: doc.scrollWidth, innerWidth: window.innerWidth, worst };
+  });
+  return out ? [`sideways scroll (layout): the page is ${out.scrollWidth} px wide in a ${out.innerWidth} px window${out.worst ? `; widest: ${out.worst.tag} to ${out.worst.right} px` : ""}`] : [];
+}
+
+/**
  * Save a screenshot under screenshots/ (gitignored) for people to look at, after checking the page
- * as it is then with axe: every page a journey shows people is a page that must pass, so a serious
- * or critical violation fails the journey, naming the page (E2E_AXE=report only lists them).
+ * as it is then with axe, and at phone width for a page that scrolls sideways: every page a journey
+ * shows people is a page that must pass, so a serious or critical violation, or a phone page wider
+ * than the phone, fails the journey, naming the page (E2E_AXE=report only lists them).
  */
 export async function shot(page: Page, name: string) {
   const dir = path.resolve(import.meta.dirname, "../../screenshots");
   await page.screenshot({ path: path.join(dir, `${name}.png`), fullPage: true });
-  const problems = await accessibilityProblems(page);
+  const problems = [...(await accessibilityProblems(page)), ...(await sidewaysScroll(page))];
   // E2E_AXE=report lists every page's violations and lets the journeys go on (to see them all at once).
   if (problems.length && process.env.E2E_AXE === "report") console.log(`accessibility: ${name}\n${problems.join("\n")}`);
-  else if (problems.length) throw new Error(`accessibility: ${name} (${page.url()}) has ${problems.length} serious or critical violations:\n${problems.join("\n")}`);
+  else if (problems.length) throw new Error(`accessibility: ${name} (${page.url()}) has ${problems.length} accessibility or layout problems:\n${problems.join("\n")}`);
 }
