@@ -44,6 +44,29 @@ describe("smoke: every role lands on its own home", () => {
     });
   }
 
+  // Every area's index page, at both widths: the pictures' axe check and the phone's sideways check
+  // (`shot` in tests/e2e/harness.ts) cover the pages no other journey opens.
+  const AREAS: { email: string; role: keyof typeof DEMO_PASSWORDS; paths: string[] }[] = [
+    { email: "admin@ostrevane.example", role: "admin", paths: ["/admin/sales", "/admin/production", "/admin/accounts", "/admin/catalogue", "/admin/firms", "/admin/staff", "/admin/audit", "/admin/outbox"] },
+    { email: "lead@caldrith.example", role: "client_admin", paths: ["/portal/payments", "/portal/firm", "/portal/requests/new"] },
+  ];
+  for (const area of AREAS) {
+    it(`${area.role}'s pages pass the accessibility and phone-width checks: ${area.paths.join(", ")}`, async () => {
+      const { context, page } = await newPage(browser);
+      await signIn(page, stack.baseUrl, area.email, DEMO_PASSWORDS[area.role]);
+      for (const p of area.paths) {
+        const name = p.slice(1).replaceAll("/", "-");
+        await page.setViewportSize(DESKTOP);
+        await page.goto(`${stack.baseUrl}${p}`);
+        await page.waitForLoadState("load");
+        await shot(page, `${name}-desktop`);
+        await page.setViewportSize(PHONE);
+        await shot(page, `${name}-phone`);
+      }
+      await context.close();
+    }, 180_000);
+  }
+
   it("a wrong password gets a plain message that does not say whether the e-mail exists", async () => {
     const { context, page } = await newPage(browser);
     await page.goto(`${stack.baseUrl}/sign-in`);
