@@ -147,6 +147,14 @@ export const AUDIT_ACTION_LABEL: Record<string, string> = {
   "stage.change": "Stage changed",
   "payment.amount_mismatch": "Payment amount did not match",
   "payment.paid": "Payment received",
+  "org.terms": "Payment terms set",
+  "invoice.overdue": "Invoice overdue",
+  "transfer.opened": "Bank transfer opened",
+  "transfer.received": "Bank transfer arrived",
+  "transfer.resolved": "Bank transfer settled by accounts",
+  "payment.manual": "Payment recorded by accounts",
+  "tax_exemption.upload": "Tax-exemption certificate sent",
+  "tax_exemption.review": "Tax-exemption certificate reviewed",
 };
 
 export function auditActionLabel(action: string): string {
@@ -167,6 +175,8 @@ const AUDIT_ENTITY_LABEL: Record<string, string> = {
   rate_card: "Rate card",
   ledger: "Ledger",
   file: "File",
+  tax_exemption: "Tax-exemption certificate",
+  transfer_funds: "Bank transfer",
 };
 
 export function auditEntityLabel(entityType: string): string {
@@ -186,4 +196,66 @@ export const AUDIT_FIELD_LABEL: Record<string, string> = {
   cellKey: "cell",
   poNumber: "PO number",
   receiptNumber: "receipt number",
+};
+
+export type PaymentTermsKey = "prepay" | "net30" | "net45" | "net60";
+/** How a firm pays: up front (deposit, then balance), or on account on net terms. */
+export const PAYMENT_TERMS_LABEL: Record<PaymentTermsKey, string> = {
+  prepay: "Deposit and balance",
+  net30: "Net 30",
+  net45: "Net 45",
+  net60: "Net 60",
+};
+
+/** How a payment is made. Screens say "bank transfer", never the processor's object names. */
+export const PAYMENT_METHOD_LABEL: Record<"card" | "bank_transfer" | "manual", string> = {
+  card: "Card",
+  bank_transfer: "Bank transfer",
+  manual: "Recorded by accounts",
+};
+
+/** What a bank transfer that arrived did. */
+export const FUNDS_STATUS_LABEL: Record<"applied" | "short" | "over" | "unmatched" | "late", string> = {
+  applied: "Applied in full",
+  short: "Short",
+  over: "Over",
+  unmatched: "Unknown reference",
+  late: "Late",
+};
+export const FUNDS_STATUS_TONE: Record<keyof typeof FUNDS_STATUS_LABEL, LabelTone> = {
+  applied: "ok",
+  short: "warn",
+  over: "warn",
+  unmatched: "danger",
+  late: "warn",
+};
+
+/** An invoice on terms. */
+export const INVOICE_STANDING_LABEL: Record<"paid" | "not_invoiced" | "open" | "due_soon" | "overdue", string> = {
+  paid: "Paid",
+  not_invoiced: "Invoiced when it ships",
+  open: "Open",
+  due_soon: "Due soon",
+  overdue: "Overdue",
+};
+export const INVOICE_STANDING_TONE: Record<keyof typeof INVOICE_STANDING_LABEL, LabelTone> = {
+  paid: "ok",
+  not_invoiced: "neutral",
+  open: "info",
+  due_soon: "warn",
+  overdue: "danger",
+};
+
+/** A tax-exemption certificate; "expired" is an approved one past its expiry. */
+export const EXEMPTION_STATE_LABEL: Record<"pending" | "approved" | "rejected" | "expired", string> = {
+  pending: "Waiting for accounts",
+  approved: "Approved",
+  rejected: "Not accepted",
+  expired: "Expired",
+};
+export const EXEMPTION_STATE_TONE: Record<keyof typeof EXEMPTION_STATE_LABEL, LabelTone> = {
+  pending: "info",
+  approved: "ok",
+  rejected: "danger",
+  expired: "warn",
 };

@@ -9,6 +9,7 @@ import { Card, CardTitle, EmptyState } from "@/components/ui/card";
 import { Field, FormMessage, Input } from "@/components/ui/input";
 import { formatCents } from "@/lib/money";
 import { CostLines, lineQuantity } from "./cost-lines";
+import { PdfUpload } from "./pdf-upload";
 import { FigureKind } from "./estimate-panel";
 import { day, instantDay, quoteChanges, type QuoteView } from "./quote-changes";
 import { spreadMargin } from "@/lib/quoting/client-lines";
@@ -36,6 +37,48 @@ export interface AcceptanceView {
   shipTos: ShipToChoice[];
   exemption: { certificateNumber: string; expiresOn: string } | null;
   canManageAddresses: boolean;
+  /** The firm's net terms, when accounts approved them: what it owes on account now and its limit. */
+  account?: { termsLabel: string; limitCents: number; openCents: number } | null;
+}
+
+type PayBy = "card" | "bank_transfer" | "account";
+
+function PayByPicker({ value, onChange, account, totalCents, currency, error }: { value: PayBy; onChange: (v: PayBy) => void; account: AcceptanceView["account"]; totalCents: number | null; currency: string; error?: string }) {
+  const available = account ? Math.max(0, account.limitCents - account.openCents) : 0;
+  const isOver = account && totalCents !== null ? account.openCents + totalCents > account.limitCents : false;
+  const options: { key: PayBy; title: string; text: string; disabled?: boolean }[] = [
+    ...(account
+      ? [{ key: "account" as const, title: `On account, ${account.termsLabel}`, text: isOver ? `Over your credit limit: ${formatCents(available, currency)} of ${formatCents(account.limitCents, currency)} is left.` : `No deposit: one invoice when the order ships, due on your terms. ${formatCents(available, currency)} of your ${formatCents(account.limitCents, currency)} limit is left.`, disabled: isOver }]
+      : []),
+    { key: "card", title: "Deposit by card", text: "Paid now on the payment page; the balance when the order ships." },
+    { key: "bank_transfer", title: "Deposit by bank transfer", text: "We give you account details and a reference; work starts when the money arrives." },
+  ];
+  return (
+    <fieldset className="space-y-2" aria-describedby={error ? "payby-error" : undefined}>
+      <legend className="text-sm font-medium text-ink-700">How your firm pays</legend>
+      {isOver ? (
+        <p className="rounded bg-amber-50 px-3 py-2 text-sm text-amber-900" role="status">
+          This order would take your firm past its credit limit ({formatCents(account!.openCents, currency)} owed on account, limit {formatCents(account!.limitCents, currency)}). Pay the deposit by card or bank transfer, or ask our accounts team to raise the limit.
+        </p>
+      ) : null}
+      <div className="grid gap-2 sm:grid-cols-3">
+        {options.map((o) => (
+          <label key={o.key} className={`flex gap-3 rounded bg-white p-3 text-sm ring-1 ${o.disabled ? "cursor-not-allowed opacity-70" : "cursor-pointer"} ${value === o.key ? "ring-2 ring-kiln-500" : "ring-paper-300"}`} data-testid="pay-by-choice">
+            <input type="radio" name="payBy" value={o.key} checked={value === o.key} disabled={o.disabled} onChange={() => onChange(o.key)} className="mt-1 accent-kiln-600" />
+            <span className="min-w-0 space-y-1">
+              <span className="block font-medium text-ink-800">{o.title}</span>
+              <span className="block text-xs text-ink-600">{o.text}</span>
+            </span>
+          </label>
+        ))}
+      </div>
+      {error ? (
+        <p id="payby-error" className="text-xs text-signal-danger" role="alert">
+          {error}
+        </p>
+      ) : null}
+    </fieldset>
+  );
 }
 
 function ShipToPicker({ choices, value, onChange, currency, error }: { choices: ShipToChoice[]; value: string; onChange: (id: string) => void; currency: string; error?: string }) {
@@ -75,6 +118,11 @@ function AcceptForm({ quote, defaultPo, acceptance }: { quote: QuoteView; defaul
   const chosen = choices.find((c) => c.id === shipToId) ?? null;
   const depositCents = chosen?.depositCents ?? quote.depositCents;
   const [po, setPo] = useState(defaultPo);
+  const account = acceptance?.account ?? null;
+  const fitsAccount = account && chosen ? account.openCents + chosen.totalCents <= account.limitCents : false;
+  const [payBy, setPayBy] = useState<PayBy>(fitsAccount ? "account" : "card");
+  const effectivePayBy: PayBy = payBy === "account" && !fitsAccount ? "card" : payBy;
+  const [poUploadId, setPoUploadId] = useState<string | null>(null);
   const [terms, setTerms] = useState(false);
   const [errors, setErrors] = useState<Record<string, string[]>>({});
   const [message, setMessage] = useState<string | null>(null);
@@ -84,7 +132,7 @@ function AcceptForm({ quote, defaultPo, acceptance }: { quote: QuoteView; defaul
     if (busy) return;
     setBusy(true);
     setMessage(null);
-    const res = await acceptQuote({ quoteId: quote.id, poNumber: po, acceptTerms: terms as true, shipToId: shipToId || undefined });
+    const res = await acceptQuote({ quoteId: quote.id, poNumber: po, acceptTerms: terms as true, shipToId: shipToId || undefined, payBy: effectivePayBy, poUploadId: poUploadId ?? undefined });
     if (!res.ok) {
       setErrors(res.fieldErrors ?? {});
       setMessage(res.message);
@@ -115,13 +163,22 @@ function AcceptForm({ quote, defaultPo, acceptance }: { quote: QuoteView; defaul
           No tax: your firm&apos;s exemption certificate {acceptance.exemption.certificateNumber} is on file, valid until {day(acceptance.exemption.expiresOn)}.
         </p>
       ) : null}
+      <PayByPicker value={effectivePayBy} onChange={setPayBy} account={account} totalCents={chosen?.totalCents ?? null} currency={quote.currency} error={errors.payBy?.[0]} />
       <p className="text-sm text-ink-700">
-        Accepting makes the order{chosen ? <> for <strong className="figures">{formatCents(chosen.totalCents, quote.currency)}</strong></> : null}. A deposit of{" "}
-        <strong className="figures">{formatCents(depositCents, quote.currency)}</strong> is paid next by card; the balance when the order ships.
+        Accepting makes the order{chosen ? <> for <strong className="figures">{formatCents(chosen.totalCents, quote.currency)}</strong></> : null}.{" "}
+        {effectivePayBy === "account" ? (
+          <>No deposit: the order is invoiced on your firm&apos;s terms ({account?.termsLabel}) when it ships.</>
+        ) : (
+          <>
+            A deposit of <strong className="figures">{formatCents(depositCents, quote.currency)}</strong> is paid next {effectivePayBy === "card" ? "by card" : "by bank transfer"}; the balance when the order ships.
+          </>
+        )}
       </p>
       <Field label="Your purchase order number" htmlFor={`po-${quote.id}`} error={errors.poNumber?.[0]}>
         <Input id={`po-${quote.id}`} value={po} onChange={(e) => setPo(e.target.value)} aria-invalid={Boolean(errors.poNumber)} autoComplete="off" />
       </Field>
+      <PdfUpload id={`po-file-${quote.id}`} label="Purchase order PDF (optional)" hint="Attach your PO; it is filed with the order." onUploaded={setPoUploadId} />
+      {errors.poUploadId ? <p className="text-xs text-signal-danger" role="alert">{errors.poUploadId[0]}</p> : null}
       <label className="flex items-start gap-2 text-sm">
         <input type="checkbox" className="mt-1 accent-kiln-600" checked={terms} onChange={(e) => setTerms(e.target.checked)} />
         <span>
@@ -146,7 +203,7 @@ function AcceptForm({ quote, defaultPo, acceptance }: { quote: QuoteView; defaul
       {errors.acceptTerms ? <p className="text-xs text-signal-danger" role="alert">{errors.acceptTerms[0]}</p> : null}
       <FormMessage>{message}</FormMessage>
       <Button type="submit" disabled={busy || choices.length === 0}>
-        {busy ? "Accepting…" : "Accept and pay the deposit"}
+        {busy ? "Accepting…" : effectivePayBy === "account" ? "Accept on account" : effectivePayBy === "bank_transfer" ? "Accept and pay by bank transfer" : "Accept and pay the deposit"}
       </Button>
     </form>
   );

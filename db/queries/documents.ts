@@ -2,6 +2,7 @@ import "server-only";
 import { desc, eq } from "drizzle-orm";
 import type { Db } from "../client";
 import { documents } from "../schema";
+import type { Tx } from "./audit";
 
 /** A request's documents (reports, invoices, quote pages, attachments), newest first. */
 export async function listDocuments(db: Db, requestId: string) {
@@ -12,7 +13,7 @@ export async function listDocuments(db: Db, requestId: string) {
     .orderBy(desc(documents.createdAt));
 }
 
-export async function createDocument(db: Db, input: typeof documents.$inferInsert) {
+export async function createDocument(db: Db | Tx, input: typeof documents.$inferInsert) {
   const [row] = await db.insert(documents).values(input).returning({ id: documents.id });
   return row!;
 }

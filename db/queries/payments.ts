@@ -39,6 +39,11 @@ const paymentColumns = {
   checkoutUrl: payments.checkoutUrl,
   receiptUrl: payments.receiptUrl,
   receiptNumber: payments.receiptNumber,
+  method: payments.method,
+  transferReference: payments.transferReference,
+  transferDetails: payments.transferDetails,
+  receivedCents: payments.receivedCents,
+  externalReference: payments.externalReference,
   createdAt: payments.createdAt,
   paidAt: payments.paidAt,
 };

@@ -24,6 +24,7 @@ export const PERMISSIONS = [
   "production:record",
   "accounts:ledger",
   "accounts:refund",
+  "accounts:terms",
   "admin:staff",
   "admin:catalogue",
   "admin:audit",
@@ -40,7 +41,7 @@ export const ROLE_PERMISSIONS: Record<Role, ReadonlySet<Permission>> = {
   client_admin: new Set<Permission>([...CLIENT, "request:read_org", "members:manage", "billing:manage"]),
   sales: new Set<Permission>([...STAFF_BASE, "sales:inbox", "quote:manage", "message:post"]),
   production: new Set<Permission>([...STAFF_BASE, "production:board", "production:schedule", "production:record"]),
-  accounts: new Set<Permission>([...STAFF_BASE, "accounts:ledger", "accounts:refund"]),
+  accounts: new Set<Permission>([...STAFF_BASE, "accounts:ledger", "accounts:refund", "accounts:terms"]),
   admin: new Set<Permission>(PERMISSIONS),
 };
 

@@ -1,4 +1,7 @@
-import { and, asc, eq, inArray } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNotNull } from "drizzle-orm";
+import { PAYMENT_METHOD_LABEL, PAYMENT_TERMS_LABEL } from "../labels";
+import { formatDate } from "../dates";
+import { NET_DAYS } from "../payments/terms";
 import type { Db } from "../../db/client";
 import type { Tx } from "../../db/queries/audit";
 import { getIssuedDocumentBySource, getTermsVersion } from "../../db/queries/issued-documents";
@@ -156,7 +159,8 @@ export async function buildDepositInvoiceData(q: Q, paymentId: string, now: Date
     lines: [{ description: `Deposit, ${share}% of the order total on quotation ${quoteNumber ?? `v${quote.version}`}`, quantity: 1, unitCents: payment.amountCents - tax, amountCents: payment.amountCents - tax }],
     totals: { subtotalCents: payment.amountCents - tax, marginCents: 0, taxBp: orderTotals.taxBp, taxCents: tax, totalCents: payment.amountCents },
     paidAt: payment.paidAt?.toISOString() ?? null,
-    paymentReference: payment.id.slice(0, 8).toUpperCase(),
+    paymentReference: payment.transferReference ?? payment.externalReference ?? payment.id.slice(0, 8).toUpperCase(),
+    paidBy: PAYMENT_METHOD_LABEL[payment.method].toLowerCase(),
     termsVersion: order.termsVersion,
   };
 }
@@ -167,6 +171,18 @@ export async function buildBalanceInvoiceData(q: Q, orderId: string, now: Date):
   const deposits = await q.select().from(payments).where(and(eq(payments.orderId, orderId), eq(payments.kind, "deposit"), inArray(payments.status, ["paid", "partially_refunded", "refunded"])));
   const depositPayment = deposits[0] ?? null;
   const depositDoc = depositPayment ? await getIssuedDocumentBySource(q, "deposit_invoice", depositPayment.id) : null;
+  const [transferPay] = await q
+    .select()
+    .from(payments)
+    .where(and(eq(payments.orderId, orderId), eq(payments.kind, "balance"), eq(payments.method, "bank_transfer"), isNotNull(payments.transferReference)))
+    .orderBy(desc(payments.createdAt))
+    .limit(1);
+  const transfer = transferPay?.transferReference && transferPay.transferDetails ? { reference: transferPay.transferReference, ...transferPay.transferDetails } : null;
+  const onAccount = order.paymentTerms !== "prepay";
+  const termsLabel = PAYMENT_TERMS_LABEL[order.paymentTerms];
+  const dueText = onAccount && order.dueAt
+    ? `Due by ${formatDate(order.dueAt)} (${termsLabel}: ${NET_DAYS[order.paymentTerms as keyof typeof NET_DAYS]} days from the invoice date), on your purchase order ${order.poNumber}.`
+    : "Due on receipt of this invoice (the parts have shipped).";
   return {
     kind: "invoice",
     issuedAt: now.toISOString(),
@@ -187,8 +203,11 @@ export async function buildBalanceInvoiceData(q: Q, orderId: string, now: Date):
     totals,
     deposit: { invoiceNumber: depositDoc?.number ?? null, amountCents: order.depositCents, isPaid: Boolean(depositPayment) },
     balanceDueCents: order.balanceCents,
-    dueText: "Due on receipt of this invoice (the parts have shipped).",
+    dueText,
     termsVersion: order.termsVersion,
+    paymentTerms: onAccount ? termsLabel : null,
+    dueAt: onAccount ? (order.dueAt?.toISOString() ?? null) : null,
+    transfer,
   };
 }
 

@@ -229,7 +229,7 @@ function Body({ d }: { d: DocumentData }) {
           <Lines lines={d.lines} currency={d.currency} />
           <Totals totals={d.totals} currency={d.currency} grandLabel="Deposit" extra={d.paidAt ? [{ label: "Amount due", cents: 0, strong: true }] : undefined} />
           <TaxNote note={d.taxNote} />
-          {d.paidAt ? <Text style={s.stamp}>{`PAID ${day(d.paidAt)} by card · payment ${d.paymentReference}`}</Text> : null}
+          {d.paidAt ? <Text style={s.stamp}>{`PAID ${day(d.paidAt)} by ${d.paidBy ?? "card"} · payment ${d.paymentReference}`}</Text> : null}
           <View style={s.section}>
             <Text style={s.muted}>The balance is invoiced when the parts ship. Tax on this deposit is the order&apos;s tax in proportion to the amount.</Text>
           </View>
@@ -238,22 +238,26 @@ function Body({ d }: { d: DocumentData }) {
     case "invoice":
       return (
         <>
-          <Meta items={[["Project", d.projectName], ["Request", d.reference], ["Quotation", d.quoteNumber ?? `version ${d.quoteVersion}`], ["Terms of sale", d.termsVersion ? `version ${d.termsVersion}` : null]]} />
+          <Meta items={[["Project", d.projectName], ["Request", d.reference], ["Quotation", d.quoteNumber ?? `version ${d.quoteVersion}`], ["Terms of sale", d.termsVersion ? `version ${d.termsVersion}` : null], ["Payment terms", d.paymentTerms ?? null], ["Due date", d.dueAt ? day(d.dueAt) : null]]} />
           <Lines lines={d.lines} currency={d.currency} />
           <Totals
             totals={d.totals}
             currency={d.currency}
             grandLabel="Order total"
             extra={[
-              { label: `Less deposit${d.deposit.invoiceNumber ? ` (${d.deposit.invoiceNumber})` : ""}${d.deposit.isPaid ? ", paid" : ""}`, cents: -d.deposit.amountCents },
-              { label: "Balance due", cents: d.balanceDueCents, strong: true },
+              ...(d.deposit.amountCents > 0 ? [{ label: `Less deposit${d.deposit.invoiceNumber ? ` (${d.deposit.invoiceNumber})` : ""}${d.deposit.isPaid ? ", paid" : ""}`, cents: -d.deposit.amountCents }] : []),
+              { label: d.paymentTerms ? `Amount due${d.dueAt ? ` by ${day(d.dueAt)}` : ""}` : "Balance due", cents: d.balanceDueCents, strong: true },
             ]}
           />
           <TaxNote note={d.taxNote} />
           <View style={s.section}>
             <Text style={s.h2}>Payment</Text>
             <Text>{d.dueText}</Text>
-            <Text>{BUREAU.bank}</Text>
+            {d.transfer ? (
+              <Text>{`By bank transfer: ${d.transfer.bankName}, account holder ${d.transfer.accountHolder}, account ${d.transfer.accountNumber}, routing ${d.transfer.routingNumber}${d.transfer.swiftCode ? `, SWIFT ${d.transfer.swiftCode}` : ""}. Transfer reference: ${d.transfer.reference} (quote it exactly, so the money is matched to this invoice).`}</Text>
+            ) : (
+              <Text>{BUREAU.bank}</Text>
+            )}
             <Text>Please quote {d.number ?? "this invoice's number"} and your PO number with any payment.</Text>
           </View>
           <Cautions cautions={d.cautions} />

@@ -74,7 +74,19 @@ export interface DepositInvoiceData extends Base {
   totals: DocumentTotals;
   paidAt: string | null;
   paymentReference: string | null;
+  /** How it was paid ("card", "bank transfer"…); absent on documents issued before transfers. */
+  paidBy?: string | null;
   termsVersion: number | null;
+}
+
+/** Where to send a bank transfer and the reference to quote, printed on an invoice. */
+export interface TransferInstructions {
+  reference: string;
+  bankName: string;
+  accountHolder: string;
+  accountNumber: string;
+  routingNumber: string;
+  swiftCode: string | null;
 }
 
 export interface BalanceInvoiceData extends Base {
@@ -87,6 +99,11 @@ export interface BalanceInvoiceData extends Base {
   balanceDueCents: number;
   dueText: string;
   termsVersion: number | null;
+  /** Net terms ("Net 30") and the due date, for an invoice on account. */
+  paymentTerms?: string | null;
+  dueAt?: string | null;
+  /** The bank transfer opened for this balance, when there is one. */
+  transfer?: TransferInstructions | null;
 }
 
 export interface CreditNoteData extends Base {

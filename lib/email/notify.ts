@@ -7,6 +7,10 @@ import { getOrderWithRequest, getPayment } from "@/db/queries/payments";
 import { getMessageWithAuthor, listThreadClientEmails } from "@/db/queries/messages";
 import { getRequestContacts } from "@/db/queries/requests";
 import BalanceDueEmail from "@/emails/balance-due";
+import InvoiceReminderEmail from "@/emails/invoice-reminder";
+import { listTermsInvoices } from "@/db/queries/account-terms";
+import { listPaymentsForOrder } from "@/db/queries/payments";
+import { PAYMENT_TERMS_LABEL } from "@/lib/labels";
 import DepositReceivedEmail from "@/emails/deposit-received";
 import QuoteReadyEmail from "@/emails/quote-ready";
 import RequestReceivedEmail from "@/emails/request-received";
@@ -209,6 +213,37 @@ export async function notifyBalanceDue(orderId: string, db: Db = getDb()) {
     }),
     tags: [{ name: "template", value: "balance-due" }],
     idempotencyKey: `balance-due/${orderId}`,
+  }, db);
+}
+
+/**
+ * An invoice on net terms coming due (the reminder) or past due (the overdue notice), to the
+ * client who ordered and the firm's billing address. One of each per invoice.
+ */
+export async function notifyInvoiceReminder(orderId: string, which: "reminder" | "overdue", db: Db = getDb()) {
+  const row = await getOrderWithRequest(db, orderId);
+  if (!row) throw new Error(`notify: order ${orderId} not found`);
+  const [inv] = (await listTermsInvoices(db, { orgId: row.order.orgId })).filter((i) => i.orderId === orderId);
+  if (!inv?.dueAt) throw new Error(`notify: order ${orderId} has no invoice on terms`);
+  const c = await contactsOrThrow(db, row.request.id);
+  const transfer = (await listPaymentsForOrder(db, orderId)).find((p) => p.kind === "balance" && p.status === "pending" && p.transferReference);
+  await queueEmail({
+    to: recipients(c.creatorEmail, c.billingEmail),
+    subject: which === "overdue" ? `Overdue: ${inv.invoiceNumber ?? "invoice"} for ${c.reference}` : `Due ${formatDate(inv.dueAt)}: ${inv.invoiceNumber ?? "invoice"} for ${c.reference}`,
+    react: createElement(InvoiceReminderEmail, {
+      reference: c.reference,
+      projectName: c.projectName,
+      invoiceNumber: inv.invoiceNumber,
+      amount: formatCents(inv.owedCents, row.order.currency),
+      dueDate: formatDate(inv.dueAt),
+      terms: PAYMENT_TERMS_LABEL[row.order.paymentTerms],
+      poNumber: row.order.poNumber,
+      isOverdue: which === "overdue",
+      transferReference: transfer?.transferReference ?? null,
+      url: requestUrl(c.id),
+    }),
+    tags: [{ name: "template", value: which === "overdue" ? "invoice-overdue" : "invoice-reminder" }],
+    idempotencyKey: `invoice-${which}/${orderId}`,
   }, db);
 }
 

@@ -5,6 +5,8 @@ import { sweepAnalyses } from "../analysis/run";
 import { sweepEmails } from "../email/outbox";
 import { utcDay } from "../retention/policy";
 import { runRetention } from "../retention/run";
+import { runTermsNotices } from "../payments/dunning";
+import { notifyInvoiceReminder } from "../email/notify";
 import { deleteStoredFiles } from "../uploads/uploadthing";
 import { errorFields, rootLogger } from "./log";
 
@@ -28,6 +30,9 @@ export function startBackgroundWork(): void {
     try {
       const now = new Date();
       const db = getDb();
+      // Invoice reminders are claimed one by one, so every hourly pass may look.
+      const notices = await runTermsNotices(db, now, (orderId, which) => notifyInvoiceReminder(orderId, which, db));
+      if (notices.reminders.length || notices.overdue.length) log.info({ event: "invoice.notices", reminders: notices.reminders.length, overdue: notices.overdue.length }, "invoice reminders and overdue notices queued");
       if (!(await claimRetentionRun(db, utcDay(now)))) return;
       const summary = await runRetention(db, { now, deleteStoredFiles });
       log.info({ event: "retention.run", requests: summary.requests, files: summary.files, failed: summary.failed.length }, "retention run");

@@ -130,6 +130,10 @@ export const acceptQuoteSchema = z.object({
   acceptTerms: z.literal(true, { error: "Accept the terms to go ahead." }),
   /** One of the firm's shipping addresses, freight priced to it; the default ship-to when absent. */
   shipToId: z.string().min(1, "Pick where the order ships.").max(64).optional(),
+  /** How the order is paid: the deposit by card or bank transfer, or the whole on the firm's account (net terms). */
+  payBy: z.enum(["card", "bank_transfer", "account"], { error: "Pick how to pay." }).default("card"),
+  /** The buyer's purchase order as a PDF (optional), an upload of the user's. */
+  poUploadId: z.string().min(1).max(64).optional(),
 });
 export type AcceptQuoteInput = z.input<typeof acceptQuoteSchema>;
 

@@ -16,6 +16,9 @@ import { isBackwardMove, label, roleMayMove } from "@/lib/orders/stages";
 import { findConflicts, jobDurations, planBlocks } from "@/lib/scheduling/blocks";
 import { anyRecord, defineAction, fieldErrorsByPath } from "@/lib/server/define-action";
 import { actualsSchema, fileReportSchema, isConfirmedMove, moveStageSchema, scheduleSchema } from "@/lib/validation/admin-production";
+import { eq } from "drizzle-orm";
+import { orders } from "@/db/schema";
+import { dueDateFor, isOnAccount } from "@/lib/payments/terms";
 
 const fmt = (d: Date) => formatDateTime(d);
 const OFF_THE_CELL = new Set<string>(["shipped", "delivered", "closed", "cancelled"]);
@@ -114,6 +117,12 @@ export const moveStage = defineAction({ access: "production:record", input: move
       const trimmed = await trimCellBlocksAfter(tx, order.order.id, new Date());
       if (trimmed) await writeAudit(tx, { actorId: user.id, action: "order.release_cell", entityType: "order", entityId: order.order.id, orgId: order.order.orgId, after: { trimmedBlocks: trimmed, reason: "shipped" } });
       const balanceId = await ensureBalancePayment(tx, order.order, user.id);
+      // On net terms the invoice is dated with the shipment and falls due on the terms' date.
+      const terms = order.order.paymentTerms;
+      if (isOnAccount(terms)) {
+        const invoicedAt = new Date();
+        await tx.update(orders).set({ invoicedAt, dueAt: dueDateFor(terms, invoicedAt) }).where(eq(orders.id, order.order.id));
+      }
       // The packing list and the balance invoice are numbered with the shipment itself.
       await issueDocumentInTx(tx, { kind: "packing_list", sourceId: order.order.id, actorId: user.id });
       if (order.order.balanceCents > 0) await issueDocumentInTx(tx, { kind: "invoice", sourceId: order.order.id, actorId: user.id });

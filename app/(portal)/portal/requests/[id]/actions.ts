@@ -22,6 +22,10 @@ import { env } from "@/lib/env";
 import { AppError, toActionError, type ActionResult } from "@/lib/errors";
 import { openCheckout, type CheckoutResult } from "@/lib/payments/checkout";
 import { splitDeposit } from "@/lib/payments/deposit";
+import { getFirmTerms, openOnAccountCents } from "@/db/queries/account-terms";
+import { checkCredit, isOnAccount } from "@/lib/payments/terms";
+import { PAYMENT_TERMS_LABEL } from "@/lib/labels";
+import { formatCents } from "@/lib/money";
 import { acceptQuoteSchema, messageSchema, type AcceptQuoteInput } from "@/lib/validation/request";
 import { formatDate } from "@/lib/dates";
 
@@ -66,8 +70,31 @@ export async function acceptQuote(input: AcceptQuoteInput): Promise<ActionResult
     const split = splitDeposit(quote.totalCents, quote.depositBp);
     const quotedDeposit = quote.depositCents > 0 ? quote.depositCents : split.depositCents;
     const totalCents = f.isChanged ? f.totalCents : quote.totalCents;
-    const depositCents = f.isChanged ? f.depositCents : quotedDeposit;
+    const { payBy } = parsed.data;
+    // On account: no deposit; the whole is invoiced on the firm's terms when the order ships.
+    const terms = await getFirmTerms(db, request.orgId);
+    const onAccount = payBy === "account";
+    if (onAccount) {
+      if (!terms || !isOnAccount(terms.paymentTerms)) {
+        throw new AppError("conflict:terms", "Your firm does not pay on account yet: pay the deposit by card or bank transfer, or ask the bureau's accounts team for net terms.", { payBy: ["Not available to your firm yet."] });
+      }
+      const openCents = await openOnAccountCents(db, request.orgId);
+      const credit = checkCredit({ limitCents: terms.creditLimitCents, openCents, orderCents: totalCents });
+      if (!credit.ok) {
+        const msg = `This order (${formatCents(totalCents, quote.currency)}) would take your firm past its credit limit of ${formatCents(terms.creditLimitCents, quote.currency)}: ${formatCents(openCents, quote.currency)} is open on account, ${formatCents(credit.availableCents, quote.currency)} is left. Pay the deposit by card or bank transfer instead; nothing was accepted.`;
+        throw new AppError("conflict:credit_limit", msg, { payBy: [`Over your credit limit by ${formatCents(credit.overByCents, quote.currency)}.`] });
+      }
+    }
+    let poUpload: Awaited<ReturnType<typeof getUploadOwned>> = null;
+    if (parsed.data.poUploadId) {
+      poUpload = await getUploadOwned(db, parsed.data.poUploadId, user.id);
+      if (!poUpload) throw new AppError("invalid_input", "That purchase order file was not found; upload it again.", { poUploadId: ["Upload the PDF again."] });
+      if (poUpload.contentType !== "application/pdf" && !/\.pdf$/i.test(poUpload.fileName)) throw new AppError("invalid_input", "The purchase order must be a PDF.", { poUploadId: ["Upload a PDF."] });
+    }
+    const depositCents = onAccount ? 0 : f.isChanged ? f.depositCents : quotedDeposit;
     const extra = {
+      paymentTerms: onAccount && terms ? terms.paymentTerms : ("prepay" as const),
+      poUploadId: poUpload?.id ?? null,
       shipTo: snapshotOf(option.address, option.zone),
       billTo: ctx.billing ? snapshotOf(ctx.billing) : null,
       ...(f.isChanged ? { lines: f.lines, subtotalCents: f.subtotalCents, marginCents: f.marginCents, taxBp: f.taxBp, taxCents: f.taxCents } : {}),
@@ -92,12 +119,22 @@ export async function acceptQuote(input: AcceptQuoteInput): Promise<ActionResult
       });
       if (!o) throw new AppError("conflict:quote", "This quote changed meanwhile; reload the page.");
       await transitionStage(tx, { requestId: request.id, to: "accepted", actorId: user.id, note: `Quote v${quote.version} accepted, PO ${parsed.data.poNumber}, ships to ${option.address.label}`, expectedFrom: "quoted" });
+      if (onAccount && terms) {
+        await transitionStage(tx, { requestId: request.id, to: "deposit_paid", actorId: user.id, note: `On account (${PAYMENT_TERMS_LABEL[terms.paymentTerms]}), PO ${parsed.data.poNumber}: no deposit; invoiced when the order ships`, expectedFrom: "accepted" });
+      }
+      if (poUpload) {
+        await createDocument(tx, { requestId: request.id, orgId: request.orgId, kind: "attachment", title: `Purchase order ${parsed.data.poNumber}`, fileKey: poUpload.fileKey, fileName: poUpload.fileName, sizeBytes: poUpload.sizeBytes, contentType: poUpload.contentType, uploadedById: user.id });
+      }
       await writeAudit(tx, {
         actorId: user.id, action: "quote.accept", entityType: "quote", entityId: quote.id, orgId: request.orgId,
-        after: { poNumber: parsed.data.poNumber, totalCents, quotedTotalCents: quote.totalCents, freightCents: f.freightCents, shipTo: option.address.label, freightZone: option.zone?.key ?? null, taxExempt: Boolean(ctx.exemption), termsVersion },
+        after: { poNumber: parsed.data.poNumber, payBy, paymentTerms: extra.paymentTerms, poFile: poUpload?.fileName ?? null, totalCents, quotedTotalCents: quote.totalCents, freightCents: f.freightCents, shipTo: option.address.label, freightZone: option.zone?.key ?? null, taxExempt: Boolean(ctx.exemption), termsVersion },
       });
       return o;
     });
+    if (onAccount) {
+      revalidatePath(`/portal/requests/${request.id}`);
+      return { ok: true, data: { url: null, isComplete: false, orderId: order.id } };
+    }
     const checkout = await openCheckout(db, { orderId: order.id, kind: "deposit", userId: user.id, email: user.email, appUrl: env().APP_URL }).catch((e: unknown) => {
       // The acceptance stands; the deposit can be paid from the order page.
       console.error("checkout after acceptance failed", e);

@@ -2,6 +2,9 @@ import type { Metadata } from "next";
 import { getDb } from "@/db/client";
 import { getQuoteWithRequest, listClientQuotes } from "@/db/queries/client-quotes";
 import { acceptanceContext } from "@/lib/orders/acceptance";
+import { openOnAccountCents } from "@/db/queries/account-terms";
+import { INVOICE_STANDING_LABEL, INVOICE_STANDING_TONE, PAYMENT_TERMS_LABEL } from "@/lib/labels";
+import { invoiceStanding } from "@/lib/payments/terms";
 import { addressLines } from "@/lib/validation/address";
 import { listDocuments } from "@/db/queries/documents";
 import { listIssuedDocuments } from "@/db/queries/issued-documents";
@@ -39,7 +42,7 @@ import type { EstimateResult } from "@/lib/estimating/types";
 import { CURE_LABEL, DOCUMENT_KIND_LABEL } from "@/lib/labels";
 import { formatCents } from "@/lib/money";
 import { formatTempBoth } from "@/lib/units";
-import { formatDay } from "@/lib/dates";
+import { formatDate, formatDay } from "@/lib/dates";
 
 export const metadata: Metadata = { title: "Request" };
 export const dynamic = "force-dynamic";
@@ -98,6 +101,9 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
   const acceptCtx = openQuote ? await acceptanceContext(db, { quote: openQuote, orgId: req.orgId, requestId: req.id, now: new Date() }) : null;
   const canRevise = (req.stage === "submitted" || req.stage === "quoted") && can(user, "request:edit_draft", { orgId: req.orgId, createdById: req.createdById });
   const checkout = sp.checkout === "success" || sp.checkout === "cancelled" ? sp.checkout : null;
+  const account = acceptCtx && org && org.paymentTerms !== "prepay" ? { termsLabel: PAYMENT_TERMS_LABEL[org.paymentTerms], limitCents: org.creditLimitCents, openCents: await openOnAccountCents(db, req.orgId) } : null;
+  const onAccount = order ? order.paymentTerms !== "prepay" : false;
+  const standing = order && onAccount ? invoiceStanding({ dueAt: order.dueAt, isPaid: paid("balance"), now: new Date() }) : null;
 
   return (
     <>
@@ -136,13 +142,22 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
                   </div>
                   <div>
                     <dt className="text-xs text-ink-500">Deposit</dt>
-                    <dd className="figures">{formatCents(order.depositCents, order.currency)} {paid("deposit") ? <Badge tone="ok">paid</Badge> : null}</dd>
+                    <dd className="figures">{onAccount ? "None (on account)" : formatCents(order.depositCents, order.currency)} {paid("deposit") ? <Badge tone="ok">paid</Badge> : null}</dd>
                   </div>
                   <div>
-                    <dt className="text-xs text-ink-500">Balance</dt>
+                    <dt className="text-xs text-ink-500">{onAccount ? "Invoiced on account" : "Balance"}</dt>
                     <dd className="figures">{formatCents(order.balanceCents, order.currency)} {paid("balance") ? <Badge tone="ok">paid</Badge> : null}</dd>
                   </div>
                 </dl>
+                {order && onAccount && standing ? (
+                  <p className="flex flex-wrap items-center gap-2 text-sm" data-testid="terms-line">
+                    <span>
+                      On account, {PAYMENT_TERMS_LABEL[order.paymentTerms]}
+                      {order.dueAt ? <>: due by <strong>{formatDate(order.dueAt)}</strong></> : ": invoiced when the order ships"}.
+                    </span>
+                    <Badge tone={INVOICE_STANDING_TONE[standing]}>{INVOICE_STANDING_LABEL[standing]}</Badge>
+                  </p>
+                ) : null}
                 {canPay && req.stage === "accepted" && !paid("deposit") ? <PayButton orderId={order.id} kind="deposit" amountCents={order.depositCents} currency={order.currency} /> : null}
                 {canPay && (req.stage === "shipped" || req.stage === "delivered") && !paid("balance") && order.balanceCents > 0 ? (
                   <PayButton orderId={order.id} kind="balance" amountCents={order.balanceCents} currency={order.currency} />
@@ -178,6 +193,7 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
                       })),
                       exemption: acceptCtx.exemption ? { certificateNumber: acceptCtx.exemption.certificateNumber, expiresOn: acceptCtx.exemption.expiresOn.toISOString() } : null,
                       canManageAddresses: user.role === "client_admin",
+                      account,
                     }
                   : null
               }
