@@ -2,7 +2,8 @@
 
 import Link from "next/link";
 import { useState, useSyncExternalStore } from "react";
-import { payOrder } from "@/app/(portal)/portal/requests/[id]/actions";
+import { useRouter } from "next/navigation";
+import { payByTransfer, payOrder } from "@/app/(portal)/portal/requests/[id]/actions";
 import { PaymentStateBadge } from "@/components/stage-badge";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/input";
@@ -55,6 +56,62 @@ export function PayButton({ orderId, kind, amountCents, currency }: { orderId: s
         {busy ? "Opening the payment page…" : `Pay the ${kind} · ${formatCents(amountCents, currency)}`}
       </Button>
       <FormMessage>{message}</FormMessage>
+    </div>
+  );
+}
+
+/** Opens (once) the bank-transfer details for a deposit or balance; the page then shows them. */
+export function TransferButton({ orderId, kind }: { orderId: string; kind: "deposit" | "balance" }) {
+  const interactive = useSyncExternalStore(noSubscription, () => true, () => false);
+  const router = useRouter();
+  const [busy, setBusy] = useState(false);
+  const [message, setMessage] = useState<string | null>(null);
+  async function open() {
+    if (busy) return;
+    setBusy(true);
+    setMessage(null);
+    const res = await payByTransfer({ orderId, kind });
+    setBusy(false);
+    if (!res.ok) return setMessage(res.message);
+    router.refresh();
+  }
+  return (
+    <div className="space-y-2">
+      <Button type="button" variant="secondary" onClick={() => void open()} disabled={busy || !interactive}>
+        {busy ? "Getting the bank details…" : `Pay the ${kind} by bank transfer`}
+      </Button>
+      <FormMessage>{message}</FormMessage>
+    </div>
+  );
+}
+
+/** Where to send a bank transfer and the reference to quote (the payment's own). */
+export interface TransferView {
+  kind: "deposit" | "balance";
+  reference: string;
+  bankName: string;
+  accountHolder: string;
+  accountNumber: string;
+  routingNumber: string;
+  amountCents: number;
+  receivedCents: number;
+  currency: string;
+}
+
+export function TransferInstructions({ t }: { t: TransferView }) {
+  const left = t.amountCents - t.receivedCents;
+  return (
+    <div className="space-y-2 rounded bg-tide-50 p-3 text-sm ring-1 ring-tide-100" data-testid="transfer-instructions">
+      <p className="font-medium text-ink-800">
+        Bank transfer for the {t.kind}: {formatCents(left, t.currency)} {t.receivedCents > 0 ? `still to come (${formatCents(t.receivedCents, t.currency)} received)` : "to send"}
+      </p>
+      <dl className="grid gap-x-4 gap-y-1 sm:grid-cols-2">
+        <div><dt className="text-xs text-ink-500">Reference (quote it exactly)</dt><dd className="font-mono text-base font-semibold tracking-wider">{t.reference}</dd></div>
+        <div><dt className="text-xs text-ink-500">Account holder</dt><dd>{t.accountHolder}</dd></div>
+        <div><dt className="text-xs text-ink-500">Bank</dt><dd>{t.bankName}</dd></div>
+        <div><dt className="text-xs text-ink-500">Account · routing number</dt><dd className="font-mono">{t.accountNumber} · {t.routingNumber}</dd></div>
+      </dl>
+      <p className="text-xs text-ink-600">We match the money by the reference. A transfer usually takes one to three working days; you get an e-mail when it is in.</p>
     </div>
   );
 }

@@ -7,6 +7,7 @@ import { writeAudit, type Tx } from "../../db/queries/audit";
 import { getOrderWithRequest, getPayment, getPaymentBySession, markPaymentExpired, markPaymentPaid, recordWebhookEvent, isWebhookEventRecorded } from "../../db/queries/payments";
 import { transitionStage } from "../../db/queries/stages";
 import { issueDocumentInTx } from "../documents/issue";
+import { recordTransferArrival, type FundedTransaction } from "./transfers";
 
 /** What happened to one event; written to webhook_events.outcome and the log. */
 export type WebhookOutcome =
@@ -19,15 +20,31 @@ export type WebhookOutcome =
   | "paid_stage_moved"
   | "already_paid"
   | "expired"
-  | "expired_noop";
+  | "expired_noop"
+  | "transfer_applied"
+  | "transfer_short"
+  | "transfer_over"
+  | "transfer_late"
+  | "transfer_unmatched"
+  | "transfer_duplicate"
+  | "transfer_other";
 
 export interface WebhookResult {
   outcome: WebhookOutcome;
   /** Set when this event newly recorded a payment: the caller sends the e-mail after commit. */
   paidPaymentId?: string;
+  /** The payment came by bank transfer: no card fee to look up. */
+  isTransfer?: boolean;
 }
 
-const HANDLED = new Set(["checkout.session.completed", "checkout.session.async_payment_succeeded", "checkout.session.expired"]);
+const HANDLED = new Set(["checkout.session.completed", "checkout.session.async_payment_succeeded", "checkout.session.expired", "customer_cash_balance_transaction.created"]);
+
+/** A cash-balance movement: only money arriving (`funded`) is ours to record; applications follow from it. */
+async function onCashBalance(tx: Tx, t: FundedTransaction): Promise<WebhookResult> {
+  if (t.type !== "funded") return { outcome: "transfer_other" };
+  const r = await recordTransferArrival(tx, t);
+  return { outcome: `transfer_${r.status === "duplicate" ? "duplicate" : r.status === "applied" ? "applied" : r.status}` as WebhookOutcome, paidPaymentId: r.paidPaymentId, isTransfer: true };
+}
 
 class DuplicateEvent extends Error {}
 
@@ -106,7 +123,12 @@ export async function handleStripeEvent(db: Db, event: Stripe.Event, now: Date =
   try {
     return await db.transaction(async (tx) => {
       const session = event.data.object as Stripe.Checkout.Session;
-      const result = event.type === "checkout.session.expired" ? await onExpired(tx, session) : await onCompleted(tx, session, now);
+      const result =
+        event.type === "customer_cash_balance_transaction.created"
+          ? await onCashBalance(tx, event.data.object as unknown as FundedTransaction)
+          : event.type === "checkout.session.expired"
+            ? await onExpired(tx, session)
+            : await onCompleted(tx, session, now);
       if (result.outcome === "unknown_session") {
         // No write at all: roll back (nothing was written) and tell the route.
         return result;

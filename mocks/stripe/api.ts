@@ -3,6 +3,7 @@ import type { WebhookQueue } from "./delivery";
 import { arr, metadataOf, obj, str, type FormObject, type FormValue } from "./form";
 import type { Collection, Store, StripeObject } from "./store";
 import { collectionForId, newId } from "./store";
+import { createCustomer, createPaymentIntent, fundCashBalance, listCashBalanceTransactions, retrieveCustomer } from "./cash-balance";
 
 export class ApiError extends Error {
   constructor(
@@ -358,6 +359,11 @@ const routes: { method: string; pattern: RegExp; handler: Handler; creates?: boo
   { method: "GET", pattern: /^\/v1\/checkout\/sessions\/([^/]+)$/, handler: (c, p, m) => retrieve(c, "checkout_sessions", "checkout.session", m[1]!, p) },
   { method: "GET", pattern: /^\/v1\/checkout\/sessions\/([^/]+)\/line_items$/, handler: (c, p, m) => lineItems(c, m[1]!, p) },
   { method: "POST", pattern: /^\/v1\/checkout\/sessions\/([^/]+)\/expire$/, handler: (c, _p, m) => expireSession(c, m[1]!), creates: true },
+  { method: "POST", pattern: /^\/v1\/customers$/, handler: (c, p) => createCustomer(c, p), creates: true },
+  { method: "GET", pattern: /^\/v1\/customers\/([^/]+)$/, handler: (c, _p, m) => retrieveCustomer(c, m[1]!) },
+  { method: "GET", pattern: /^\/v1\/customers\/([^/]+)\/cash_balance_transactions$/, handler: (c, _p, m) => listCashBalanceTransactions(c, m[1]!) },
+  { method: "POST", pattern: /^\/v1\/test_helpers\/customers\/([^/]+)\/fund_cash_balance$/, handler: (c, p, m) => fundCashBalance(c, m[1]!, p), creates: true },
+  { method: "POST", pattern: /^\/v1\/payment_intents$/, handler: (c, p) => createPaymentIntent(c, p), creates: true },
   { method: "GET", pattern: /^\/v1\/payment_intents$/, handler: (c, p) => list(c, "payment_intents", "/v1/payment_intents", p, byField(p, ["customer"])) },
   { method: "GET", pattern: /^\/v1\/payment_intents\/([^/]+)$/, handler: (c, p, m) => retrieve(c, "payment_intents", "payment_intent", m[1]!, p) },
   { method: "GET", pattern: /^\/v1\/charges$/, handler: (c, p) => list(c, "charges", "/v1/charges", p, byField(p, ["payment_intent", "customer"])) },

@@ -6,6 +6,7 @@ import { WebhookQueue } from "./delivery";
 import { parseStripeForm } from "./form";
 import { renderCheckoutPage, renderNotFoundPage } from "./page";
 import { payCheckoutSession } from "./pay";
+import { fundCashBalance } from "./cash-balance";
 import { Store, newId, type Collection, type StripeObject } from "./store";
 
 export interface StripeFakeOptions {
@@ -61,6 +62,8 @@ const OBJECT_NAME: Record<Collection, string> = {
   balance_transactions: "balance_transaction",
   refunds: "refund",
   events: "event",
+  customers: "customer",
+  cash_balance_transactions: "customer_cash_balance_transaction",
 };
 
 /** Start the Stripe API fake. Resolves once it listens; `close()` stops delivery and the server. */
@@ -184,6 +187,15 @@ export async function startStripeFake(options: StripeFakeOptions = {}): Promise<
       }
       store.save();
       return send(res, 200, { ok: true, inserted });
+    }
+    // A bank transfer arriving, dated as given (`arrivedAt`, ISO) to simulate money that comes late.
+    const fund = path.match(/^\/_fake\/transfers\/([A-Za-z0-9_]+)$/);
+    if (method === "POST" && fund) {
+      const body = await json();
+      const at = typeof body.arrivedAt === "string" ? Date.parse(body.arrivedAt) : NaN;
+      const params = { amount: String(body.amount ?? ""), currency: typeof body.currency === "string" ? body.currency : "usd", ...(typeof body.reference === "string" ? { reference: body.reference } : {}) };
+      const result = fundCashBalance(ctx, fund[1]!, params, Number.isFinite(at) ? Math.floor(at / 1000) : undefined);
+      return send(res, result.status, result.body);
     }
     const pay = path.match(/^\/_fake\/pay\/([A-Za-z0-9_]+)$/);
     if (method === "POST" && pay) {

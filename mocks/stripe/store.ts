@@ -11,7 +11,9 @@ export type Collection =
   | "charges"
   | "balance_transactions"
   | "refunds"
-  | "events";
+  | "events"
+  | "customers"
+  | "cash_balance_transactions";
 
 export interface Delivery {
   eventId: string;
@@ -45,6 +47,8 @@ const PREFIX: Record<Collection, string> = {
   balance_transactions: "txn_",
   refunds: "re_",
   events: "evt_",
+  customers: "cus_",
+  cash_balance_transactions: "ccsbtxn_",
 };
 
 export function emptyState(): FakeState {
@@ -58,6 +62,8 @@ export function emptyState(): FakeState {
       balance_transactions: [],
       refunds: [],
       events: [],
+      customers: [],
+      cash_balance_transactions: [],
     },
     deliveries: [],
     idempotency: [],

@@ -14,6 +14,8 @@ vi.mock("@/lib/email/notify", () => ({ notifyShipped: async () => {}, notifyBala
 // Paying the deposit by card is covered by portal-flow; here the payment page must only not be reached on account.
 const checkout = vi.hoisted(() => ({ calls: 0 }));
 vi.mock("@/lib/payments/checkout", () => ({ openCheckout: async () => (checkout.calls++, { url: "http://pay.local/x", isComplete: false }) }));
+// The invoice on terms goes out without transfer details when the processor does not answer.
+vi.mock("@/lib/payments/bank-transfer", () => ({ openBankTransfer: async () => { throw new Error("no processor in this test"); } }));
 
 let t: TestDb;
 let db: Db;

@@ -9,7 +9,8 @@ import { attachInspectionReport, ensureBalancePayment, getOrderForProduction, li
 import { releaseCellBlocks, trimCellBlocksAfter } from "@/db/queries/schedule-blocks";
 import { transitionStage } from "@/db/queries/stages";
 import { formatDateTime, fromPlantInput } from "@/lib/dates";
-import { issueDocumentInTx } from "@/lib/documents/issue";
+import { issueDocument, issueDocumentInTx } from "@/lib/documents/issue";
+import { openBankTransfer } from "@/lib/payments/bank-transfer";
 import { notifyBalanceDue, notifyScheduled, notifyShipped } from "@/lib/email/notify";
 import { AppError } from "@/lib/errors";
 import { isBackwardMove, label, roleMayMove } from "@/lib/orders/stages";
@@ -125,11 +126,16 @@ export const moveStage = defineAction({ access: "production:record", input: move
       }
       // The packing list and the balance invoice are numbered with the shipment itself.
       await issueDocumentInTx(tx, { kind: "packing_list", sourceId: order.order.id, actorId: user.id });
-      if (order.order.balanceCents > 0) await issueDocumentInTx(tx, { kind: "invoice", sourceId: order.order.id, actorId: user.id });
+      // On terms the invoice waits for its bank-transfer details (after commit, below), so it carries the reference.
+      if (order.order.balanceCents > 0 && !isOnAccount(terms)) await issueDocumentInTx(tx, { kind: "invoice", sourceId: order.order.id, actorId: user.id });
       await writeAudit(tx, { actorId: user.id, action: "order.ship", entityType: "order", entityId: order.order.id, orgId: order.order.orgId, after: { carrier: order.order.carrier, trackingNumber: order.order.trackingNumber, balancePaymentId: balanceId } });
     }
     return r;
   });
+  if (input.to === "shipped" && isOnAccount(order.order.paymentTerms) && order.order.balanceCents > 0) {
+    await openBankTransfer(db, { orderId: order.order.id, kind: "balance", userId: user.id }).catch((e: unknown) => console.error("bank transfer for the invoice could not be opened; the invoice goes without it", e));
+    await issueDocument(db, { kind: "invoice", sourceId: order.order.id, actorId: user.id });
+  }
   if (input.to === "shipped") {
     await notifyShipped(order.order.id).catch((e: unknown) => console.error("shipped e-mail failed", e));
     if (order.order.balanceCents > 0) await notifyBalanceDue(order.order.id).catch((e: unknown) => console.error("balance-due e-mail failed", e));

@@ -32,7 +32,7 @@ export const POST = defineRoute({ access: "signature" }, async ({ req, db }) => 
   if (result.paidPaymentId) {
     // The session carries no fee: ask the processor for the charge and its fee, so the ledger
     // agrees with it. A failure here leaves the fee unrecorded (reconciliation shows it).
-    await recordProcessorFee(db, result.paidPaymentId).catch((e: unknown) => rootLogger().error({ event: "webhook.fee", err: String(e) }, "recording the processing fee failed"));
+    if (!result.isTransfer) await recordProcessorFee(db, result.paidPaymentId).catch((e: unknown) => rootLogger().error({ event: "webhook.fee", err: String(e) }, "recording the processing fee failed"));
     await notifyDepositReceived(result.paidPaymentId).catch((e: unknown) => rootLogger().error({ event: "webhook.notice", err: String(e) }, "payment e-mail failed"));
   }
   return { received: true, outcome: result.outcome };

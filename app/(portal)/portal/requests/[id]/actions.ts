@@ -22,6 +22,9 @@ import { env } from "@/lib/env";
 import { AppError, toActionError, type ActionResult } from "@/lib/errors";
 import { openCheckout, type CheckoutResult } from "@/lib/payments/checkout";
 import { splitDeposit } from "@/lib/payments/deposit";
+import { openBankTransfer } from "@/lib/payments/bank-transfer";
+import { defineAction } from "@/lib/server/define-action";
+import { z } from "zod";
 import { getFirmTerms, openOnAccountCents } from "@/db/queries/account-terms";
 import { checkCredit, isOnAccount } from "@/lib/payments/terms";
 import { PAYMENT_TERMS_LABEL } from "@/lib/labels";
@@ -30,6 +33,8 @@ import { acceptQuoteSchema, messageSchema, type AcceptQuoteInput } from "@/lib/v
 import { formatDate } from "@/lib/dates";
 
 const dateText = (d: Date) => formatDate(d);
+
+const payByTransferSchema = z.object({ orderId: z.string().min(1).max(64), kind: z.enum(["deposit", "balance"], { error: "Unknown payment kind." }) });
 
 /**
  * Accept an issued quote with a PO number and the terms: the order is made and the deposit's
@@ -135,6 +140,12 @@ export async function acceptQuote(input: AcceptQuoteInput): Promise<ActionResult
       revalidatePath(`/portal/requests/${request.id}`);
       return { ok: true, data: { url: null, isComplete: false, orderId: order.id } };
     }
+    if (payBy === "bank_transfer") {
+      // The acceptance stands either way; the order page shows the details, or offers to open them again.
+      await openBankTransfer(db, { orderId: order.id, kind: "deposit", userId: user.id }).catch((e: unknown) => console.error("bank transfer after acceptance failed", e));
+      revalidatePath(`/portal/requests/${request.id}`);
+      return { ok: true, data: { url: null, isComplete: false, orderId: order.id } };
+    }
     const checkout = await openCheckout(db, { orderId: order.id, kind: "deposit", userId: user.id, email: user.email, appUrl: env().APP_URL }).catch((e: unknown) => {
       // The acceptance stands; the deposit can be paid from the order page.
       console.error("checkout after acceptance failed", e);
@@ -162,6 +173,18 @@ export async function payOrder(input: { orderId: string; kind: "deposit" | "bala
     return toActionError(e);
   }
 }
+
+/**
+ * Pay an order's deposit or balance by bank transfer: the account details and the reference to
+ * quote, opened once through the payment service's bank-transfer method and shown on the order page.
+ */
+export const payByTransfer = defineAction({ access: "payment:pay", input: payByTransferSchema }, async (input, { user, db }) => {
+  const row = await getOrderWithRequest(db, input.orderId);
+  assertCanSee(user, row ? { orgId: row.request.orgId, createdById: row.request.createdById } : null, "order");
+  const t = await openBankTransfer(db, { orderId: row!.order.id, kind: input.kind, userId: user.id });
+  revalidatePath(`/portal/requests/${row!.request.id}`);
+  return { reference: t.reference, amountCents: t.amountCents };
+});
 
 /** Post a message (or a reply) on a request, with up to four uploaded attachments. */
 export async function postMessage(input: { requestId: string; parentId?: string; body: string; uploadIds?: string[] }): Promise<ActionResult<{ id: string }>> {

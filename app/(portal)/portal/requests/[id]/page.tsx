@@ -17,7 +17,7 @@ import type { Stage } from "@/db/schema/common";
 import { CheckoutReturn } from "@/components/portal/checkout-return";
 import { FigureKind } from "@/components/portal/estimate-panel";
 import { MessagesThread } from "@/components/portal/messages";
-import { PayButton, PaymentsList } from "@/components/portal/payments";
+import { PayButton, PaymentsList, TransferButton, TransferInstructions } from "@/components/portal/payments";
 import { QuotesSection } from "@/components/portal/quotes";
 import { RequestForm } from "@/components/portal/request-form/request-form";
 import { loadDraft, loadFormCatalogue } from "@/components/portal/request-form/load";
@@ -103,6 +103,9 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
   const checkout = sp.checkout === "success" || sp.checkout === "cancelled" ? sp.checkout : null;
   const account = acceptCtx && org && org.paymentTerms !== "prepay" ? { termsLabel: PAYMENT_TERMS_LABEL[org.paymentTerms], limitCents: org.creditLimitCents, openCents: await openOnAccountCents(db, req.orgId) } : null;
   const onAccount = order ? order.paymentTerms !== "prepay" : false;
+  const transfers = payments
+    .filter((p) => p.status === "pending" && p.method === "bank_transfer" && p.transferReference && p.transferDetails)
+    .map((p) => ({ kind: p.kind, reference: p.transferReference!, ...p.transferDetails!, amountCents: p.amountCents, receivedCents: p.receivedCents, currency: p.currency }));
   const standing = order && onAccount ? invoiceStanding({ dueAt: order.dueAt, isPaid: paid("balance"), now: new Date() }) : null;
 
   return (
@@ -158,9 +161,20 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
                     <Badge tone={INVOICE_STANDING_TONE[standing]}>{INVOICE_STANDING_LABEL[standing]}</Badge>
                   </p>
                 ) : null}
-                {canPay && req.stage === "accepted" && !paid("deposit") ? <PayButton orderId={order.id} kind="deposit" amountCents={order.depositCents} currency={order.currency} /> : null}
+                {transfers.map((t) => (
+                  <TransferInstructions key={t.reference} t={t} />
+                ))}
+                {canPay && req.stage === "accepted" && !paid("deposit") ? (
+                  <div className="flex flex-wrap items-start gap-3">
+                    <PayButton orderId={order.id} kind="deposit" amountCents={order.depositCents} currency={order.currency} />
+                    {!transfers.some((t) => t.kind === "deposit") ? <TransferButton orderId={order.id} kind="deposit" /> : null}
+                  </div>
+                ) : null}
                 {canPay && (req.stage === "shipped" || req.stage === "delivered") && !paid("balance") && order.balanceCents > 0 ? (
-                  <PayButton orderId={order.id} kind="balance" amountCents={order.balanceCents} currency={order.currency} />
+                  <div className="flex flex-wrap items-start gap-3">
+                    <PayButton orderId={order.id} kind="balance" amountCents={order.balanceCents} currency={order.currency} />
+                    {!transfers.some((t) => t.kind === "balance") ? <TransferButton orderId={order.id} kind="balance" /> : null}
+                  </div>
                 ) : null}
                 <ShipToBlock shipTo={order.shipTo} />
                 {order.taxExemption ? <p className="text-sm text-tide-700">No tax: exemption certificate {order.taxExemption.certificateNumber} ({order.taxExemption.issuedBy}).</p> : null}
