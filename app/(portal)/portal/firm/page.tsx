@@ -14,6 +14,12 @@ import { Card, CardTitle, PageHeader } from "@/components/ui/card";
 import { pagePermission } from "@/lib/auth/page-guard";
 import { retentionText } from "@/lib/retention/policy";
 import { notFound } from "next/navigation";
+import { TaxExemptionCard } from "@/components/portal/tax-exemption";
+import { listExemptions } from "@/db/queries/tax-exemptions";
+import { openOnAccountCents } from "@/db/queries/account-terms";
+import { PAYMENT_TERMS_LABEL } from "@/lib/labels";
+import { formatCents } from "@/lib/money";
+import { formatDate } from "@/lib/dates";
 
 export const metadata: Metadata = { title: "Firm & members" };
 export const dynamic = "force-dynamic";
@@ -25,6 +31,8 @@ export default async function FirmPage() {
   const [org, members, settings, addresses, card] = await Promise.all([getOrganisation(db, user.orgId), listMembers(db, user.orgId), getBureauSettings(db), listAddresses(db, user.orgId), getCurrentRateCard(db)]);
   const rules = card?.params.freight ?? null;
   if (!org) notFound();
+  const [certs, openCents] = await Promise.all([listExemptions(db, user.orgId), openOnAccountCents(db, user.orgId)]);
+  const now = Date.now();
   return (
     <>
       <PageHeader title={org.name} subtitle="Members of your firm, and how the bureau bills you." />
@@ -69,6 +77,35 @@ export default async function FirmPage() {
                 lines: addressLines(a), zoneName: zone?.name ?? null, transitDays: zone?.transitDays ?? null,
               };
             })}
+          />
+        </Card>
+        <Card className="space-y-2" aria-label="Paying on account">
+          <CardTitle>Paying on account</CardTitle>
+          {org.paymentTerms === "prepay" ? (
+            <p className="text-sm text-ink-600">
+              Your firm pays a deposit on acceptance and the balance when the order ships, by card or bank transfer. For net terms on
+              your purchase orders, ask our accounts team.
+            </p>
+          ) : (
+            <p className="text-sm text-ink-700" data-testid="firm-terms">
+              {PAYMENT_TERMS_LABEL[org.paymentTerms]} on your purchase orders, approved {formatDate(org.termsApprovedAt)}: credit limit{" "}
+              <strong className="figures">{formatCents(org.creditLimitCents)}</strong>, of which <strong className="figures">{formatCents(openCents)}</strong> is owed on
+              open orders and invoices now.
+            </p>
+          )}
+        </Card>
+        <Card className="space-y-4" aria-label="Tax exemption">
+          <CardTitle>Tax exemption</CardTitle>
+          <TaxExemptionCard
+            certificates={certs.map(({ e, fileName }) => ({
+              id: e.id,
+              certificateNumber: e.certificateNumber,
+              issuedBy: e.issuedBy,
+              expiresOn: formatDate(e.expiresOn),
+              state: e.status === "approved" && e.expiresOn.getTime() <= now ? "expired" : e.status,
+              reviewNote: e.reviewNote,
+              fileUrl: e.uploadId && fileName ? `/api/files/${e.uploadId}?inline=1` : null,
+            }))}
           />
         </Card>
         <Card className="space-y-4">
