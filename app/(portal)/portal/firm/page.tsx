@@ -32,7 +32,7 @@ export default async function FirmPage() {
   const rules = card?.params.freight ?? null;
   if (!org) notFound();
   const [certs, openCents] = await Promise.all([listExemptions(db, user.orgId), openOnAccountCents(db, user.orgId)]);
-  const now = Date.now();
+  const now = new Date().getTime();
   return (
     <>
       <PageHeader title={org.name} subtitle="Members of your firm, and how the bureau bills you." />
