@@ -99,7 +99,20 @@ export interface DemoRequest {
   daysAgo: number;
   /** A refund made on the paid balance after delivery (the order lists its credit note). */
   refund?: { cents: number; reason: string };
+  /** Paid on the firm's account (net terms, no deposit, invoiced at shipping) or the deposit by bank transfer; card when absent. */
+  payment?: "account" | "transfer";
 }
+
+/** Firms accounts approved for net terms, with their credit limits (invented figures). */
+export const FIRM_TERMS: Partial<Record<FirmKey, { terms: "net30" | "net45" | "net60"; limitCents: number; po: string }>> = {
+  caldrith: { terms: "net30", limitCents: 25_000_000, po: "CA-PO" },
+  tarnavel: { terms: "net45", limitCents: 6_000_000, po: "TPL-PO" },
+};
+
+/** A firm's approved tax-exemption certificate (an invented number and authority). */
+export const FIRM_TAX_EXEMPTIONS: Partial<Record<FirmKey, { certificateNumber: string; issuedBy: string; validDays: number }>> = {
+  tarnavel: { certificateNumber: "EX-5512-0471", issuedBy: "State revenue department, educational exemption", validDays: 400 },
+};
 
 /** One request in every stage, spread over the three firms. */
 export const DEMO_REQUESTS: DemoRequest[] = [
@@ -111,12 +124,12 @@ export const DEMO_REQUESTS: DemoRequest[] = [
   { project: "Fairing trim fixture", firm: "caldrith", by: "engineer@caldrith.example", stage: "scheduled", cure: "room", cureTempC: null, mesh: "trim-fixture", material: "abs-cf", daysAgo: 18 },
   { project: "Transom plug, 28 ft hull", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "printing", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", shellWalls: 3, daysAgo: 22 },
   { project: "Wing-to-body fairing mold", firm: "caldrith", by: "lead@caldrith.example", stage: "cooling", cure: "oven", cureTempC: 120, partCte: 3, mesh: "layup-mold", material: "pc-cf", daysAgo: 26 },
-  { project: "Sandwich panel press fixture", firm: "tarnavel", by: "lab@tarnavel.example", stage: "machining", cure: "oven", cureTempC: 90, mesh: "drill-fixture", material: "pa-cf", daysAgo: 30 },
+  { project: "Sandwich panel press fixture", firm: "tarnavel", by: "lab@tarnavel.example", stage: "machining", cure: "oven", cureTempC: 90, mesh: "drill-fixture", material: "pa-cf", daysAgo: 30, payment: "transfer" },
   { project: "Radome layup tool", firm: "caldrith", by: "engineer@caldrith.example", stage: "inspection", cure: "autoclave", cureTempC: 177, partCte: 3, controlled: true, mesh: "layup-mold", material: "pei-cf", daysAgo: 34 },
   { project: "Console mold, centre console", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "finishing", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", shellWalls: 3, daysAgo: 40 },
-  { project: "Stiffener drill jig", firm: "caldrith", by: "lead@caldrith.example", stage: "packed", cure: "room", cureTempC: null, mesh: "drill-fixture", material: "pc-cf", daysAgo: 44 },
+  { project: "Stiffener drill jig", firm: "caldrith", by: "lead@caldrith.example", stage: "packed", cure: "room", cureTempC: null, mesh: "drill-fixture", material: "pc-cf", daysAgo: 44, payment: "account" },
   { project: "Cockpit liner plug", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "shipped", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", shellWalls: 3, daysAgo: 50 },
-  { project: "Tensile coupon layup plate", firm: "tarnavel", by: "lab@tarnavel.example", stage: "delivered", cure: "oven", cureTempC: 120, mesh: "trim-fixture", material: "pps-cf", daysAgo: 58 },
+  { project: "Tensile coupon layup plate", firm: "tarnavel", by: "lab@tarnavel.example", stage: "delivered", cure: "oven", cureTempC: 120, mesh: "trim-fixture", material: "pps-cf", daysAgo: 58, payment: "account" },
   { project: "Flap track fairing tool", firm: "caldrith", by: "lead@caldrith.example", stage: "closed", cure: "autoclave", cureTempC: 177, partCte: 3, mesh: "layup-mold", material: "pesu-cf", daysAgo: 75, refund: { cents: 43_500, reason: "Freight: the tool shared a truck with another load; the difference is returned." } },
   { project: "Bow thruster tunnel plug", firm: "bramblewake", by: "buyer@bramblewake.example", stage: "on_hold", heldFrom: "quoted", cure: "room", cureTempC: null, mesh: "hull-plug", material: "abs-cf", units: "in", shellWalls: 3, daysAgo: 12, notes: "On hold while the yard confirms the hull lines." },
   { project: "Antenna bracket fixture", firm: "tarnavel", by: "lab@tarnavel.example", stage: "cancelled", cure: "room", cureTempC: null, mesh: "drill-fixture", material: "petg-gf", daysAgo: 20 },

@@ -18,7 +18,8 @@ import { openDb, type Db } from "./client";
 import { numberUnnumberedReceipts } from "./queries/payments";
 import * as s from "./schema";
 import type { Stage } from "./schema/common";
-import { DEMO_PASSWORDS, DEMO_REQUESTS, DEMO_TOTP_SECRETS, DEMO_USERS, FIRM_ADDRESSES, FIRMS, type DemoMeshKey, type DemoRequest } from "./seed-data";
+import { DEMO_PASSWORDS, DEMO_REQUESTS, DEMO_TOTP_SECRETS, DEMO_USERS, FIRM_ADDRESSES, FIRM_TERMS, FIRMS, type DemoMeshKey, type DemoRequest } from "./seed-data";
+import { seedProcurement } from "./seed-procurement";
 import { snapshotOf } from "./queries/addresses";
 import { zoneFor } from "../lib/estimating/freight";
 import { DEMO_TERMS, seedDocuments } from "./seed-documents";
@@ -83,7 +84,10 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
   for (const f of FIRMS) {
     const [row] = await db
       .insert(s.organisations)
-      .values({ name: f.name, slug: f.slug, unitsPref: f.unitsPref, billingContact: f.billingContact, billingEmail: `accounts@${f.key}.example` })
+      .values({
+        name: f.name, slug: f.slug, unitsPref: f.unitsPref, billingContact: f.billingContact, billingEmail: `accounts@${f.key}.example`,
+        ...(FIRM_TERMS[f.key] ? { paymentTerms: FIRM_TERMS[f.key]!.terms, creditLimitCents: FIRM_TERMS[f.key]!.limitCents, termsApprovedAt: new Date(now.getTime() - 120 * DAY) } : {}),
+      })
       .returning({ id: s.organisations.id });
     orgIds.set(f.key, row!.id);
   }
@@ -313,18 +317,21 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
 
       // ---- order, payments, schedule ----
       const shipped = reached >= FLOW.indexOf("shipped");
+      const onAccount = r.payment === "account" ? FIRM_TERMS[r.firm] : undefined;
+      const depositCents = onAccount ? 0 : result.depositCents;
       const [order] = await tx
         .insert(s.orders)
         .values({
           requestId,
           orgId,
           quoteId: quote!.id,
-          poNumber: `PO-${r.firm.slice(0, 3).toUpperCase()}-${4400 + n}`,
+          poNumber: onAccount ? `${onAccount.po}-${7100 + n}` : `PO-${r.firm.slice(0, 3).toUpperCase()}-${4400 + n}`,
+          paymentTerms: onAccount?.terms ?? "prepay",
           termsVersion: 1,
           shipTo: snapshotOf(shipTos.get(r.firm)!, zoneOfFirm(r.firm)),
           totalCents: result.totalCents,
-          depositCents: result.depositCents,
-          balanceCents: result.totalCents - result.depositCents,
+          depositCents,
+          balanceCents: result.totalCents - depositCents,
           cellKey: reached >= FLOW.indexOf("scheduled") ? result.cell : null,
           plannedStart: reached >= FLOW.indexOf("scheduled") ? new Date(created.getTime() + 3 * DAY) : null,
           plannedShip: reached >= FLOW.indexOf("scheduled") ? new Date(result.shipDate) : null,
@@ -339,10 +346,30 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
         .returning({ id: s.orders.id });
 
       const paid = reached >= FLOW.indexOf("deposit_paid");
-      const deposit = seedPayment(n, "deposit", result.depositCents, paid, new Date(created.getTime() + 2 * DAY));
-      await tx.insert(s.payments).values({ orderId: order!.id, orgId, createdById: authorId, ...deposit.row });
-      if (paid) processorRecords.push(...processorRecordsFor(deposit.row));
-      if (shipped) {
+      if (r.payment === "transfer") {
+        // The deposit paid by bank transfer: matched by its reference when it arrived; no card charge at the processor.
+        const at = new Date(created.getTime() + 2 * DAY);
+        const transferReference = `T${createHash("sha256").update(`transfer-${n}`).digest("hex").slice(0, 9).toUpperCase()}`;
+        const [dep] = await tx
+          .insert(s.payments)
+          .values({
+            orderId: order!.id, orgId, createdById: authorId, kind: "deposit", status: paid ? "paid" : "pending", method: "bank_transfer", amountCents: depositCents,
+            receivedCents: paid ? depositCents : 0, transferReference, paymentIntentId: `pi_seed_t${String(n).padStart(3, "0")}`, createdAt: new Date(created.getTime() + 1.5 * DAY), paidAt: paid ? at : null,
+            transferDetails: { bankName: "Test Clearing Bank (test mode)", accountHolder: "Ostrevane Additive Works", accountNumber: "480017734210", routingNumber: "110000000", swiftCode: null },
+          })
+          .returning({ id: s.payments.id });
+        if (paid) {
+          await tx.insert(s.transferFunds).values({ processorId: `ccsbtxn_seed_${n}`, processorCustomerId: `cus_seed_${r.firm}`, orgId, paymentId: dep!.id, amountCents: depositCents, reference: transferReference, appliedCents: depositCents, status: "applied", receivedAt: at });
+        }
+      } else if (!onAccount) {
+        const deposit = seedPayment(n, "deposit", result.depositCents, paid, new Date(created.getTime() + 2 * DAY));
+        await tx.insert(s.payments).values({ orderId: order!.id, orgId, createdById: authorId, ...deposit.row });
+        if (paid) processorRecords.push(...processorRecordsFor(deposit.row));
+      }
+      if (shipped && onAccount) {
+        // On account: one invoice at shipping for the whole, still open (dated after the loop).
+        await tx.insert(s.payments).values({ orderId: order!.id, orgId, createdById: authorId, kind: "balance", status: "pending", amountCents: result.totalCents, createdAt: new Date(created.getTime() + (reached - 2) * 0.5 * DAY) });
+      } else if (shipped) {
         const balancePaid = reached >= FLOW.indexOf("delivered");
         const balance = seedPayment(n, "balance", result.totalCents - result.depositCents, balancePaid, new Date(created.getTime() + (reached - 2) * 0.5 * DAY));
         const [balanceRow] = await tx.insert(s.payments).values({ orderId: order!.id, orgId, createdById: authorId, ...balance.row }).returning({ id: s.payments.id });
@@ -363,6 +390,7 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
     });
   }
 
+  await seedProcurement(db, orgIds, now, staffId("accounts@ostrevane.example"));
   await numberUnnumberedReceipts(db);
   const documentCount = await seedDocuments(db);
 

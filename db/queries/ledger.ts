@@ -35,6 +35,8 @@ const ledgerColumns = {
   paymentIntentId: payments.paymentIntentId,
   chargeId: payments.chargeId,
   receiptNumber: payments.receiptNumber,
+  /** Card, bank transfer or recorded by accounts. */
+  method: payments.method,
   /** What accounts staff quote to the processor: its id of the payment (the charge, else the intent). */
   processorReference: sql<string | null>`coalesce(${payments.chargeId}, ${payments.paymentIntentId})`,
   createdAt: payments.createdAt,

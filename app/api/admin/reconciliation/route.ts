@@ -26,7 +26,9 @@ export const GET = defineRoute({ access: "accounts:ledger", query: periodSchema 
     console.error(e);
     throw new AppError("unavailable:processor", "The payment processor did not answer; try again in a moment.");
   }
-  const findings = reconcile({ payments: ledger.payments, refunds, ...processor });
+  // Card payments are matched to the processor's charges here; bank transfers are matched by their
+  // arrivals (Bank transfers page) and money recorded by accounts never passed the processor.
+  const findings = reconcile({ payments: ledger.payments.filter((p) => p.method === "card"), refunds, ...processor });
   const refs = new Map(ledger.payments.map((p) => [p.id, { reference: p.reference, firmName: p.firmName, paymentKind: p.kind }]));
   const keys = findings.map(findingKey);
   const notes = await listNotesFor(db, [...new Set(keys)]);
