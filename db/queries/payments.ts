@@ -85,7 +85,8 @@ export async function getOrCreatePendingPayment(
   const [open] = await tx
     .select()
     .from(payments)
-    .where(and(eq(payments.orderId, input.orderId), eq(payments.kind, input.kind), eq(payments.status, "pending")))
+    // A bank transfer waiting for its money stays itself: the card gets its own payment.
+    .where(and(eq(payments.orderId, input.orderId), eq(payments.kind, input.kind), eq(payments.status, "pending"), eq(payments.method, "card")))
     .orderBy(desc(payments.createdAt))
     .limit(1);
   if (open) return { payment: open, created: false };

@@ -103,6 +103,13 @@ describe("paying by bank transfer", () => {
     const again = await payByTransfer({ orderId: order!.id, kind: "deposit" });
     expect(again).toMatchObject({ ok: true, data: { reference } });
     expect(await db.select().from(payments).where(and(eq(payments.orderId, order!.id), eq(payments.kind, "deposit")))).toHaveLength(1);
+    // Choosing the card after all opens its own payment page; the transfer stays as it was.
+    const { payOrder } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const card = await payOrder({ orderId: order!.id, kind: "deposit" });
+    expect(card.ok && card.data.url).toMatch(/\/checkout\//);
+    const both = await db.select().from(payments).where(and(eq(payments.orderId, order!.id), eq(payments.kind, "deposit")));
+    expect(both.map((p) => p.method).sort()).toEqual(["bank_transfer", "card"]);
+    expect(both.find((p) => p.method === "bank_transfer")).toMatchObject({ transferReference: reference, checkoutSessionId: null });
     await deliver();
   });
 
@@ -129,6 +136,9 @@ describe("paying by bank transfer", () => {
     const [inv] = await db.select().from(issuedDocuments).where(and(eq(issuedDocuments.sourceId, depositId), eq(issuedDocuments.kind, "deposit_invoice")));
     expect(inv!.data).toMatchObject({ paymentReference: reference, paidBy: "bank transfer" });
     expect(paidByWebhook).toEqual([depositId]);
+    // The card page opened meanwhile is moot now.
+    const [cardPay] = await db.select().from(payments).where(and(eq(payments.kind, "deposit"), eq(payments.method, "card"), eq(payments.orderId, paid.orderId)));
+    expect(cardPay!.status).toBe("expired");
     // The processor's own record agrees: its intent is whole.
     const pi = fake.store.get("payment_intents", paid.paymentIntentId!)!;
     expect(pi).toMatchObject({ status: "succeeded", amount_received: p.amountCents });
