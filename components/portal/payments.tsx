@@ -7,13 +7,15 @@ import { payByTransfer, payOrder } from "@/app/(portal)/portal/requests/[id]/act
 import { PaymentStateBadge } from "@/components/stage-badge";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/input";
-import { PAYMENT_KIND_LABEL, type PaymentState } from "@/lib/labels";
+import { PAYMENT_KIND_LABEL, PAYMENT_METHOD_LABEL, type PaymentState } from "@/lib/labels";
 import { formatCents } from "@/lib/money";
 import { formatDate } from "@/lib/dates";
 
 export interface PaymentView {
   id: string;
   kind: "deposit" | "balance";
+  /** Card, bank transfer or recorded by accounts; card when absent. */
+  method?: "card" | "bank_transfer" | "manual";
   status: PaymentState;
   receiptNumber: string | null;
   amountCents: number;
@@ -122,7 +124,10 @@ export function PaymentsList({ payments }: { payments: PaymentView[] }) {
     <ul className="divide-y divide-paper-200 text-sm">
       {payments.map((p) => (
         <li key={p.id} className="flex flex-wrap items-center gap-x-3 gap-y-1 py-2">
-          <span className="font-medium">{PAYMENT_KIND_LABEL[p.kind]}</span>
+          <span className="font-medium">
+            {PAYMENT_KIND_LABEL[p.kind]}
+            {p.method && p.method !== "card" ? <span className="font-normal text-ink-600"> · {PAYMENT_METHOD_LABEL[p.method].toLowerCase()}</span> : null}
+          </span>
           <span className="figures">{formatCents(p.amountCents, p.currency)}</span>
           <PaymentStateBadge state={p.status} />
           <span className="text-xs text-ink-500">{p.paidAt ? `paid ${day(p.paidAt)}` : `opened ${day(p.createdAt)}`}</span>

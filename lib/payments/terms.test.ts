@@ -4,13 +4,15 @@ import { applyArrival, checkCredit, daysOverdue, dueDateFor, invoiceStanding } f
 const at = (s: string) => new Date(s);
 
 describe("net terms", () => {
-  // Net 30/45/60: the balance is due that many calendar days after the invoice date (trade usage).
+  // Net 30/45/60: the balance is due that many calendar days after the invoice date (trade usage), by the end of that day.
   it.each([
-    ["net30", "2026-12-31T15:00:00Z"],
-    ["net45", "2027-01-15T15:00:00Z"],
-    ["net60", "2027-01-30T15:00:00Z"],
+    ["net30", "2026-12-31T23:59:59.999Z"],
+    ["net45", "2027-01-15T23:59:59.999Z"],
+    ["net60", "2027-01-30T23:59:59.999Z"],
   ] as const)("%s from 1 Dec 2026 falls due on %s", (terms, due) => {
     expect(dueDateFor(terms, at("2026-12-01T15:00:00Z")).toISOString()).toBe(new Date(due).toISOString());
+    // Late in the day in the plant's zone is already the next day in UTC: the invoice's (UTC) date counts.
+    expect(dueDateFor("net30", at("2026-12-02T02:00:00Z")).toISOString()).toBe("2027-01-01T23:59:59.999Z");
   });
 
   it("checks credit as open balance plus this order against the limit; the limit itself fits", () => {

@@ -12,9 +12,13 @@ export function isOnAccount(terms: PaymentTerms): terms is Exclude<PaymentTerms,
   return terms !== "prepay";
 }
 
-/** When an invoice issued at `invoicedAt` on these terms falls due (calendar days, same instant). */
+/**
+ * When an invoice issued at `invoicedAt` on these terms falls due: the end (23:59:59.999 UTC) of
+ * the calendar day N days after the invoice's date. Documents print days in UTC, and that instant
+ * is the same day in the plant's zone too, so every screen and the PDF name one due date.
+ */
 export function dueDateFor(terms: Exclude<PaymentTerms, "prepay">, invoicedAt: Date): Date {
-  return new Date(invoicedAt.getTime() + NET_DAYS[terms] * DAY_MS);
+  return new Date(Date.UTC(invoicedAt.getUTCFullYear(), invoicedAt.getUTCMonth(), invoicedAt.getUTCDate() + NET_DAYS[terms], 23, 59, 59, 999));
 }
 
 export interface CreditCheck {

@@ -166,13 +166,14 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
                 ))}
                 {canPay && req.stage === "accepted" && !paid("deposit") ? (
                   <div className="flex flex-wrap items-start gap-3">
-                    <PayButton orderId={order.id} kind="deposit" amountCents={order.depositCents} currency={order.currency} />
+                    {/* Once money came by transfer, the rest comes the same way (a card page would take the whole again). */}
+                    {!transfers.some((t) => t.kind === "deposit" && t.receivedCents > 0) ? <PayButton orderId={order.id} kind="deposit" amountCents={order.depositCents} currency={order.currency} /> : null}
                     {!transfers.some((t) => t.kind === "deposit") ? <TransferButton orderId={order.id} kind="deposit" /> : null}
                   </div>
                 ) : null}
                 {canPay && (req.stage === "shipped" || req.stage === "delivered") && !paid("balance") && order.balanceCents > 0 ? (
                   <div className="flex flex-wrap items-start gap-3">
-                    <PayButton orderId={order.id} kind="balance" amountCents={order.balanceCents} currency={order.currency} />
+                    {!transfers.some((t) => t.kind === "balance" && t.receivedCents > 0) ? <PayButton orderId={order.id} kind="balance" amountCents={order.balanceCents} currency={order.currency} /> : null}
                     {!transfers.some((t) => t.kind === "balance") ? <TransferButton orderId={order.id} kind="balance" /> : null}
                   </div>
                 ) : null}
@@ -184,7 +185,7 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
                     {order.trackingNumber ? `, tracking ${order.trackingNumber}` : ""}.
                   </p>
                 ) : null}
-                <PaymentsList payments={payments.map((p) => ({ id: p.id, kind: p.kind, status: p.status, receiptNumber: p.receiptNumber, amountCents: p.amountCents, currency: p.currency, createdAt: p.createdAt.toISOString(), paidAt: iso(p.paidAt) }))} />
+                <PaymentsList payments={payments.map((p) => ({ id: p.id, kind: p.kind, method: p.method, status: p.status, receiptNumber: p.receiptNumber, amountCents: p.amountCents, currency: p.currency, createdAt: p.createdAt.toISOString(), paidAt: iso(p.paidAt) }))} />
               </Card>
             ) : null}
 
