@@ -209,6 +209,22 @@ describe("paying by bank transfer", () => {
   });
 });
 
+describe("an invoice on terms", () => {
+  it("carries the bank-transfer details and reference opened for it when the order ships", async () => {
+    const [o] = await db.select({ id: orders.id, requestId: orders.requestId, total: orders.totalCents }).from(orders).innerJoin(requests, eq(requests.id, orders.requestId)).where(eq(requests.projectName, "Stiffener drill jig"));
+    await db.update(orders).set({ carrier: "Ridgeline Freight", trackingNumber: "RF-22" }).where(eq(orders.id, o!.id));
+    await as("production@ostrevane.example");
+    const { moveStage } = await import("../../app/admin/production/actions");
+    const moved = await moveStage({ orderId: o!.id, to: "shipped" });
+    expect(moved.ok, moved.ok ? "" : moved.message).toBe(true);
+    const [bal] = await db.select().from(payments).where(and(eq(payments.orderId, o!.id), eq(payments.kind, "balance")));
+    expect(bal).toMatchObject({ method: "bank_transfer", status: "pending", amountCents: o!.total });
+    const [inv] = await db.select().from(issuedDocuments).where(and(eq(issuedDocuments.sourceId, o!.id), eq(issuedDocuments.kind, "invoice")));
+    expect(inv!.data).toMatchObject({ paymentTerms: "Net 30", transfer: { reference: bal!.transferReference, routingNumber: "110000000" } });
+    expect((inv!.data as { dueText: string }).dueText).toMatch(/^Due by .+ \(Net 30: 30 days from the invoice date\)/);
+  });
+});
+
 describe("a payment recorded by accounts", () => {
   it("needs the amount confirmed, never more than is owed, accounts' role; then pays it with the reference", async () => {
     const [o] = await db.select({ id: orders.id }).from(orders).innerJoin(requests, eq(requests.id, orders.requestId)).where(eq(requests.projectName, "Cockpit liner plug"));
