@@ -15,10 +15,11 @@ import {
 } from "@/lib/labels";
 
 /** The order's stage: one name and one colour per stage, on staff and client screens alike. */
-export function StageBadge({ stage, heldFrom }: { stage: Stage; heldFrom?: Stage | null }) {
+/** `onAccount`: an order on net terms has no deposit; its "deposit paid" stage reads "Accepted on account". */
+export function StageBadge({ stage, heldFrom, onAccount = false }: { stage: Stage; heldFrom?: Stage | null; onAccount?: boolean }) {
   return (
     <Badge tone={STAGE_TONE[stage]}>
-      {STAGE_LABEL[stage]}
+      {onAccount && stage === "deposit_paid" ? "Accepted on account" : STAGE_LABEL[stage]}
       {stage === "on_hold" && heldFrom ? ` (from ${STAGE_LABEL[heldFrom].toLowerCase()})` : ""}
     </Badge>
   );

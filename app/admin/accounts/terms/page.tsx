@@ -59,7 +59,7 @@ export default async function TermsPage() {
                 <tbody className="divide-y divide-paper-200">
                   {rows.map((r) => (
                     <tr key={r.orderId}>
-                      <td className="py-2 pr-3 font-medium">{r.invoiceNumber ?? "—"}</td>
+                      <td className="whitespace-nowrap py-2 pr-3 font-medium">{r.invoiceNumber ?? "—"}</td>
                       <td className="py-2 pr-3">{r.firm}</td>
                       <td className="py-2 pr-3">
                         {r.reference} · {r.poNumber}

@@ -116,7 +116,7 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
           <span className="flex flex-wrap items-center gap-2">
             <span className="font-mono">{req.reference}</span>
             <span data-testid="request-stage" data-stage={req.stage}>
-              <StageBadge stage={req.stage} />
+              <StageBadge stage={req.stage} onAccount={Boolean(order && order.paymentTerms !== "prepay")} />
             </span>
             {req.isControlled ? <Badge tone="warn">Controlled data</Badge> : null}
             <span>
