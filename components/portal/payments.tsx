@@ -80,7 +80,7 @@ export function TransferButton({ orderId, kind }: { orderId: string; kind: "depo
   return (
     <div className="space-y-2">
       <Button type="button" variant="secondary" onClick={() => void open()} disabled={busy || !interactive}>
-        {busy ? "Getting the bank details…" : `Pay the ${kind} by bank transfer`}
+        {busy ? "Getting the bank details…" : "Pay by bank transfer instead"}
       </Button>
       <FormMessage>{message}</FormMessage>
     </div>
