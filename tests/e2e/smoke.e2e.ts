@@ -47,7 +47,7 @@ describe("smoke: every role lands on its own home", () => {
   // Every area's index page, at both widths: the pictures' axe check and the phone's sideways check
   // (`shot` in tests/e2e/harness.ts) cover the pages no other journey opens.
   const AREAS: { email: string; role: keyof typeof DEMO_PASSWORDS; paths: string[] }[] = [
-    { email: "admin@ostrevane.example", role: "admin", paths: ["/admin/sales", "/admin/production", "/admin/accounts", "/admin/catalogue", "/admin/firms", "/admin/staff", "/admin/audit", "/admin/outbox"] },
+    { email: "admin@ostrevane.example", role: "admin", paths: ["/admin/sales", "/admin/production", "/admin/accounts", "/admin/accounts/terms", "/admin/accounts/transfers", "/admin/catalogue", "/admin/firms", "/admin/staff", "/admin/audit", "/admin/outbox"] },
     { email: "lead@caldrith.example", role: "client_admin", paths: ["/portal/payments", "/portal/firm", "/portal/requests/new"] },
   ];
   for (const area of AREAS) {
