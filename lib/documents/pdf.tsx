@@ -1,5 +1,6 @@
 import { Document, Font, Page, StyleSheet, Text, View } from "@react-pdf/renderer";
 import path from "node:path";
+import { spreadMargin } from "../quoting/client-lines";
 import { formatCents } from "../money";
 import { formatMass, formatSize } from "../units";
 import { BUREAU } from "./bureau";
@@ -78,7 +79,20 @@ function PartyBlock({ label, party }: { label: string; party: Party }) {
   );
 }
 
-function Lines({ lines, currency }: { lines: DocumentLine[]; currency: string }) {
+/**
+ * The lines as the client reads them: the bureau's margin inside each line's amount (as on every
+ * client screen, lib/quoting/client-lines.ts), a unit price from that amount, and no line that does
+ * not apply (quantity 0, e.g. a cooling dwell the plan did not need).
+ */
+export function linesAsBilled(lines: DocumentLine[], marginCents: number): DocumentLine[] {
+  return spreadMargin(
+    lines.filter((l) => l.quantity !== 0),
+    marginCents,
+  ).map((l) => ({ ...l, unitCents: l.quantity > 0 ? Math.round(l.amountCents / l.quantity) : l.amountCents }));
+}
+
+function Lines({ lines: raw, marginCents, currency }: { lines: DocumentLine[]; marginCents: number; currency: string }) {
+  const lines = linesAsBilled(raw, marginCents);
   return (
     <View style={s.table}>
       <View style={s.th} fixed>
@@ -113,14 +127,8 @@ function Totals({ totals, currency, grandLabel, extra }: { totals: DocumentTotal
     <View style={s.totals} wrap={false}>
       <View style={s.totalRow}>
         <Text>Subtotal</Text>
-        <Text>{formatCents(totals.subtotalCents, currency)}</Text>
+        <Text>{formatCents(totals.subtotalCents + totals.marginCents, currency)}</Text>
       </View>
-      {totals.marginCents !== 0 ? (
-        <View style={s.totalRow}>
-          <Text>Margin</Text>
-          <Text>{formatCents(totals.marginCents, currency)}</Text>
-        </View>
-      ) : null}
       <View style={s.totalRow}>
         <Text>{totals.taxBp === 0 && totals.taxCents === 0 ? "Tax (none)" : `Tax (${pct(totals.taxBp)})`}</Text>
         <Text>{formatCents(totals.taxCents, currency)}</Text>
@@ -198,7 +206,7 @@ function Body({ d }: { d: DocumentData }) {
       return (
         <>
           <Meta items={[["Project", d.projectName], ["Request", d.reference], ["Quote version", String(d.version)], ["Valid until", day(d.validUntil)], ["Earliest ship date", day(d.shipDate)], ["Deposit", `${pct(d.depositBp)} on acceptance`]]} />
-          <Lines lines={d.lines} currency={d.currency} />
+          <Lines lines={d.lines} marginCents={d.totals.marginCents} currency={d.currency} />
           <Totals totals={d.totals} currency={d.currency} grandLabel="Total" extra={[{ label: `Deposit due on acceptance (${pct(d.depositBp)})`, cents: d.depositCents }]} />
           {d.quoteTerms ? (
             <View style={s.section}>
@@ -226,7 +234,7 @@ function Body({ d }: { d: DocumentData }) {
       return (
         <>
           <Meta items={[["Project", d.projectName], ["Request", d.reference], ["Quotation", d.quoteNumber ?? `version ${d.quoteVersion}`], ["Order total", formatCents(d.orderTotalCents, d.currency)], ["Terms of sale", d.termsVersion ? `version ${d.termsVersion}` : null]]} />
-          <Lines lines={d.lines} currency={d.currency} />
+          <Lines lines={d.lines} marginCents={d.totals.marginCents} currency={d.currency} />
           <Totals totals={d.totals} currency={d.currency} grandLabel="Deposit" extra={d.paidAt ? [{ label: "Amount due", cents: 0, strong: true }] : undefined} />
           <TaxNote note={d.taxNote} />
           {d.paidAt ? <Text style={s.stamp}>{`PAID ${day(d.paidAt)} by ${d.paidBy ?? "card"} · payment ${d.paymentReference}`}</Text> : null}
@@ -239,7 +247,7 @@ function Body({ d }: { d: DocumentData }) {
       return (
         <>
           <Meta items={[["Project", d.projectName], ["Request", d.reference], ["Quotation", d.quoteNumber ?? `version ${d.quoteVersion}`], ["Terms of sale", d.termsVersion ? `version ${d.termsVersion}` : null], ["Payment terms", d.paymentTerms ?? null], ["Due date", d.dueAt ? day(d.dueAt) : null]]} />
-          <Lines lines={d.lines} currency={d.currency} />
+          <Lines lines={d.lines} marginCents={d.totals.marginCents} currency={d.currency} />
           <Totals
             totals={d.totals}
             currency={d.currency}
@@ -267,7 +275,7 @@ function Body({ d }: { d: DocumentData }) {
       return (
         <>
           <Meta items={[["Project", d.projectName], ["Request", d.reference], ["Credits invoice", d.invoiceNumber], ["Payment", d.paymentKind]]} />
-          <Lines lines={d.lines} currency={d.currency} />
+          <Lines lines={d.lines} marginCents={d.totals.marginCents} currency={d.currency} />
           <Totals totals={d.totals} currency={d.currency} grandLabel="Credited" />
           <TaxNote note={d.taxNote} />
           <View style={s.section}>

@@ -21,7 +21,7 @@ export interface DocumentLine {
 export interface DocumentTotals {
   /** Sum of the lines. */
   subtotalCents: number;
-  /** The bureau's margin on the lines, shown as its own row as the portal shows it. */
+  /** The bureau's margin on the lines; the PDF spreads it inside the lines, as every client screen does. */
   marginCents: number;
   taxBp: number;
   taxCents: number;
