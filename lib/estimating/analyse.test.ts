@@ -18,7 +18,9 @@ describe("analyse", () => {
     expect(r.nearNetVolumeMm3 / 1.044894442e9).toBeCloseTo(1, 7);
     expect(r.allowanceVolumeMm3).toBeCloseTo(r.nearNetVolumeMm3 - 1e9, 0);
     // the slicer's own volume of the grown box agrees with Steiner to within a layer's worth
-    expect(Math.abs(r.slicedVolumeMm3 - r.nearNetVolumeMm3) / r.nearNetVolumeMm3).toBeLessThan(0.01);
+    // (the last layer rounds the build height up to whole layers of the chosen preset)
+    const buildH = r.fits.find((f) => f.cell === r.cell)!.buildHeightMm;
+    expect(Math.abs(r.slicedVolumeMm3 - r.nearNetVolumeMm3) / r.nearNetVolumeMm3).toBeLessThan(r.layerHeightMm / buildH);
     expect(r.format).toBe("stl-binary");
     expect(r.bboxMm).toEqual([1000, 2000, 500]);
     expect(JSON.parse(JSON.stringify(r))).toEqual(r);
@@ -36,7 +38,7 @@ describe("analyse", () => {
     expect(r.status).toBe("priced");
     expect(r.orientationChosenBy).toBe("cost");
     for (const a of r.alternatives) expect(a.totalCents).toBeGreaterThanOrEqual(r.totalCents);
-    expect(r.fits).toHaveLength(3);
+    expect(r.fits).toHaveLength(defaultCells.length);
     const compact = r.fits.find((f) => f.cell === "compact")!;
     // grown 1012.7 × 2012.7 × 512.7 in 1800 × 3000 × 1200: margin min(787.3, 987.3, 687.3)
     expect(compact.fits).toBe(true);

@@ -1,3 +1,4 @@
+import { canMelt, extruderOutputFor } from "./extruder";
 import { steinerVolume } from "./grow";
 import { toIndexed, type IndexedMesh } from "./indexed";
 import { planMachining } from "./machining";
@@ -5,7 +6,7 @@ import { downsampleLayers } from "./plan";
 import { chooseStage } from "./stages/choose";
 import { measureStage } from "./stages/measure";
 import { cellPrintRate } from "./stages/price";
-import { readStage, resolveOptions } from "./stages/read";
+import { bad, readStage, resolveOptions } from "./stages/read";
 import type { ReadModelResult } from "./read-model";
 import { plantOf } from "./stages/schedule";
 import { materialWarnings } from "./warnings";
@@ -89,10 +90,17 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
     ribBeads: card.ribBeads ?? SHELL_FALLBACKS.ribBeads, skinLayers: card.skinLayers ?? SHELL_FALLBACKS.skinLayers, maxBridgeMm: card.maxBridgeMm ?? SHELL_FALLBACKS.maxBridgeMm,
   };
   const plant = plantOf(card);
+  // a material a cell cannot melt is never planned on it
+  const cells = cat.cells.filter((c) => canMelt(c, material));
+  if (o.cellKey && !cells.some((c) => c.key === o.cellKey)) {
+    const cell = cat.cells.find((c) => c.key === o.cellKey)!;
+    bad("option:cell", `The ${cell.name} cell reaches ${cell.maxMeltTempC} °C; ${material.name} needs at least ${material.meltTempMinC} °C.`);
+  }
+  if (cells.length === 0) bad("option:material", `No printing cell reaches the ${material.meltTempMinC} °C ${material.name} needs.`);
   const orientation: Orientation | undefined = o.orientation ? (typeof o.orientation === "string" ? { up: o.orientation, swapped: false } : o.orientation) : undefined;
   onProgress(0.5, "slicing");
   const choice = chooseStage({
-    mesh, ms, cells: cat.cells, material, card, rules, plant, allowanceMm: t, quantity, printMode, wallsOverride,
+    mesh, ms, cells, material, card, rules, plant, allowanceMm: t, quantity, printMode, wallsOverride,
     cellKey: o.cellKey, orientation, queue: input.queue ?? {}, now: input.now,
     priceOptions: { sealingCoat: o.sealingCoat, vacuumTest: o.vacuumTest, freightZone: o.freightZone }, machining: mach,
   }, warnings);
@@ -101,7 +109,11 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
   onProgress(0.75, "planning");
   onProgress(0.9, "pricing");
 
-  if (plan.extruderLimited) warnings.push({ code: "extruder-limited", message: `The ${cell.name} extruder cannot feed this bead at the cell's minimum speed; deposition is capped at its output.` });
+  if (plan.extruderLimited) {
+    warnings.push({ code: "extruder-limited", message: bp.feed.limitedBy === "dryer"
+      ? `The ${cell.name} dryer keeps only ${r2(bp.feed.kgPerH)} kg/h of ${material.name} dry, too little for this bead at the cell's minimum speed; deposition is capped there.`
+      : `The ${cell.name} extruder cannot feed this bead at the cell's minimum speed; deposition is capped at its output.` });
+  }
   if (bp.flaggedLayers > 0) {
     warnings.push({ code: "layers-too-long", message: `${bp.flaggedLayers} layers take longer than the ${material.maxLayerTimeS} s cooling window of ${material.name}: the layer below cools too far and may bond poorly. The search tried shell walls, every bead/layer preset and cell; the bureau's engineer will plan a split or interlayer heating.` });
   }
@@ -201,6 +213,7 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
       machiningEnd: sched.machiningEnd.toISOString(),
       shipDate: sched.shipDate,
       setupStart: sched.setupStart.toISOString(),
+      dryingStart: sched.dryingStart.toISOString(),
       printContinuous: true,
       timeZone: plant.timeZone,
     },
@@ -212,6 +225,8 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
     printMode: bp.printMode,
     shell: bp.shell,
     meanSpeedMmS: r2(plan.meanSpeedMmS),
+    drying: bp.feed.drying ? { hours: bp.feed.drying.hours, tempC: bp.feed.drying.tempC, dryerKg: bp.feed.drying.dryerKg, maxKgPerH: r2(bp.feed.drying.maxKgPerH) } : null,
+    feed: { kgPerH: r2(bp.feed.kgPerH), limitedBy: bp.feed.limitedBy, extruderKgPerH: extruderOutputFor(cell, material), screwMm: cell.screwMm ?? null },
     printRateCentsPerH: cellPrintRate(cell, card),
     batch: { partsPerBuild: bp.partsPerBuild, builds: bp.builds },
     alternatives: choice.alternatives,

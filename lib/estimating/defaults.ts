@@ -27,12 +27,24 @@ const weekdaysTwoShifts: WorkingCalendar = { workingWeekdays: [1, 2, 3, 4, 5], s
 // Hourly print rates per cell: demo figures of the invented bureau (a larger cell costs more an
 // hour and lays more per hour). Head accelerations: a few hundred to about 1000 mm/s² on large
 // gantries (memory, not read in a source); a lighter gantry accelerates harder.
+//
+// Extruders: a 40 mm-class screw lays about 90 kg/h and a 60 mm-class one about 225 kg/h of a
+// commodity polymer, less of an engineering and a high-temperature one (common practice, from
+// memory; the per-family figures and the smaller screws' are the invented bureau's, scaled from
+// those). Barrel limits: the hottest melt each cell reaches (invented; the high-temperature grades
+// need 330–400 °C, typical processing ranges from memory). Dryers: two hoppers a cell, each sized
+// as a hopper dryer usually is, near output × drying time (common practice), so the longer-drying
+// grades (PA/CF, 8 h) are fed no faster than hopper ÷ hours (invented capacities).
+// The flagship cell prints horizontally on a 6 m bed and vertically along its 12 m rail, layers
+// stacked along the rail inside its 3 × 2.4 m cross travel (invented figures).
 
 export const defaultCells: CellParams[] = [
   {
     key: "long-bed", name: "Long Bed",
     envelopeMm: { x: 3600, y: 9000, z: 1800 },
-    extruderOutputKgPerH: 70,
+    extruderOutputKgPerH: 90,
+    screwMm: 40, outputKgPerHByFamily: { commodity: 90, engineering: 75, "high-temp": 60 },
+    maxMeltTempC: 400, dryer: { hoppers: 2, hopperKg: 400 },
     beadWidthsMm: [18, 20, 25], layerHeightsMm: [5, 6, 8],
     defaultBeadWidthMm: 20, defaultLayerHeightMm: 5,
     // speed range inside the trade's ~30–250 mm/s (checks.md, common practice)
@@ -45,7 +57,9 @@ export const defaultCells: CellParams[] = [
   {
     key: "tall-frame", name: "Tall Frame",
     envelopeMm: { x: 2400, y: 4800, z: 2400 },
-    extruderOutputKgPerH: 45,
+    extruderOutputKgPerH: 50,
+    screwMm: 30, outputKgPerHByFamily: { commodity: 50, engineering: 42, "high-temp": 35 },
+    maxMeltTempC: 400, dryer: { hoppers: 2, hopperKg: 250 },
     beadWidthsMm: [15, 18, 20], layerHeightsMm: [4, 5, 6],
     defaultBeadWidthMm: 18, defaultLayerHeightMm: 5,
     speedMinMmS: 30, speedMaxMmS: 200,
@@ -58,6 +72,8 @@ export const defaultCells: CellParams[] = [
     key: "compact", name: "Compact",
     envelopeMm: { x: 1800, y: 3000, z: 1200 },
     extruderOutputKgPerH: 25,
+    screwMm: 25, outputKgPerHByFamily: { commodity: 25, engineering: 21, "high-temp": 18 },
+    maxMeltTempC: 320, dryer: { hoppers: 2, hopperKg: 150 },
     beadWidthsMm: [10, 12, 15], layerHeightsMm: [3, 4, 5],
     defaultBeadWidthMm: 12, defaultLayerHeightMm: 4,
     speedMinMmS: 30, speedMaxMmS: 200,
@@ -65,6 +81,21 @@ export const defaultCells: CellParams[] = [
     calendar: weekdaysTwoShifts,
     printRateCentsPerH: 14_500,
     accelerationMmS2: 800,
+  },
+  {
+    key: "long-axis", name: "Long Axis",
+    envelopeMm: { x: 3000, y: 6000, z: 2400 },
+    extruderOutputKgPerH: 225,
+    screwMm: 60, outputKgPerHByFamily: { commodity: 225, engineering: 190, "high-temp": 150 },
+    maxMeltTempC: 420, dryer: { hoppers: 2, hopperKg: 1200 },
+    verticalPrint: { longAxisMm: 12_000, sectionMm: { x: 3000, y: 2400 } },
+    beadWidthsMm: [20, 25], layerHeightsMm: [5, 6, 8, 10],
+    defaultBeadWidthMm: 25, defaultLayerHeightMm: 8,
+    speedMinMmS: 30, speedMaxMmS: 250,
+    canPrintVertical: true,
+    calendar: weekdaysTwoShifts,
+    printRateCentsPerH: 29_000,
+    accelerationMmS2: 300,
   },
 ];
 
@@ -74,6 +105,7 @@ export const defaultCells: CellParams[] = [
 export const defaultMaterials: MaterialParams[] = [
   {
     key: "abs-cf", name: "ABS/CF (20 % carbon fibre)",
+    family: "commodity",
     densityGPerCm3: 1.15, pricePerKgCents: 1400,
     meltTempMinC: 230, meltTempMaxC: 260, dryingTempC: 80, dryingHours: 3,
     glassTransitionC: 105, maxServiceTempC: 80,
@@ -84,6 +116,7 @@ export const defaultMaterials: MaterialParams[] = [
   },
   {
     key: "pc-cf", name: "PC/CF",
+    family: "engineering",
     densityGPerCm3: 1.3, pricePerKgCents: 2200,
     meltTempMinC: 280, meltTempMaxC: 310, dryingTempC: 120, dryingHours: 4,
     glassTransitionC: 147, maxServiceTempC: 120,
@@ -94,6 +127,7 @@ export const defaultMaterials: MaterialParams[] = [
   },
   {
     key: "petg-gf", name: "PETG/GF",
+    family: "commodity",
     densityGPerCm3: 1.35, pricePerKgCents: 1100,
     meltTempMinC: 220, meltTempMaxC: 250, dryingTempC: 65, dryingHours: 5,
     glassTransitionC: 66, maxServiceTempC: 45,
@@ -104,6 +138,7 @@ export const defaultMaterials: MaterialParams[] = [
   },
   {
     key: "pa-cf", name: "PA/CF (PA6)",
+    family: "engineering",
     densityGPerCm3: 1.25, pricePerKgCents: 2400,
     meltTempMinC: 250, meltTempMaxC: 280, dryingTempC: 80, dryingHours: 8,
     glassTransitionC: 60, maxServiceTempC: 120,
@@ -114,6 +149,7 @@ export const defaultMaterials: MaterialParams[] = [
   },
   {
     key: "pps-cf", name: "PPS/CF",
+    family: "high-temp",
     densityGPerCm3: 1.5, pricePerKgCents: 5200,
     meltTempMinC: 300, meltTempMaxC: 330, dryingTempC: 130, dryingHours: 4,
     glassTransitionC: 90, maxServiceTempC: 180,
@@ -124,6 +160,7 @@ export const defaultMaterials: MaterialParams[] = [
   },
   {
     key: "psu-cf", name: "PSU/CF",
+    family: "high-temp",
     densityGPerCm3: 1.32, pricePerKgCents: 6800,
     meltTempMinC: 330, meltTempMaxC: 370, dryingTempC: 140, dryingHours: 4,
     glassTransitionC: 187, maxServiceTempC: 160,
@@ -134,6 +171,7 @@ export const defaultMaterials: MaterialParams[] = [
   },
   {
     key: "pesu-cf", name: "PESU/CF",
+    family: "high-temp",
     densityGPerCm3: 1.47, pricePerKgCents: 8200,
     meltTempMinC: 340, meltTempMaxC: 380, dryingTempC: 165, dryingHours: 5,
     glassTransitionC: 225, maxServiceTempC: 195,
@@ -144,6 +182,7 @@ export const defaultMaterials: MaterialParams[] = [
   },
   {
     key: "pei-cf", name: "PEI/CF",
+    family: "high-temp",
     densityGPerCm3: 1.38, pricePerKgCents: 9500,
     meltTempMinC: 340, meltTempMaxC: 400, dryingTempC: 150, dryingHours: 5,
     glassTransitionC: 217, maxServiceTempC: 190,

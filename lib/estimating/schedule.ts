@@ -129,6 +129,8 @@ export function shipSchedule(now: Date, cal: WorkingCalendar, p: { queueHours: n
 
 export interface ContinuousSchedule extends ShipSchedule {
   setupStart: Date;
+  /** The first charge goes into its dryer hopper (equal to setupStart when no drying is planned). */
+  dryingStart: Date;
 }
 
 /**
@@ -141,13 +143,21 @@ export interface ContinuousSchedule extends ShipSchedule {
  */
 export function continuousSchedule(
   now: Date, cal: WorkingCalendar, plant: Plant,
-  p: { queueHours: number; setupHours: number; printHours: number; coolingHours: number; machiningHours: number; finishingDays: number; inspectionDays: number; packingDays: number },
+  p: { queueHours: number; setupHours: number; printHours: number; coolingHours: number; machiningHours: number; finishingDays: number; inspectionDays: number; packingDays: number; dryingHours?: number; machiningCalendar?: WorkingCalendar },
 ): ContinuousSchedule {
   const setupStart = addWorkingHours(now, p.queueHours, cal, plant);
-  const printStart = addWorkingHours(setupStart, p.setupHours, cal, plant);
+  const setupEnd = addWorkingHours(setupStart, p.setupHours, cal, plant);
+  // Drying: the first charge must be dry before the first layer. Its hopper is loaded at the set-up
+  // (a material change waits for its hopper); with a job ahead on the cell the second hopper dries
+  // it during that job's last hours. Dryers run unattended on calendar time; the first layer is
+  // laid on a shift.
+  const dryH = Math.max(0, p.dryingHours ?? 0);
+  const dryingStart = dryH > 0 && p.queueHours > 0 ? new Date(Math.max(now.getTime(), setupStart.getTime() - dryH * HOUR)) : setupStart;
+  const dryEnd = dryingStart.getTime() + dryH * HOUR;
+  const printStart = dryEnd > setupEnd.getTime() ? addWorkingHours(new Date(dryEnd), 0, cal, plant) : setupEnd;
   const printEnd = new Date(printStart.getTime() + Math.max(0, p.printHours) * HOUR);
   const coolingEnd = new Date(printEnd.getTime() + Math.max(0, p.coolingHours) * HOUR);
-  const machiningEnd = addWorkingHours(coolingEnd, p.machiningHours, cal, plant);
+  const machiningEnd = addWorkingHours(coolingEnd, p.machiningHours, p.machiningCalendar ?? cal, plant);
   const done = addWorkingDays(machiningEnd, p.finishingDays + p.inspectionDays + p.packingDays, cal, plant);
-  return { setupStart, printStart, printEnd, coolingEnd, machiningEnd, shipDate: nextOpenDay(done, cal, plant) };
+  return { setupStart, dryingStart, printStart, printEnd, coolingEnd, machiningEnd, shipDate: nextOpenDay(done, cal, plant) };
 }

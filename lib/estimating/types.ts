@@ -40,6 +40,25 @@ export interface MaterialParams {
   notes: string;
   /** Where the figures come from ("memory", "common practice", a paper...). */
   source: string;
+  /** Extruder output class: commodity, engineering or high-temperature polymer (older rows: from the melt range, see extruder.ts). */
+  family?: MaterialFamily;
+}
+
+/** Material families an extruder's output is stated for (a screw lays less of a hotter, stiffer melt). */
+export type MaterialFamily = "commodity" | "engineering" | "high-temp";
+
+/** Dryer hoppers of a cell: each dries one material; capacity per hopper, kg. */
+export interface DryerParams {
+  hoppers: number;
+  hopperKg: number;
+}
+
+/** A cell that also prints vertically: layers stacked along its long axis, each layer inside the section. */
+export interface VerticalPrintParams {
+  /** Travel along which vertical layers are stacked, mm. */
+  longAxisMm: number;
+  /** Largest layer (the part's cross-section) in a vertical build, mm. */
+  sectionMm: { x: number; y: number };
 }
 
 export interface WorkingCalendar {
@@ -69,6 +88,16 @@ export interface CellParams {
   printRateCentsPerH?: number;
   /** Head acceleration along the path, mm/s² (corners and short segments slow down). */
   accelerationMmS2?: number;
+  /** Screw diameter class of the extruder, mm (older rows: none stated). */
+  screwMm?: number;
+  /** Extruder output by material family, kg/h; a family not listed uses `extruderOutputKgPerH`. */
+  outputKgPerHByFamily?: Partial<Record<MaterialFamily, number>>;
+  /** Hottest melt the barrel and nozzle reach, °C; a material needing more is never run on the cell (older rows: no limit). */
+  maxMeltTempC?: number;
+  /** Dryer hoppers feeding the cell (older rows: none, no drying planned). */
+  dryer?: DryerParams;
+  /** Vertical printing along the long axis (older rows: horizontal only). */
+  verticalPrint?: VerticalPrintParams;
 }
 
 /**
@@ -154,6 +183,8 @@ export interface RateCardParams {
   shiftStartHour?: number;
   /** Dates (YYYY-MM-DD, plant time) the whole bureau is closed, added to each cell's own. */
   holidays?: string[];
+  /** The router's (machining) own calendar; the printing cell's when absent. */
+  routerCalendar?: WorkingCalendar;
   /** Where the figures come from. */
   source: string;
 }
@@ -303,6 +334,8 @@ export interface EstimateResult {
     shipDate: string;
     /** Set-up on shifts before the first layer. */
     setupStart: string;
+    /** The first charge goes into its dryer hopper; it is dry before printStart. */
+    dryingStart: string;
     /** Printing runs on calendar time: deposition and dwell only, from printStart to printEnd. */
     printContinuous: true;
     timeZone: string;
@@ -318,6 +351,10 @@ export interface EstimateResult {
   shell: ShellPlanSummary | null;
   /** Mean laying speed over the whole path from segment lengths and acceleration, mm/s (speedMmS is the programmed peak). */
   meanSpeedMmS: number;
+  /** Pellet drying of the chosen material on the chosen cell: hours before the first layer, the hopper, and the sustained feed it allows (null: the cell states no dryer). */
+  drying: { hours: number; tempC: number; dryerKg: number; maxKgPerH: number } | null;
+  /** Sustained deposition the plan is capped at, kg/h, what sets it, and the extruder's screw class. */
+  feed: { kgPerH: number; limitedBy: "extruder" | "dryer"; extruderKgPerH: number; screwMm: number | null };
   /** Cell hourly print rate of the chosen cell, cents per hour. */
   printRateCentsPerH: number;
   /** Parts laid side by side in one build, and how many builds. */

@@ -9,7 +9,7 @@ import { fieldErrorsOf } from "@/lib/validation/form";
 import { setModelRetentionDays } from "@/db/queries/retention";
 import { RETENTION_DAYS_MAX, RETENTION_DAYS_MIN } from "@/lib/retention/policy";
 import { z } from "zod";
-import { getCurrentRateCard } from "@/db/queries/catalogue";
+import { getCurrentRateCard, listCurrentCells, listCurrentMaterials } from "@/db/queries/catalogue";
 import { freightRulesSchema } from "@/lib/validation/freight-zones";
 import { cellSchema, materialSchema, rateCardSchema, toCellParams, toMaterialParams, toRateCardParams } from "@/lib/validation/admin-catalogue";
 
@@ -18,7 +18,9 @@ const refuse = (error: { issues: { path: PropertyKey[]; message: string }[] }) =
 
 /** A material edit: version n+1 becomes current; quotes keep the version they were made with. */
 export const saveMaterial = defineAction({ access: "admin:catalogue", input: anyRecord(materialSchema), invalid: refuse }, async (input, { user, db }) => {
-  const params = toMaterialParams(input);
+  // The form does not edit the extruder family; a new version keeps the current one's.
+  const current = (await listCurrentMaterials(db, { activeOnly: false })).find((m) => m.key === input.key);
+  const params = { ...toMaterialParams(input), ...(current?.params.family ? { family: current.params.family } : {}) };
   const isActive = Boolean((input as Record<string, unknown>).isActive);
   const r = await db.transaction(async (tx) => {
     const saved = await saveMaterialVersion(tx, params, isActive, user.id);
@@ -30,7 +32,11 @@ export const saveMaterial = defineAction({ access: "admin:catalogue", input: any
 });
 
 export const saveCell = defineAction({ access: "admin:catalogue", input: anyRecord(cellSchema), invalid: refuse }, async (input, { user, db }) => {
-  const params = toCellParams(input);
+  // The form edits the envelope, speeds and calendar; the screw, outputs by family, melt limit,
+  // dryers and vertical printing stay as the current version has them.
+  const current = (await listCurrentCells(db, { activeOnly: false })).find((c) => c.key === input.key)?.params;
+  const kept = current ? Object.fromEntries((["screwMm", "outputKgPerHByFamily", "maxMeltTempC", "dryer", "verticalPrint"] as const).filter((k) => current[k] !== undefined).map((k) => [k, current[k]])) : {};
+  const params = { ...toCellParams(input), ...kept };
   if (!params.beadWidthsMm.includes(params.defaultBeadWidthMm)) throw new AppError("invalid_input", "The default bead width must be one of the bead widths.", { defaultBeadWidthMm: ["Pick one of the bead widths."] });
   if (!params.layerHeightsMm.includes(params.defaultLayerHeightMm)) throw new AppError("invalid_input", "The default layer height must be one of the layer heights.", { defaultLayerHeightMm: ["Pick one of the layer heights."] });
   const isActive = Boolean((input as Record<string, unknown>).isActive);

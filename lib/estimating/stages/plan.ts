@@ -1,3 +1,4 @@
+import { feedFor, type Feed } from "../extruder";
 import { steinerVolume } from "../grow";
 import type { MachiningPlan } from "../machining";
 import { planLayers, type LayerPlan, type ShellSpec } from "../plan";
@@ -30,6 +31,8 @@ export interface BuildPlan {
   coolingHours: number;
   /** Whole order: layers outside the cooling window over all builds. */
   flaggedLayers: number;
+  /** Sustained deposition of the cell for this material (extruder or dryer) and the drying it needs. */
+  feed: Feed;
 }
 
 /** The shell figures the catalogue gives (rate card, with fallbacks for older rows). */
@@ -118,12 +121,15 @@ export function planStage(
       bridging: ex.bridging, wallsFromAllowance: pc.wallsOverride === null,
     };
   }
+  const feed = feedFor(cell, material);
+  // the planner caps the laying speed at this feed (the screw's output or what the dryer keeps dry)
+  const fed = feed.kgPerH === cell.extruderOutputKgPerH ? cell : { ...cell, extruderOutputKgPerH: feed.kgPerH };
   const copies = Math.max(1, Math.min(pc.partsPerBuild, quantity));
   const builds = Math.ceil(quantity / copies);
   const lastCopies = quantity - (builds - 1) * copies;
-  const plan = planLayers({ areaMm2: planArea, perimeterMm: sec.perimeterMm, segments: sec.segments, layerHeightMm: h, beadWidthMm: w, shellWalls: walls, cell, material, shell: shellSpec, copies });
+  const plan = planLayers({ areaMm2: planArea, perimeterMm: sec.perimeterMm, segments: sec.segments, layerHeightMm: h, beadWidthMm: w, shellWalls: walls, cell: fed, material, shell: shellSpec, copies });
   // A last, smaller build (quantity not a multiple of the batch) is planned on its own.
-  const last = lastCopies === copies ? plan : planLayers({ areaMm2: planArea, perimeterMm: sec.perimeterMm, segments: sec.segments, layerHeightMm: h, beadWidthMm: w, shellWalls: walls, cell, material, shell: shellSpec, copies: lastCopies });
+  const last = lastCopies === copies ? plan : planLayers({ areaMm2: planArea, perimeterMm: sec.perimeterMm, segments: sec.segments, layerHeightMm: h, beadWidthMm: w, shellWalls: walls, cell: fed, material, shell: shellSpec, copies: lastCopies });
   const allowanceVolume = nearNet - ms.volumeMm3;
   const rho = material.densityGPerCm3 * 1e-6; // kg per mm³
   const perPartMm3 = walls === null ? nearNet : plan.depositedMm3 / copies;
@@ -139,5 +145,6 @@ export function planStage(
     depositedKg, scrapKg, massKg, partMassKg, machining,
     printHours: printS / 3600, dwellHours: dwellS / 3600, coolingHours,
     flaggedLayers: plan.flaggedCount * (builds - 1) + last.flaggedCount,
+    feed,
   };
 }
