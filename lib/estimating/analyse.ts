@@ -3,7 +3,7 @@ import { steinerVolume } from "./grow";
 import { toIndexed, type IndexedMesh } from "./indexed";
 import { planMachining } from "./machining";
 import { downsampleLayers } from "./plan";
-import { chooseStage } from "./stages/choose";
+import { buildModeOf, chooseStage } from "./stages/choose";
 import { measureStage } from "./stages/measure";
 import { cellPrintRate } from "./stages/price";
 import { bad, readStage, resolveOptions } from "./stages/read";
@@ -222,7 +222,7 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
     cautions,
     status: c.status,
     reviewReasons: choice.reviewReasons,
-    printMode: bp.printMode,
+    printMode: buildModeOf(c),
     shell: bp.shell,
     meanSpeedMmS: r2(plan.meanSpeedMmS),
     drying: bp.feed.drying ? { hours: bp.feed.drying.hours, tempC: bp.feed.drying.tempC, dryerKg: bp.feed.drying.dryerKg, maxKgPerH: r2(bp.feed.drying.maxKgPerH) } : null,

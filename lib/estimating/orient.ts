@@ -63,16 +63,53 @@ export function bestOrientation(size: [number, number, number], cell: CellParams
   return best!;
 }
 
-/** Fit of the grown box `size` in every cell, in its best orientation and in the chosen one. */
-export function fitCells(size: [number, number, number], cells: CellParams[], chosen: Orientation): CellFit[] {
+/**
+ * A cell's vertical build as an envelope: layers stacked along its long axis (the build
+ * direction), each layer inside its cross travel. Null for a cell that prints horizontally only.
+ */
+export function verticalCellOf(cell: CellParams): CellParams | null {
+  const v = cell.verticalPrint;
+  if (!v) return null;
+  return { ...cell, envelopeMm: { x: v.sectionMm.x, y: v.sectionMm.y, z: v.longAxisMm }, canPrintVertical: true };
+}
+
+/**
+ * A long part built vertically: its longest axis along the cell's long axis, so its layers run
+ * across its length (the section turned whichever way leaves more room). Null when the cell has no
+ * vertical build.
+ */
+export function verticalFit(size: [number, number, number], cell: CellParams): { cell: CellParams; orientation: Orientation; marginMm: number; heightMm: number } | null {
+  const vc = verticalCellOf(cell);
+  if (!vc) return null;
+  const up = AXES[size.indexOf(Math.max(...size))]!;
+  let best: { cell: CellParams; orientation: Orientation; marginMm: number; heightMm: number } | null = null;
+  for (const swapped of [false, true]) {
+    const o = { up, swapped };
+    const s = orientedSize(size, o);
+    const m = clearance(s, vc);
+    if (!best || m > best.marginMm) best = { cell: vc, orientation: o, marginMm: m, heightMm: s[2] };
+  }
+  return best;
+}
+
+/**
+ * Fit of the grown box `size` in every cell, in its best orientation and in the chosen one. A cell
+ * the part fits only when built vertically reports that fit (`vertical`).
+ */
+export function fitCells(size: [number, number, number], cells: CellParams[], chosen: Orientation, chosenVertical?: { cell: string }): CellFit[] {
   return cells.map((cell) => {
-    const b = bestOrientation(size, cell);
-    const allowedChosen = allowedOrientations(size, cell).some((o) => o.up === chosen.up && o.swapped === chosen.swapped);
-    const mc = clearance(orientedSize(size, chosen), cell);
+    let b: { orientation: Orientation; marginMm: number; heightMm: number } = bestOrientation(size, cell);
+    let vertical = false;
+    const vf = b.marginMm < 0 ? verticalFit(size, cell) : null;
+    if (vf && vf.marginMm >= 0) { b = vf; vertical = true; }
+    const chosenHere = chosenVertical?.cell === cell.key ? verticalCellOf(cell) : null;
+    const allowedChosen = chosenHere ? true : allowedOrientations(size, cell).some((o) => o.up === chosen.up && o.swapped === chosen.swapped);
+    const mc = clearance(orientedSize(size, chosen), chosenHere ?? cell);
     return {
       cell: cell.key, cellName: cell.name, fits: b.marginMm >= 0, marginMm: b.marginMm,
       bestOrientation: b.orientation, buildHeightMm: b.heightMm,
       fitsChosen: allowedChosen && mc >= 0, marginChosenMm: mc,
+      ...(vertical ? { vertical: true } : {}),
     };
   });
 }
@@ -85,12 +122,14 @@ export function suggestSplit(netSize: [number, number, number], allowanceMm: num
   const axisIndex = netSize.indexOf(Math.max(...netSize));
   for (let pieces = 2; pieces <= maxPieces; pieces++) {
     const s = netSize.map((v, i) => (i === axisIndex ? v / pieces : v) + 2 * allowanceMm) as [number, number, number];
-    let bestCell: { cell: string; margin: number } | null = null;
+    let bestCell: { cell: string; margin: number; vertical: boolean } | null = null;
     for (const cell of cells) {
       const b = bestOrientation(s, cell);
-      if (b.marginMm >= 0 && (!bestCell || b.marginMm > bestCell.margin)) bestCell = { cell: cell.key, margin: b.marginMm };
+      if (b.marginMm >= 0 && (!bestCell || b.marginMm > bestCell.margin)) bestCell = { cell: cell.key, margin: b.marginMm, vertical: false };
+      const v = b.marginMm < 0 ? verticalFit(s, cell) : null;
+      if (v && v.marginMm >= 0 && (!bestCell || v.marginMm > bestCell.margin)) bestCell = { cell: cell.key, margin: v.marginMm, vertical: true };
     }
-    if (bestCell) return { axis: AXES[axisIndex]!, pieces, pieceLengthMm: netSize[axisIndex]! / pieces, cell: bestCell.cell, marginMm: bestCell.margin };
+    if (bestCell) return { axis: AXES[axisIndex]!, pieces, pieceLengthMm: netSize[axisIndex]! / pieces, cell: bestCell.cell, marginMm: bestCell.margin, ...(bestCell.vertical ? { vertical: true } : {}) };
   }
   return null;
 }

@@ -129,8 +129,8 @@ describe("the candidate search", () => {
     expect(r.flaggedLayers).toBeGreaterThan(0);
   });
 
-  it("a part longer than every cell needs review (split) rather than a plain price", async () => {
-    const r = await run([11000, 400, 300]);
+  it("a part longer than every cell, even built vertically along the 12 m long axis, needs review (split) rather than a plain price", async () => {
+    const r = await run([14000, 400, 300]);
     expect(r.fitsAny).toBe(false);
     expect(r.status).toBe("needs-review");
     expect(r.reviewReasons.some((x) => x.code === "fits-no-cell")).toBe(true);

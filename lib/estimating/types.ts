@@ -210,6 +210,8 @@ export interface CellFit {
   /** Fits in the orientation chosen for the estimate. */
   fitsChosen: boolean;
   marginChosenMm: number;
+  /** The part fits this cell only built vertically (layers across its length along the cell's long axis). */
+  vertical?: boolean;
 }
 
 export interface SplitSuggestion {
@@ -218,6 +220,8 @@ export interface SplitSuggestion {
   pieceLengthMm: number;
   cell: string;
   marginMm: number;
+  /** Each piece fits that cell built vertically. */
+  vertical?: boolean;
 }
 
 export interface CostLine {
@@ -346,7 +350,7 @@ export interface EstimateResult {
   /** "priced": a printable plan inside the cooling window; "needs-review": the bureau's engineer quotes it (the figures are staff's indicative ones). */
   status: EstimateStatus;
   reviewReasons: ReviewReason[];
-  printMode: PrintMode;
+  printMode: BuildMode;
   /** Shell build of the chosen plan (null for a solid print). */
   shell: ShellPlanSummary | null;
   /** Mean laying speed over the whole path from segment lengths and acceleration, mm/s (speedMmS is the programmed peak). */
@@ -368,7 +372,10 @@ export interface EstimateResult {
 }
 
 export type EstimateStatus = "priced" | "needs-review";
+/** How the part is filled: a shell (walls, ribs, skins) or solid. */
 export type PrintMode = "shell" | "solid";
+/** The build as reported: the fill, and "vertical-" when the layers run across a long part's length on a cell that prints vertically. */
+export type BuildMode = PrintMode | "vertical-shell" | "vertical-solid";
 
 export interface ReviewReason {
   code: string;
@@ -399,7 +406,7 @@ export interface EstimateAlternative {
   orientation: Orientation;
   beadWidthMm: number;
   layerHeightMm: number;
-  printMode: PrintMode;
+  printMode: BuildMode;
   shellWalls: number | null;
   printHours: number;
   dwellHours: number;

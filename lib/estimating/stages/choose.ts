@@ -1,10 +1,10 @@
 import type { IndexedMesh } from "../indexed";
 import type { MachiningPlan } from "../machining";
-import { allowedOrientations, bestOrientation, clearance, fitCells, orientedSize, suggestSplit } from "../orient";
+import { allowedOrientations, bestOrientation, clearance, fitCells, orientedSize, suggestSplit, verticalFit } from "../orient";
 import type { Pricing } from "../pricing";
 import type { ContinuousSchedule, Plant } from "../schedule";
 import type {
-  Axis, CellFit, CellParams, EstimateAlternative, EstimateStatus, EstimateWarning, MaterialParams, Orientation,
+  Axis, BuildMode, CellFit, CellParams, EstimateAlternative, EstimateStatus, EstimateWarning, MaterialParams, Orientation,
   PrintMode, RateCardParams, RemedyTried, ReviewReason, SplitSuggestion,
 } from "../types";
 import type { Measured } from "./measure";
@@ -22,6 +22,8 @@ export const LAYER_TO_BEAD_MIN = 0.25;
 export const LAYER_TO_BEAD_MAX = 0.5;
 /** Gap between parts printed side by side, mm (common practice: room for the nozzle and for machining). */
 export const SIDE_BY_SIDE_GAP_MM = 100;
+/** A part this many times longer than its next side is a long part, tried vertically on a cell that prints so (bureau practice). */
+export const LONG_PART_RATIO = 2.5;
 
 export interface SearchInput {
   mesh: IndexedMesh;
@@ -53,6 +55,8 @@ export interface Candidate {
   schedule: ContinuousSchedule;
   status: EstimateStatus;
   reasons: ReviewReason[];
+  /** Built vertically: layers across the part's length along the cell's long axis (`cell` is then the vertical envelope). */
+  vertical: boolean;
 }
 
 export interface Choice {
@@ -68,6 +72,9 @@ export interface Choice {
 }
 
 const key = (o: Orientation) => `${o.up}${o.swapped ? "'" : ""}`;
+
+/** The build as reported: the fill, prefixed "vertical-" for a vertical build. */
+export const buildModeOf = (c: Pick<Candidate, "vertical" | "bp">): BuildMode => (c.vertical ? `vertical-${c.bp.printMode}` : c.bp.printMode);
 
 /** Bead/layer presets of a cell: its default, and every pair whose layer is ¼–½ of the bead. */
 export function presetsOf(cell: CellParams): { beadWidthMm: number; layerHeightMm: number }[] {
@@ -90,6 +97,7 @@ export function compareCandidates(a: Candidate, b: Candidate): number {
     || (a.bp.printHours + a.bp.dwellHours) - (b.bp.printHours + b.bp.dwellHours)
     || a.cell.key.localeCompare(b.cell.key)
     || key(a.orientation).localeCompare(key(b.orientation))
+    || Number(a.vertical) - Number(b.vertical)
     || a.bp.beadWidthMm - b.bp.beadWidthMm || a.bp.layerHeightMm - b.bp.layerHeightMm
     || a.bp.partsPerBuild - b.bp.partsPerBuild;
 }
@@ -116,7 +124,9 @@ export function chooseStage(s: SearchInput, warnings: EstimateWarning[]): Choice
   const fineH = Math.min(...cells.flatMap((c) => [...c.layerHeightsMm, c.defaultLayerHeightMm]).filter((h) => h > 0));
 
   // (cell, orientation) pairs that fit, pruned before any slicing
-  const pairs: { cell: CellParams; orientation: Orientation; fits: boolean }[] = [];
+  const pairs: { cell: CellParams; orientation: Orientation; fits: boolean; vertical: boolean }[] = [];
+  const sides = [...grown].sort((a, b) => b - a);
+  const longPart = sides[0]! >= LONG_PART_RATIO * sides[1]!;
   for (const cell of searched) {
     const options = s.orientation ? [s.orientation] : allowedOrientations(grown, cell);
     const byUp = new Map<Axis, { o: Orientation; m: number }>();
@@ -126,7 +136,16 @@ export function chooseStage(s: SearchInput, warnings: EstimateWarning[]): Choice
       const prev = byUp.get(o.up);
       if (!prev || m > prev.m) byUp.set(o.up, { o, m });
     }
-    for (const { o } of byUp.values()) pairs.push({ cell, orientation: o, fits: true });
+    for (const { o } of byUp.values()) pairs.push({ cell, orientation: o, fits: true, vertical: false });
+    // a long part (or one this cell cannot take lying down) built vertically, layers across its length
+    if (longPart || byUp.size === 0) {
+      const vf = verticalFit(grown, cell);
+      const forced = s.orientation;
+      if (vf && (!forced || forced.up === vf.orientation.up)) {
+        const o = forced ?? vf.orientation;
+        if (clearance(orientedSize(grown, o), vf.cell) >= 0) pairs.push({ cell: vf.cell, orientation: o, fits: true, vertical: true });
+      }
+    }
   }
   if (pairs.length === 0) {
     // Nothing fits whole: plan on the cell (and orientation) with the most room, for review.
@@ -134,7 +153,7 @@ export function chooseStage(s: SearchInput, warnings: EstimateWarning[]): Choice
     const best = s.orientation
       ? { c: searched[0]!, o: s.orientation }
       : ranked.sort((a, b) => b.b.marginMm - a.b.marginMm).map((r) => ({ c: r.c, o: r.b.orientation }))[0]!;
-    pairs.push({ cell: best.c, orientation: best.o, fits: false });
+    pairs.push({ cell: best.c, orientation: best.o, fits: false, vertical: false });
   }
 
   const fine = new Map<Axis, GrownSections>();
@@ -144,23 +163,23 @@ export function chooseStage(s: SearchInput, warnings: EstimateWarning[]): Choice
     return sectionsAt(f, h);
   };
 
-  const evaluate = (cell: CellParams, orientation: Orientation, fits: boolean, sections: GrownSections, beadWidthMm: number, printMode: PrintMode, partsPerBuild: number): Candidate => {
+  const evaluate = (cell: CellParams, orientation: Orientation, fits: boolean, sections: GrownSections, beadWidthMm: number, printMode: PrintMode, partsPerBuild: number, vertical = false): Candidate => {
     const bp = planStage(ms, { cell, beadWidthMm, sections, printMode, wallsOverride: printMode === "shell" ? s.wallsOverride : null, partsPerBuild }, material, card, s.rules, s.allowanceMm, s.quantity, s.machining);
     const pricing = priceStage(ms, bp, cell, material, card, s.quantity, s.priceOptions);
     const schedule = scheduleStage(s.now, cell, card, bp, s.quantity, s.queue[cell.key] ?? 0, s.plant);
     const reasons: ReviewReason[] = [];
     if (!fits) reasons.push({ code: "fits-no-cell", message: `The part does not fit the ${cell.name} cell in one piece.` });
     if (bp.flaggedLayers > 0) reasons.push({ code: "layers-outside-window", message: `${bp.flaggedLayers} of ${bp.layers.timeS.length * bp.builds} layers take longer than the ${material.maxLayerTimeS} s cooling window of ${material.name}.` });
-    return { cell, orientation, fitsCell: fits, sections, bp, pricing, schedule, status: reasons.length ? "needs-review" : "priced", reasons };
+    return { cell, orientation, fitsCell: fits, sections, bp, pricing, schedule, status: reasons.length ? "needs-review" : "priced", reasons, vertical };
   };
 
   const all: Candidate[] = [];
   for (const pair of pairs) {
     for (const preset of presetsOf(pair.cell)) {
       const sec = sectionsFor(pair.orientation.up, preset.layerHeightMm);
-      const one = evaluate(pair.cell, pair.orientation, pair.fits, sec, preset.beadWidthMm, s.printMode, 1);
+      const one = evaluate(pair.cell, pair.orientation, pair.fits, sec, preset.beadWidthMm, s.printMode, 1, pair.vertical);
       all.push(one);
-      if (s.quantity > 1 && pair.fits) {
+      if (s.quantity > 1 && pair.fits && !pair.vertical) {
         const plan = orientedSize(grown, pair.orientation);
         const side = Math.min(s.quantity, sideBySide(pair.cell, [plan[0], plan[1]]));
         // Side by side lengthens each layer: worth trying when layers are short (dwell) and not already long.
@@ -189,7 +208,7 @@ export function chooseStage(s: SearchInput, warnings: EstimateWarning[]): Choice
       });
     } else {
       const bead = cb.beadWidthMm;
-      const shellTry = evaluate(chosen.cell, chosen.orientation, chosen.fitsCell, chosen.sections, bead, "shell", cb.partsPerBuild);
+      const shellTry = evaluate(chosen.cell, chosen.orientation, chosen.fitsCell, chosen.sections, bead, "shell", cb.partsPerBuild, chosen.vertical);
       remedies.push({
         code: "shell-walls",
         tried: `a shell of ${wallsForAllowance(s.allowanceMm, bead, s.rules.shellNetWallMm)} walls instead of the solid print asked for (not applied)`,
@@ -208,7 +227,7 @@ export function chooseStage(s: SearchInput, warnings: EstimateWarning[]): Choice
     }
   }
 
-  const fits = fitCells(grown, cells, chosen.orientation);
+  const fits = fitCells(grown, cells, chosen.orientation, chosen.vertical ? { cell: chosen.cell.key } : undefined);
   const fitsAny = fits.some((f) => f.fits);
   const split = fitsAny ? null : suggestSplit(ms.netSize, s.allowanceMm, cells);
   const reviewReasons = [...chosen.reasons];
@@ -258,7 +277,7 @@ function alternative(c: Candidate, chosen: Candidate): EstimateAlternative {
   }
   return {
     cell: c.cell.key, cellName: c.cell.name, orientation: c.orientation, beadWidthMm: c.bp.beadWidthMm, layerHeightMm: c.bp.layerHeightMm,
-    printMode: c.bp.printMode, shellWalls: c.bp.shellWalls, printHours: r4(c.bp.printHours), dwellHours: r4(c.bp.dwellHours), massKg: r4(c.bp.massKg),
+    printMode: buildModeOf(c), shellWalls: c.bp.shellWalls, printHours: r4(c.bp.printHours), dwellHours: r4(c.bp.dwellHours), massKg: r4(c.bp.massKg),
     flaggedLayers: c.bp.flaggedLayers, totalCents: c.pricing.totalCents, shipDate: c.schedule.shipDate, status: c.status, whyNot,
   };
 }
