@@ -45,12 +45,15 @@ describe("analyse", () => {
     expect(compact.marginMm).toBeCloseTo(687.3, 6);
   });
 
-  it("a part too long for any cell is flagged with a split suggestion", async () => {
+  it("a part too long for any cell is split, and priced as its pieces", async () => {
     const r = await run(binaryStl(tooLongBeam()), "spar.stl");
     expect(r.fitsAny).toBe(false);
     expect(r.split).not.toBeNull();
     expect(r.split!.pieces).toBe(2);
-    expect(r.warnings.some((w) => w.code === "fits-no-cell")).toBe(true);
+    // priced as its pieces, each built on its own, with the joining
+    expect(r.pieces).toHaveLength(2);
+    expect(r.warnings.some((w) => w.code === "priced-as-pieces")).toBe(true);
+    expect(r.lines.some((l) => l.key === "joining")).toBe(true);
   });
 
   it("the demo parts analyse in every format with plausible figures", async () => {

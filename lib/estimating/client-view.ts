@@ -14,7 +14,8 @@ export function clientEstimate(r: EstimateResult): EstimateResult & { priceWithh
   })) as unknown as EstimateResult["alternatives"];
   const base = { ...r, alternatives, remedies: [], priceWithheld: withheld };
   if (!withheld) return base;
-  return { ...base, lines: [], subtotalCents: 0, marginCents: 0, taxCents: 0, totalCents: 0, depositCents: 0, balanceCents: 0, printRateCentsPerH: 0 };
+  const pieces = r.pieces?.map((p) => ({ ...p, lines: [], subtotalCents: 0 }));
+  return { ...base, ...(pieces ? { pieces } : {}), lines: [], subtotalCents: 0, marginCents: 0, taxCents: 0, totalCents: 0, depositCents: 0, balanceCents: 0, printRateCentsPerH: 0 };
 }
 
 /** A stored result (plain JSON from the database) as the client sees it; null stays null. */

@@ -67,10 +67,20 @@ export function price(inp: PricingInput, card: RateCardParams): Pricing {
     const freight = roundCents(card.freightBaseCents + card.freightCentsPerKg * inp.partMassKg);
     lines.push(line("freight", "Freight", q, "crate", freight));
   }
+  return { ...totalsOf(lines, card), ...(crateOut ? { crate: crateOut } : {}) };
+}
+
+/** Subtotal of the lines, margin on it, tax on subtotal + margin, deposit share of the total (basis points). */
+export function totalsOf(lines: CostLine[], card: RateCardParams): Pricing {
   const subtotalCents = lines.reduce((s, l) => s + l.amountCents, 0);
   const marginCents = applyBp(subtotalCents, card.marginBp);
   const taxCents = applyBp(subtotalCents + marginCents, card.taxBp);
   const totalCents = subtotalCents + marginCents + taxCents;
   const depositCents = applyBp(totalCents, card.depositBp);
-  return { lines, subtotalCents, marginCents, taxCents, totalCents, depositCents, balanceCents: totalCents - depositCents, ...(crateOut ? { crate: crateOut } : {}) };
+  return { lines, subtotalCents, marginCents, taxCents, totalCents, depositCents, balanceCents: totalCents - depositCents };
+}
+
+/** A cost line, its amount rounded once to cents. */
+export function costLine(key: string, label: string, quantity: number, unit: string, unitCents: number): CostLine {
+  return line(key, label, quantity, unit, unitCents);
 }

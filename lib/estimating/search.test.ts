@@ -129,8 +129,10 @@ describe("the candidate search", () => {
     expect(r.flaggedLayers).toBeGreaterThan(0);
   });
 
-  it("a part longer than every cell, even built vertically along the 12 m long axis, needs review (split) rather than a plain price", async () => {
-    const r = await run([14000, 400, 300]);
+  it("a part longer than every cell, whose pieces the forced cell cannot build, needs review (split) rather than a plain price", async () => {
+    // 7 m pieces stood on end do not fit the long bed's 1.8 m height, and it has no vertical build
+    const r = await run([14000, 400, 300], { cellKey: "long-bed" });
+    expect(r.pieces).toBeUndefined();
     expect(r.fitsAny).toBe(false);
     expect(r.status).toBe("needs-review");
     expect(r.reviewReasons.some((x) => x.code === "fits-no-cell")).toBe(true);

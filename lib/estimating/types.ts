@@ -183,6 +183,10 @@ export interface RateCardParams {
   shiftStartHour?: number;
   /** Dates (YYYY-MM-DD, plant time) the whole bureau is closed, added to each cell's own. */
   holidays?: string[];
+  /** Joining a split part: set-up hours a joint, bonding hours per m² of joint face, band machined each side of a joint, mm. */
+  joinSetupHours?: number;
+  joinBondHoursPerM2?: number;
+  joinBandMm?: number;
   /** The router's (machining) own calendar; the printing cell's when absent. */
   routerCalendar?: WorkingCalendar;
   /** Where the figures come from. */
@@ -369,6 +373,41 @@ export interface EstimateResult {
   remedies: RemedyTried[];
   /** How many candidates (cell × orientation × preset × print mode) were planned. */
   candidatesPlanned: number;
+  /** A part no cell takes whole: each piece's own estimate (the top-level figures are their sums, plus the joining). */
+  pieces?: PieceEstimate[];
+  /** The joints of a part priced as pieces (the `joining` line bills `hours`). */
+  joint?: { cuts: number; faceAreaMm2: number; contourMm: number; hours: number };
+}
+
+/** One piece of a split part, planned, priced (its own lines, before margin) and dated on its own. */
+export interface PieceEstimate {
+  index: number;
+  axis: Axis;
+  /** Where the piece starts and ends along the split axis (file coordinates, net), mm. */
+  fromMm: number;
+  toMm: number;
+  cell: string;
+  cellName: string;
+  printMode: BuildMode;
+  orientation: Orientation;
+  beadWidthMm: number;
+  layerHeightMm: number;
+  layers: number;
+  flaggedLayers: number;
+  printHours: number;
+  dwellHours: number;
+  coolingHours: number;
+  /** Cell set-up before its first layer, working hours. */
+  setupHours: number;
+  depositedKg: number;
+  massKg: number;
+  partMassKg: number;
+  machiningHours: number;
+  drying: EstimateResult["drying"];
+  schedule: { setupStart: string; dryingStart: string; printStart: string; printEnd: string; coolingEnd: string; machiningStart: string; machiningEnd: string };
+  lines: CostLine[];
+  subtotalCents: number;
+  status: EstimateStatus;
 }
 
 export type EstimateStatus = "priced" | "needs-review";

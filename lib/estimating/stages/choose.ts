@@ -102,6 +102,31 @@ export function compareCandidates(a: Candidate, b: Candidate): number {
     || a.bp.partsPerBuild - b.bp.partsPerBuild;
 }
 
+/** What a candidate is planned for: the whole part, or one piece of a split part. */
+export interface PartContext {
+  ms: Measured;
+  /** Machining of this part in a candidate's build (its sections). */
+  machiningFor: (sections: GrownSections, cell: CellParams) => MachiningPlan;
+  now: Date;
+  queueHours: (cell: CellParams) => number;
+}
+
+/** One candidate planned, priced and dated. */
+export function evaluateCandidate(
+  s: SearchInput, part: PartContext, cell: CellParams, orientation: Orientation, fits: boolean, sections: GrownSections,
+  beadWidthMm: number, printMode: PrintMode, partsPerBuild: number, vertical: boolean,
+): Candidate {
+  const { material, card } = s;
+  const ms = part.ms;
+  const bp = planStage(ms, { cell, beadWidthMm, sections, printMode, wallsOverride: printMode === "shell" ? s.wallsOverride : null, partsPerBuild }, material, card, s.rules, s.allowanceMm, s.quantity, part.machiningFor(sections, cell));
+  const pricing = priceStage(ms, bp, cell, material, card, s.quantity, s.priceOptions);
+  const schedule = scheduleStage(part.now, cell, card, bp, s.quantity, part.queueHours(cell), s.plant);
+  const reasons: ReviewReason[] = [];
+  if (!fits) reasons.push({ code: "fits-no-cell", message: `The part does not fit the ${cell.name} cell in one piece.` });
+  if (bp.flaggedLayers > 0) reasons.push({ code: "layers-outside-window", message: `${bp.flaggedLayers} of ${bp.layers.timeS.length * bp.builds} layers take longer than the ${material.maxLayerTimeS} s cooling window of ${material.name}.` });
+  return { cell, orientation, fitsCell: fits, sections, bp, pricing, schedule, status: reasons.length ? "needs-review" : "priced", reasons, vertical };
+}
+
 /** How many grown footprints (with the gap) fit side by side on the cell's bed. */
 export function sideBySide(cell: CellParams, plan: [number, number]): number {
   const g = SIDE_BY_SIDE_GAP_MM;
@@ -118,7 +143,7 @@ export function sideBySide(cell: CellParams, plan: [number, number]): number {
  * search computed for it); orientations and presets that cannot fit are pruned before planning.
  */
 export function chooseStage(s: SearchInput, warnings: EstimateWarning[]): Choice {
-  const { ms, cells, material, card } = s;
+  const { ms, cells, material } = s;
   const grown = ms.grownSize;
   const searched = s.cellKey ? cells.filter((c) => c.key === s.cellKey) : cells;
   const fineH = Math.min(...cells.flatMap((c) => [...c.layerHeightsMm, c.defaultLayerHeightMm]).filter((h) => h > 0));
@@ -163,15 +188,9 @@ export function chooseStage(s: SearchInput, warnings: EstimateWarning[]): Choice
     return sectionsAt(f, h);
   };
 
-  const evaluate = (cell: CellParams, orientation: Orientation, fits: boolean, sections: GrownSections, beadWidthMm: number, printMode: PrintMode, partsPerBuild: number, vertical = false): Candidate => {
-    const bp = planStage(ms, { cell, beadWidthMm, sections, printMode, wallsOverride: printMode === "shell" ? s.wallsOverride : null, partsPerBuild }, material, card, s.rules, s.allowanceMm, s.quantity, s.machining);
-    const pricing = priceStage(ms, bp, cell, material, card, s.quantity, s.priceOptions);
-    const schedule = scheduleStage(s.now, cell, card, bp, s.quantity, s.queue[cell.key] ?? 0, s.plant);
-    const reasons: ReviewReason[] = [];
-    if (!fits) reasons.push({ code: "fits-no-cell", message: `The part does not fit the ${cell.name} cell in one piece.` });
-    if (bp.flaggedLayers > 0) reasons.push({ code: "layers-outside-window", message: `${bp.flaggedLayers} of ${bp.layers.timeS.length * bp.builds} layers take longer than the ${material.maxLayerTimeS} s cooling window of ${material.name}.` });
-    return { cell, orientation, fitsCell: fits, sections, bp, pricing, schedule, status: reasons.length ? "needs-review" : "priced", reasons, vertical };
-  };
+  const part: PartContext = { ms, machiningFor: () => s.machining, now: s.now, queueHours: (c) => s.queue[c.key] ?? 0 };
+  const evaluate = (cell: CellParams, orientation: Orientation, fits: boolean, sections: GrownSections, beadWidthMm: number, printMode: PrintMode, partsPerBuild: number, vertical = false): Candidate =>
+    evaluateCandidate(s, part, cell, orientation, fits, sections, beadWidthMm, printMode, partsPerBuild, vertical);
 
   const all: Candidate[] = [];
   for (const pair of pairs) {

@@ -22,6 +22,17 @@ export interface GrownSections {
   segments: Uint32Array;
   /** Σ grown areas × layer height, before rescaling to the Steiner volume. */
   slicedVolumeMm3: number;
+  /** A piece's slab (sliced with a range): its net volume and side area from the sections, and its end sections. */
+  slab?: PieceSlab;
+}
+
+export interface PieceSlab {
+  netVolumeMm3: number;
+  sideAreaMm2: number;
+  lowAreaMm2: number;
+  lowPerimeterMm: number;
+  highAreaMm2: number;
+  highPerimeterMm: number;
 }
 
 /**
@@ -31,10 +42,11 @@ export interface GrownSections {
  * most three times however many bead/layer presets are planned. A swap of the plan axes turns a
  * section in its plane and changes neither its area nor its contour.
  */
-export function sliceStage(mesh: IndexedMesh, ms: Measured, up: Axis, fineHeightMm: number, allowanceMm: number): GrownSections {
+export function sliceStage(mesh: IndexedMesh, ms: Measured, up: Axis, fineHeightMm: number, allowanceMm: number, range?: [number, number]): GrownSections {
   const t = allowanceMm, h = fineHeightMm;
   const ai = AXIS_INDEX[up];
-  const zMin = ms.m.bounds.min[ai]!, zMax = ms.m.bounds.max[ai]!;
+  // a piece of a split part: the slab between two cuts, each cut face keeping the allowance
+  const zMin = range ? range[0] : ms.m.bounds.min[ai]!, zMax = range ? range[1] : ms.m.bounds.max[ai]!;
   const height = zMax - zMin + 2 * t;
   const layerCount = Math.max(1, Math.ceil(height / h - 1e-9));
   if (layerCount > MAX_LAYERS) bad("mesh:too-tall", `The part would need ${layerCount} layers, more than the ${MAX_LAYERS} the planner accepts; check the units.`);
@@ -42,7 +54,10 @@ export function sliceStage(mesh: IndexedMesh, ms: Measured, up: Axis, fineHeight
   const sec = slice(mesh, z0, h, layerCount, up);
   const grownArea = new Float64Array(layerCount), grownPer = new Float64Array(layerCount), segs = new Uint32Array(layerCount);
   let firstIn = -1, lastIn = -1;
-  for (let k = 0; k < layerCount; k++) if (sec.area[k]! > 0) { if (firstIn < 0) firstIn = k; lastIn = k; }
+  for (let k = 0; k < layerCount; k++) {
+    const z = z0 + (k + 0.5) * h;
+    if (sec.area[k]! > 0 && z > zMin && z < zMax) { if (firstIn < 0) firstIn = k; lastIn = k; }
+  }
   const planSum = ms.netSize[0] + ms.netSize[1] + ms.netSize[2] - ms.netSize[ai]!;
   const fallbackA = ms.volumeMm3 / Math.max(zMax - zMin, 1e-9), fallbackP = 2 * planSum;
   for (let k = 0; k < layerCount; k++) {
@@ -60,7 +75,17 @@ export function sliceStage(mesh: IndexedMesh, ms: Measured, up: Axis, fineHeight
   }
   let slicedVolume = 0;
   for (let k = 0; k < layerCount; k++) slicedVolume += grownArea[k]! * h;
-  return { z0, layerHeightMm: h, layerCount, heightMm: height, areaMm2: grownArea, perimeterMm: grownPer, segments: segs, slicedVolumeMm3: slicedVolume };
+  let slab: PieceSlab | undefined;
+  if (range) {
+    let v = 0, side = 0;
+    for (let k = Math.max(0, firstIn); k >= 0 && k <= lastIn; k++) { v += sec.area[k]! * h; side += sec.perimeter[k]! * h; }
+    slab = {
+      netVolumeMm3: v, sideAreaMm2: side,
+      lowAreaMm2: firstIn >= 0 ? sec.area[firstIn]! : 0, lowPerimeterMm: firstIn >= 0 ? sec.perimeter[firstIn]! : 0,
+      highAreaMm2: lastIn >= 0 ? sec.area[lastIn]! : 0, highPerimeterMm: lastIn >= 0 ? sec.perimeter[lastIn]! : 0,
+    };
+  }
+  return { z0, layerHeightMm: h, layerCount, heightMm: height, areaMm2: grownArea, perimeterMm: grownPer, segments: segs, slicedVolumeMm3: slicedVolume, ...(slab ? { slab } : {}) };
 }
 
 /** The fine sections sampled at a coarser layer height: each layer takes the fine section at its mid-height. */
