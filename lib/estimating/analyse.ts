@@ -1,7 +1,6 @@
 import { canMelt, extruderOutputFor } from "./extruder";
 import { steinerVolume } from "./grow";
 import { toIndexed, type IndexedMesh } from "./indexed";
-import { planMachining } from "./machining";
 import { downsampleLayers } from "./plan";
 import { buildModeOf, chooseStage } from "./stages/choose";
 import { measureStage } from "./stages/measure";
@@ -28,6 +27,10 @@ export interface AnalyseOptions {
   quantity?: number;
   sealingCoat?: boolean;
   vacuumTest?: boolean;
+  /** Finish the face printed on the bed too (the part is flipped for a second set-up); by default it is left as printed. */
+  finishBedFace?: boolean;
+  /** An open mold: cut its trim line along the edge. */
+  trimLines?: boolean;
   /** The client's stated cure temperature, °C (oven ≈ 120, autoclave ≈ 177). */
   cureTempC?: number;
   /** Expansion of the part laid up on the tool, ppm/K (carbon laminate ≈ 2–4). */
@@ -84,7 +87,6 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
   const { m, netSize } = ms;
   const volume = ms.volumeMm3, M = ms.meanCurvatureMm;
   const nearNet = steinerVolume(volume, m.areaMm2, M, t);
-  const mach = planMachining(nearNet - volume, m.areaMm2, card);
 
   onProgress(0.4, "fitting");
   const rules = {
@@ -104,9 +106,9 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
   const choice = chooseStage({
     mesh, ms, cells, material, card, rules, plant, allowanceMm: t, quantity, printMode, wallsOverride,
     cellKey: o.cellKey, orientation, queue: input.queue ?? {}, now: input.now,
-    priceOptions: { sealingCoat: o.sealingCoat, vacuumTest: o.vacuumTest, freightZone: o.freightZone }, machining: mach,
+    priceOptions: { sealingCoat: o.sealingCoat, vacuumTest: o.vacuumTest, freightZone: o.freightZone }, machiningAsked: { finishBedFace: o.finishBedFace, trimLines: o.trimLines },
   }, warnings);
-  const c = choice.chosen, bp = c.bp, cell = c.cell, plan = bp.layers, pr = c.pricing, sched = c.schedule;
+  const c = choice.chosen, bp = c.bp, mach = c.bp.machining, cell = c.cell, plan = bp.layers, pr = c.pricing, sched = c.schedule;
   const h = bp.layerHeightMm, w = bp.beadWidthMm, z0 = c.sections.z0, layerCount = c.sections.layerCount;
   onProgress(0.75, "planning");
   onProgress(0.9, "pricing");
@@ -142,7 +144,7 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
   const searchInput = {
     mesh, ms, cells, material, card, rules, plant, allowanceMm: t, quantity, printMode, wallsOverride,
     cellKey: o.cellKey, orientation, queue: input.queue ?? {}, now: input.now,
-    priceOptions: { sealingCoat: o.sealingCoat, vacuumTest: o.vacuumTest, freightZone: o.freightZone }, machining: mach,
+    priceOptions: { sealingCoat: o.sealingCoat, vacuumTest: o.vacuumTest, freightZone: o.freightZone }, machiningAsked: { finishBedFace: o.finishBedFace, trimLines: o.trimLines },
   };
   const pieces = split && !o.orientation ? planPieces(searchInput, o.cellKey ? cells.filter((x) => x.key === o.cellKey) : cells, split, fineH, pr) : null;
 
@@ -202,6 +204,7 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
     partMassKg: r4(partMassKg),
     liftingCaution,
     machining: {
+      bedFaceMm2: r2(mach.bedFaceMm2), bedFaceFinished: mach.bedFaceFinished, setups: mach.setups, trimLengthMm: r2(mach.trimLengthMm), trimHours: r4(mach.trimHours),
       roughingHours: r4(mach.roughingHours), finishingHours: r4(mach.finishingHours), toolChangeHours: r4(mach.toolChangeHours),
       setupHours: mach.setupHours, stepoverMm: r4(mach.stepoverMm), scallopMm: r4(mach.scallopMm),
     },
@@ -298,7 +301,9 @@ function asPieces(r: EstimateResult, pp: PiecesPlan, card: RateCardParams, mater
     layerChart: downsampleLayers(first.sections.z0, first.bp.layerHeightMm, first.bp.layers),
     depositedKg: r4(sum((p) => p.chosen.bp.depositedKg)), purgeKg: r4(card.purgeKg * sum((p) => p.chosen.bp.builds)), scrapKg: r4(sum((p) => p.chosen.bp.scrapKg)),
     massKg: r4(sum((p) => p.chosen.bp.massKg)), partMassKg: r4(partMassKg), liftingCaution,
-    machining: { ...r.machining, roughingHours: mk("roughingHours"), finishingHours: mk("finishingHours"), toolChangeHours: mk("toolChangeHours"), setupHours: mk("setupHours") },
+    machining: {
+      ...r.machining, bedFaceMm2: r2(sum((p) => p.chosen.bp.machining.bedFaceMm2)), setups: sum((p) => p.chosen.bp.machining.setups),
+      trimLengthMm: r2(sum((p) => p.chosen.bp.machining.trimLengthMm)), trimHours: r4(sum((p) => p.chosen.bp.machining.trimHours)), roughingHours: mk("roughingHours"), finishingHours: mk("finishingHours"), toolChangeHours: mk("toolChangeHours"), setupHours: mk("setupHours") },
     machiningHours: r4(sum((p) => p.chosen.bp.machining.totalHours) * quantity),
     lines: pr.lines, subtotalCents: pr.subtotalCents, marginCents: pr.marginCents, taxCents: pr.taxCents, totalCents: pr.totalCents,
     depositCents: pr.depositCents, balanceCents: pr.balanceCents,

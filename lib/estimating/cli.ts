@@ -9,11 +9,11 @@ import type { CellParams, EstimateResult, MaterialParams, RateCardParams } from 
 
 /**
  * npm run estimate -- FILE [--units mm|in] [--material KEY] [--allowance MM] [--cell KEY]
- *   [--shell-walls N] [--solid] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--tolerance MM] [--bodies 0,2,…] [--json]
+ *   [--shell-walls N] [--solid] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--finish-bed-face] [--trim-lines] [--tolerance MM] [--bodies 0,2,…] [--json]
  *   (--tolerance and --bodies apply to STEP/IGES files)
  * Exit 0 on success, 2 on a bad file or option (one plain line on stderr), 1 on anything else.
  */
-const USAGE = "usage: npm run estimate -- FILE [--units mm|in] [--material KEY] [--allowance MM] [--cell KEY] [--shell-walls N] [--solid] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--tolerance MM] [--bodies 0,2,…] [--json]";
+const USAGE = "usage: npm run estimate -- FILE [--units mm|in] [--material KEY] [--allowance MM] [--cell KEY] [--shell-walls N] [--solid] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--finish-bed-face] [--trim-lines] [--tolerance MM] [--bodies 0,2,…] [--json]";
 
 interface Catalogue { materials: MaterialParams[]; cells: CellParams[]; rateCard: RateCardParams; source: string }
 
@@ -64,14 +64,18 @@ function human(r: EstimateResult, source: string): string {
   L.push("  fit:");
   for (const c of r.fits) L.push(`    ${c.cellName.padEnd(12)} ${c.fits ? "fits" : "does not fit"} (margin ${f(c.marginMm)} mm, build height ${f(c.buildHeightMm)} mm)`);
   if (r.split) L.push(`  split: ${r.split.pieces} pieces along ${r.split.axis} of ${f(r.split.pieceLengthMm)} mm for ${r.split.cell}`);
+  for (const p of r.pieces ?? []) L.push(`    piece ${p.index + 1} (${f(p.fromMm)}–${f(p.toMm)} mm): ${p.cellName}, ${p.printMode}, ${p.layers} layers, ${f(p.printHours + p.dwellHours, 1)} h printing, ${f(p.machiningHours, 1)} h machining, ${money(p.subtotalCents)} before margin`);
+  if (r.joint) L.push(`    joining: ${r.joint.cuts} joint(s), ${f(r.joint.faceAreaMm2 / 1e6, 3)} m² bonded, ${f(r.joint.hours, 2)} h`);
   L.push(`  status: ${r.status === "priced" ? "priced (a printable plan)" : "NEEDS REVIEW by the bureau's engineer (the total is an indicative figure for staff)"}`);
   for (const x of r.reviewReasons) L.push(`    review: ${x.message}`);
   const sh = r.shell;
-  L.push(`  print on ${r.cell} (${money(r.printRateCentsPerH)}/h): ${r.layers} layers of ${r.layerHeightMm} mm, bead ${r.beadWidthMm} mm, ${sh ? `shell of ${sh.walls} walls (${f(sh.wallThicknessMm)} mm), ribs every ${f(sh.ribSpacingMm)} mm, ${sh.skinLayers}-layer skins, tops ${sh.bridging === "direct" ? "bridged directly" : "on support ribs"}` : "solid"}; ${f(r.meanSpeedMmS)} mm/s mean of ${f(r.speedMmS)} programmed`);
+  if (r.drying) L.push(`  drying: ${f(r.drying.hours, 1)} h at ${r.drying.tempC} °C in a ${f(r.drying.dryerKg, 0)} kg hopper from ${r.schedule.dryingStart}; it keeps ${f(r.drying.maxKgPerH, 1)} kg/h dry`);
+  if (r.feed) L.push(`  feed ${f(r.feed.kgPerH, 1)} kg/h, set by the ${r.feed.limitedBy}${r.feed.screwMm ? ` (${r.feed.screwMm} mm screw, ${f(r.feed.extruderKgPerH, 0)} kg/h of this material)` : ""}`);
+  L.push(`  print on ${r.cell} (${money(r.printRateCentsPerH)}/h), ${r.printMode}: ${r.layers} layers of ${r.layerHeightMm} mm, bead ${r.beadWidthMm} mm, ${sh ? `shell of ${sh.walls} walls (${f(sh.wallThicknessMm)} mm), ribs every ${f(sh.ribSpacingMm)} mm, ${sh.skinLayers}-layer skins, tops ${sh.bridging === "direct" ? "bridged directly" : "on support ribs"}` : "solid"}; ${f(r.meanSpeedMmS)} mm/s mean of ${f(r.speedMmS)} programmed`);
   if (r.batch.partsPerBuild > 1) L.push(`    ${r.batch.partsPerBuild} parts side by side per build, ${r.batch.builds} build(s)`);
   L.push(`    ${f(r.printHours, 2)} h printing, ${f(r.dwellHours, 2)} h dwell, ${r.flaggedLayers} layers over the cooling window, ${f(r.coolingHours, 1)} h cooling`);
   L.push(`  material ${r.material.name}: ${f(r.massKg, 1)} kg incl. purge and scrap; machined part ≈ ${f(r.partMassKg, 1)} kg (${f(r.partMassKg / 0.45359237, 1)} lb)`);
-  L.push(`  machining ${f(r.machiningHours, 2)} h (roughing ${f(r.machining.roughingHours, 2)}, finishing ${f(r.machining.finishingHours, 2)} at ${f(r.machining.stepoverMm, 3)} mm stepover)`);
+  L.push(`  machining ${f(r.machiningHours, 2)} h (roughing ${f(r.machining.roughingHours, 2)}, finishing ${f(r.machining.finishingHours, 2)} at ${f(r.machining.stepoverMm, 3)} mm stepover${r.machining.trimHours ? `, trim line ${f(r.machining.trimHours, 2)}` : ""}; ${r.machining.setups ?? 1} set-up(s), bed face ${r.machining.bedFaceFinished === false ? "left as printed" : "finished"})`);
   L.push("  price:");
   for (const l of r.lines) L.push(`    ${l.label.padEnd(48)} ${money(l.amountCents).padStart(14)}`);
   L.push(`    ${"Margin".padEnd(48)} ${money(r.marginCents).padStart(14)}`);
@@ -96,7 +100,7 @@ async function main(): Promise<number> {
       options: {
         units: { type: "string" }, material: { type: "string" }, allowance: { type: "string" }, cell: { type: "string" },
         "shell-walls": { type: "string" }, solid: { type: "boolean" }, orientation: { type: "string" }, quantity: { type: "string" }, "cure-temp": { type: "string" },
-        tolerance: { type: "string" }, bodies: { type: "string" },
+        tolerance: { type: "string" }, bodies: { type: "string" }, "finish-bed-face": { type: "boolean" }, "trim-lines": { type: "boolean" },
         json: { type: "boolean" }, help: { type: "boolean" },
       },
     });
@@ -123,7 +127,7 @@ async function main(): Promise<number> {
         shellWalls: num(v["shell-walls"], "shell-walls") ?? null, orientation: v.orientation as "x" | "y" | "z" | undefined,
         quantity: num(v.quantity, "quantity"), cureTempC: num(v["cure-temp"], "cure-temp"),
         toleranceMm: num(v.tolerance, "tolerance"),
-        bodies: bodiesOf(v.bodies),
+        bodies: bodiesOf(v.bodies), finishBedFace: v["finish-bed-face"], trimLines: v["trim-lines"],
       },
       catalogue: cat, now: new Date(),
     });

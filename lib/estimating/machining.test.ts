@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { planMachining, scallopHeight, stepoverForScallop } from "./machining";
+import { planMachining, scallopHeight, stepoverForScallop, TRIM_FEED_FALLBACK_MM_PER_MIN } from "./machining";
 import { defaultRateCard } from "./defaults";
 
 describe("machining (Machinery's Handbook scallop formula, via checks.md)", () => {
@@ -26,5 +26,30 @@ describe("machining (Machinery's Handbook scallop formula, via checks.md)", () =
   it("roughing = allowance volume ÷ removal rate", () => {
     const m = planMachining(defaultRateCard.roughingRemovalMm3PerMin * 60, 0, defaultRateCard);
     expect(m.roughingHours).toBeCloseTo(1, 12);
+  });
+});
+
+describe("machining as it is done", () => {
+  const card = defaultRateCard;
+  const s = stepoverForScallop(card.cutterRadiusMm, card.targetScallopMm);
+  it("the bed face is left as printed unless asked: its area is not finished and its allowance not roughed", () => {
+    const whole = planMachining(5e7, 3e6, card);
+    const left = planMachining(5e7, 3e6, card, { bedFaceMm2: 1e6, allowanceMm: 6.35 });
+    expect(left.bedFaceFinished).toBe(false);
+    expect(left.setups).toBe(1);
+    // t = A/(s·f): 1 m² less to finish (Machinery's Handbook stepover, checks.md)
+    expect(whole.finishingHours - left.finishingHours).toBeCloseTo(1e6 / (s * card.finishingFeedMmPerMin) / 60, 9);
+    expect(whole.roughingHours - left.roughingHours).toBeCloseTo((1e6 * 6.35) / card.roughingRemovalMm3PerMin / 60, 9);
+  });
+  it("asked to finish both faces: a second set-up, the part flipped", () => {
+    const both = planMachining(5e7, 3e6, card, { bedFaceMm2: 1e6, allowanceMm: 6.35, finishBedFace: true });
+    expect(both.setups).toBe(2);
+    expect(both.setupHours).toBe(2 * card.machiningSetupHours);
+    expect(both.finishingHours).toBeCloseTo(planMachining(5e7, 3e6, card).finishingHours, 9);
+  });
+  it("an open mold's trim line: length ÷ trim feed, plus one tool change", () => {
+    const m = planMachining(0, 1e6, card, { bedFaceMm2: 0, allowanceMm: 6.35, trimLengthMm: 6000 });
+    expect(m.trimHours).toBeCloseTo(6000 / TRIM_FEED_FALLBACK_MM_PER_MIN / 60, 9);
+    expect(m.toolChangeHours).toBeCloseTo(((card.toolChangeCount + 1) * card.toolChangeMinutes) / 60, 9);
   });
 });

@@ -65,7 +65,8 @@ describe("shells", () => {
 
   it("a mold block is a shell by default: far lighter than solid, machined the same (only the allowance is removed)", async () => {
     const shell = await run([1800, 900, 450]);
-    const solid = await run([1800, 900, 450], { printMode: "solid" });
+    // machining depends on the build's bed face (left as printed), so compare the same cell and orientation
+    const solid = await run([1800, 900, 450], { printMode: "solid", cellKey: shell.cell, orientation: shell.orientation });
     expect(shell.printMode).toBe("shell");
     expect(shell.shell).not.toBeNull();
     expect(solid.printMode).toBe("solid");

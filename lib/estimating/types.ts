@@ -132,6 +132,8 @@ export interface RateCardParams {
   targetScallopMm: number;
   toolChangeMinutes: number;
   toolChangeCount: number;
+  /** Feed cutting an open mold's trim line, mm/min (absent: the engine's fallback). */
+  trimFeedMmPerMin?: number;
   machiningSetupHours: number;
   /** Sealing coat on the net surface, per m². */
   sealingCoatCentsPerM2: number;
@@ -314,6 +316,13 @@ export interface EstimateResult {
   partMassKg: number;
   liftingCaution: boolean;
   machining: {
+    /** The face on the bed in the chosen build, mm², left as printed unless asked (older estimates: absent). */
+    bedFaceMm2?: number;
+    bedFaceFinished?: boolean;
+    /** Router set-ups: 2 when the part is flipped to finish its bed face. */
+    setups?: number;
+    trimLengthMm?: number;
+    trimHours?: number;
     roughingHours: number;
     finishingHours: number;
     toolChangeHours: number;

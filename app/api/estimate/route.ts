@@ -25,6 +25,8 @@ const bodySchema = z.object({
       quantity: z.number().int().min(1).max(50).optional(),
       sealingCoat: z.boolean().optional(),
       vacuumTest: z.boolean().optional(),
+      finishBedFace: z.boolean().optional(),
+      trimLines: z.boolean().optional(),
       cureTempC: z.number().min(-50).max(450).optional(),
       partCtePpmPerK: z.number().min(-5).max(100).optional(),
       toleranceMm: z.number().positive().max(10).optional(),

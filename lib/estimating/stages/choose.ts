@@ -1,5 +1,6 @@
 import type { IndexedMesh } from "../indexed";
-import type { MachiningPlan } from "../machining";
+import { steinerVolume } from "../grow";
+import { planMachining, type MachiningPlan } from "../machining";
 import { allowedOrientations, bestOrientation, clearance, fitCells, orientedSize, suggestSplit, verticalFit } from "../orient";
 import type { Pricing } from "../pricing";
 import type { ContinuousSchedule, Plant } from "../schedule";
@@ -42,7 +43,17 @@ export interface SearchInput {
   queue: Record<string, number>;
   now: Date;
   priceOptions: { sealingCoat?: boolean; vacuumTest?: boolean; freightZone?: string | null };
-  machining: MachiningPlan;
+  /** What the client asked machined beyond the net surface: the bed face (a flip), an open mold's trim line. */
+  machiningAsked: { finishBedFace?: boolean; trimLines?: boolean };
+}
+
+/** Machining of a part (its net volume, surface and Steiner M) in one build, as asked. */
+export function machiningOf(s: Pick<SearchInput, "card" | "allowanceMm" | "machiningAsked">, ms: Pick<Measured, "volumeMm3" | "meanCurvatureMm"> & { m: { areaMm2: number } }, sections: GrownSections): MachiningPlan {
+  const nearNet = steinerVolume(ms.volumeMm3, ms.m.areaMm2, ms.meanCurvatureMm, s.allowanceMm);
+  return planMachining(nearNet - ms.volumeMm3, ms.m.areaMm2, s.card, {
+    bedFaceMm2: sections.bedFaceMm2, allowanceMm: s.allowanceMm, finishBedFace: s.machiningAsked.finishBedFace,
+    trimLengthMm: s.machiningAsked.trimLines ? sections.outlineMm : 0,
+  });
 }
 
 export interface Candidate {
@@ -188,7 +199,7 @@ export function chooseStage(s: SearchInput, warnings: EstimateWarning[]): Choice
     return sectionsAt(f, h);
   };
 
-  const part: PartContext = { ms, machiningFor: () => s.machining, now: s.now, queueHours: (c) => s.queue[c.key] ?? 0 };
+  const part: PartContext = { ms, machiningFor: (sec) => machiningOf(s, ms, sec), now: s.now, queueHours: (c) => s.queue[c.key] ?? 0 };
   const evaluate = (cell: CellParams, orientation: Orientation, fits: boolean, sections: GrownSections, beadWidthMm: number, printMode: PrintMode, partsPerBuild: number, vertical = false): Candidate =>
     evaluateCandidate(s, part, cell, orientation, fits, sections, beadWidthMm, printMode, partsPerBuild, vertical);
 

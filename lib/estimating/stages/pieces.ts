@@ -1,10 +1,9 @@
-import { steinerVolume } from "../grow";
-import { planMachining, stepoverForScallop } from "../machining";
+import { stepoverForScallop } from "../machining";
 import { clearance, orientedSize, verticalCellOf } from "../orient";
 import { costLine, totalsOf, type Pricing } from "../pricing";
 import { addWorkingDays, addWorkingHours, nextOpenDay } from "../schedule";
 import type { Axis, CellParams, CostLine, Orientation, RateCardParams, SplitSuggestion } from "../types";
-import { compareCandidates, evaluateCandidate, presetsOf, type Candidate, type PartContext, type SearchInput } from "./choose";
+import { compareCandidates, evaluateCandidate, machiningOf, presetsOf, type Candidate, type PartContext, type SearchInput } from "./choose";
 import type { Measured } from "./measure";
 import { sectionsAt, sliceStage, type GrownSections } from "./slice";
 
@@ -95,8 +94,7 @@ export function planPieces(s: SearchInput, cells: CellParams[], split: SplitSugg
       m: { ...ms.m, areaMm2: area, volumeMm3: volume, bounds: { min, max } }, volumeMm3: volume, meanCurvatureMm: M,
       netSize, grownSize: netSize.map((v) => v + 2 * t) as [number, number, number],
     };
-    const mach = planMachining(steinerVolume(volume, area, M, t) - volume, area, card);
-    const part: PartContext = { ms: pms, machiningFor: () => mach, now: s.now, queueHours: (c) => s.queue[c.key] ?? 0 };
+    const part: PartContext = { ms: pms, machiningFor: (sec) => machiningOf(s, pms, sec), now: s.now, queueHours: (c) => s.queue[c.key] ?? 0 };
     const all: Candidate[] = [];
     for (const cell of cells) {
       for (const [c, vertical] of [[cell, false], [verticalCellOf(cell), true]] as [CellParams | null, boolean][]) {

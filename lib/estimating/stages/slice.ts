@@ -22,6 +22,10 @@ export interface GrownSections {
   segments: Uint32Array;
   /** Σ grown areas × layer height, before rescaling to the Steiner volume. */
   slicedVolumeMm3: number;
+  /** Net section area of the first layer inside the part: the face on the bed (exact for a flat bottom), mm². */
+  bedFaceMm2: number;
+  /** Longest net contour of any layer: an open mold's edge, where its trim line runs, mm. */
+  outlineMm: number;
   /** A piece's slab (sliced with a range): its net volume and side area from the sections, and its end sections. */
   slab?: PieceSlab;
 }
@@ -75,6 +79,9 @@ export function sliceStage(mesh: IndexedMesh, ms: Measured, up: Axis, fineHeight
   }
   let slicedVolume = 0;
   for (let k = 0; k < layerCount; k++) slicedVolume += grownArea[k]! * h;
+  let outline = 0;
+  for (let k = Math.max(0, firstIn); k >= 0 && k <= lastIn; k++) if (sec.perimeter[k]! > outline) outline = sec.perimeter[k]!;
+  const bedFace = firstIn >= 0 ? sec.area[firstIn]! : 0;
   let slab: PieceSlab | undefined;
   if (range) {
     let v = 0, side = 0;
@@ -85,7 +92,7 @@ export function sliceStage(mesh: IndexedMesh, ms: Measured, up: Axis, fineHeight
       highAreaMm2: lastIn >= 0 ? sec.area[lastIn]! : 0, highPerimeterMm: lastIn >= 0 ? sec.perimeter[lastIn]! : 0,
     };
   }
-  return { z0, layerHeightMm: h, layerCount, heightMm: height, areaMm2: grownArea, perimeterMm: grownPer, segments: segs, slicedVolumeMm3: slicedVolume, ...(slab ? { slab } : {}) };
+  return { z0, layerHeightMm: h, layerCount, heightMm: height, areaMm2: grownArea, perimeterMm: grownPer, segments: segs, slicedVolumeMm3: slicedVolume, bedFaceMm2: bedFace, outlineMm: outline, ...(slab ? { slab } : {}) };
 }
 
 /** The fine sections sampled at a coarser layer height: each layer takes the fine section at its mid-height. */
@@ -101,5 +108,5 @@ export function sectionsAt(fine: GrownSections, layerHeightMm: number): GrownSec
     area[k] = fine.areaMm2[j]!; per[k] = fine.perimeterMm[j]!; seg[k] = fine.segments[j]!;
     vol += area[k]! * h;
   }
-  return { z0: fine.z0, layerHeightMm: h, layerCount: n, heightMm: height, areaMm2: area, perimeterMm: per, segments: seg, slicedVolumeMm3: vol };
+  return { z0: fine.z0, layerHeightMm: h, layerCount: n, heightMm: height, areaMm2: area, perimeterMm: per, segments: seg, slicedVolumeMm3: vol, bedFaceMm2: fine.bedFaceMm2, outlineMm: fine.outlineMm };
 }
