@@ -126,10 +126,14 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
   const queueHours = input.queue?.[cell.key] ?? 0;
   const validUntil = new Date(input.now.getTime() + card.quoteValidityDays * 86_400_000).toISOString().slice(0, 10);
 
-  warnings.push(...materialWarnings(material, { cureTempC: o.cureTempC, partCtePpmPerK: o.partCtePpmPerK }));
+  // expansion in the chosen build: across the beads along the build direction, along them in the layers
+  const upIndex = { x: 0, y: 1, z: 2 }[c.orientation.up];
+  const spans = { acrossBeadMm: netSize[upIndex]!, alongBeadMm: Math.max(...netSize.filter((_, i) => i !== upIndex)), vertical: c.vertical };
+  warnings.push(...materialWarnings(material, { cureTempC: o.cureTempC, partCtePpmPerK: o.partCtePpmPerK }, spans, cat.materials.filter((x) => cells.some((cl) => canMelt(cl, x)))));
   const liftingCaution = partMassKg > card.liftingCautionKg;
   if (liftingCaution) {
-    cautions.push(`Heavy part: about ${r2(partMassKg)} kg (${r2(partMassKg / 0.45359237)} lb) machined, more as printed. Lift it with equipment rated for the load and follow local codes and licensed rigging practice.`);
+    // what is lifted at delivery is the machined part; the print weighs more until machined
+    cautions.push(`Heavy part: about ${r2(partMassKg)} kg (${r2(partMassKg / 0.45359237)} lb) machined, about ${r2(depositedKg / quantity)} kg as printed. Lift it with equipment rated for the load and follow local codes and licensed rigging practice.`);
   }
   cautions.push("Printed parts stay hot for hours after printing, and machining chips are sharp: wear gloves and eye protection when handling at pickup.");
   if (o.cureTempC !== undefined && o.cureTempC > material.maxServiceTempC) {

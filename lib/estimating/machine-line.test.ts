@@ -42,3 +42,35 @@ describe("machining in the plan", () => {
     expect(Date.parse(b.schedule.machiningEnd)).toBeGreaterThan(Date.parse(a.schedule.machiningEnd));
   });
 });
+
+describe("warnings that follow the plan", () => {
+  it("expansion across the beads in the chosen build: Δα·ΔT·L over the span along the build direction (linear expansion)", async () => {
+    // an 11 m beam built vertically: its length runs across the beads. ABS/CF 80 ppm/K across against
+    // a carbon laminate's 3 (memory, checks.md), 20 → 120 °C: 77e-6 × 100 × 11000 ≈ 84.7 mm
+    const beam = await run([11_000, 400, 300], { partCtePpmPerK: 3, cureTempC: 120 });
+    const w = beam.warnings.find((x) => x.code === "material-cte-across")!;
+    expect(w.message).toMatch(/vertically/);
+    expect(w.message).toMatch(/84\.7 mm/);
+    // a 60 mm plate built flat: 77e-6 × 100 × 60 = 0.46 mm, under the 0.5 mm the bureau accepts
+    const plate = await run([1200, 800, 60], { partCtePpmPerK: 3, cureTempC: 120 });
+    expect(plate.warnings.map((x) => x.code)).not.toContain("material-cte-across");
+    // along the beads, as before: |10 − 3| is inside the 15 ppm/K threshold
+    expect(plate.warnings.map((x) => x.code)).not.toContain("material-cte");
+  });
+
+  it("a cure above the material's rating names the catalogue's materials rated for it", async () => {
+    const r = await run([600, 400, 200], { cureTempC: 177 });
+    const w = r.warnings.find((x) => x.code === "material-temperature")!;
+    // service limits: PPS/CF 180 °C, PEI/CF 190 °C, PESU/CF 195 °C (the catalogue's)
+    for (const name of ["PPS/CF", "PEI/CF", "PESU/CF"]) expect(w.message).toContain(name);
+    expect(w.message).not.toContain("PC/CF");
+  });
+
+  it("the lifting caution is from the machined mass, with the printed mass beside it", async () => {
+    const r = await run([1200, 800, 300]);
+    expect(r.liftingCaution).toBe(r.partMassKg > defaultRateCard.liftingCautionKg);
+    const c = r.cautions.find((x) => x.startsWith("Heavy part"))!;
+    expect(c).toContain(`${Math.round(r.partMassKg * 100) / 100} kg`);
+    expect(c).toMatch(/as printed/);
+  });
+});
