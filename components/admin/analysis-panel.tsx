@@ -11,6 +11,7 @@ import type {
 import { formatCents } from "@/lib/money";
 import { hoursText } from "./format";
 import { RetryAnalysisButton } from "./retry-analysis-button";
+import { BuildDetails, buildModeText } from "../estimate/build-details";
 
 type Part = SalesRequest["parts"][number];
 const n = (v: unknown) =>
@@ -145,7 +146,8 @@ export function AnalysisPanel({ part, materialName }: { part: Part; materialName
             />
           </dl>
           <p className="text-sm text-ink-700" data-testid="analysis-build">
-            {r!.printMode === "solid" || (!shell && r!.printMode === undefined)
+            {typeof r!.printMode === "string" && r!.printMode.startsWith("vertical-") ? `${buildModeText(r!.printMode)}. ` : ""}
+            {r!.printMode === "solid" || r!.printMode === "vertical-solid" || (!shell && r!.printMode === undefined)
               ? "Solid print"
               : shell
                 ? `Shell: ${shell.walls} walls (${shell.wallThicknessMm} mm${shell.wallsFromAllowance ? ", from the allowance" : ", set by hand"}), ribs every ${shell.ribSpacingMm} mm, ${shell.skinLayers}-layer skins, tops ${shell.bridging === "direct" ? "bridged directly" : "on support ribs"}`
@@ -160,6 +162,7 @@ export function AnalysisPanel({ part, materialName }: { part: Part; materialName
               shifts)
             </p>
           ) : null}
+          <BuildDetails r={r as Parameters<typeof BuildDetails>[0]["r"]} priceWithheld={false} staff />
           {alternatives.length ? (
             <div tabIndex={0} className="focus-visible:outline-2 focus-visible:outline-ink-600 overflow-x-auto">
               <table

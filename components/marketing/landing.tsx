@@ -104,7 +104,10 @@ export function Landing({ cells: cellRows, materials: materialRows }: LandingCat
                   </div>
                   <p className="mt-1 text-sm text-ink-500">
                     about {c.params.extruderOutputKgPerH} kg/h · beads {Math.min(...c.params.beadWidthsMm)}–{Math.max(...c.params.beadWidthsMm)} mm
-                    {c.params.canPrintVertical ? " · prints vertically for long, thin parts" : ""}
+                    {c.params.screwMm ? ` · ${c.params.screwMm} mm screw` : ""}
+                    {c.params.verticalPrint
+                      ? ` · also builds vertically, parts up to ${metres(c.params.verticalPrint.longAxisMm)} m long in one piece`
+                      : c.params.canPrintVertical ? " · prints vertically for long, thin parts" : ""}
                   </p>
                 </li>
               ))}

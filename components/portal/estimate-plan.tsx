@@ -1,6 +1,7 @@
 import type { EstimateResult } from "@/lib/estimating/types";
 import { formatCents } from "@/lib/money";
 import { formatHours, formatLength, type UnitsPref } from "@/lib/units";
+import { BuildDetails, buildModeText } from "../estimate/build-details";
 
 const when = (iso: string, timeZone: string) =>
   new Date(iso).toLocaleString("en-GB", { weekday: "short", day: "numeric", month: "short", hour: "2-digit", minute: "2-digit", timeZone: timeZone || "UTC", timeZoneName: "short" });
@@ -23,6 +24,7 @@ export function EstimatePlan({ r, units, priceWithheld }: { r: EstimateResult; u
         <div>
           <dt className="text-xs text-ink-500">Build</dt>
           <dd className="text-ink-800" data-testid="plan-mode">
+            {r.printMode?.startsWith("vertical-") ? `${buildModeText(r.printMode)}. ` : ""}
             {sh
               ? `Shell: ${sh.walls} walls (${formatLength(sh.wallThicknessMm, units, 0)}), internal ribs every ${formatLength(sh.ribSpacingMm, units, 0)}, closed top and bottom skins`
               : "Solid print"}
@@ -37,6 +39,7 @@ export function EstimatePlan({ r, units, priceWithheld }: { r: EstimateResult; u
           </div>
         ) : null}
       </dl>
+      <BuildDetails r={r} priceWithheld={priceWithheld} />
       {others.length ? (
         <div>
           <p className="text-xs text-ink-500">Other cells we compared</p>
