@@ -251,7 +251,13 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
     remedies: choice.remedies,
     candidatesPlanned: choice.candidatesPlanned,
   };
-  return pieces ? asPieces(result, pieces, card, material, quantity) : result;
+  if (!pieces) return result;
+  // the expansion across the beads follows the pieces' build (each along its own length)
+  const p0 = pieces.pieces[0]!, up0 = { x: 0, y: 1, z: 2 }[p0.chosen.orientation.up];
+  const pieceSpans = { acrossBeadMm: p0.ms.netSize[up0]!, alongBeadMm: Math.max(...p0.ms.netSize.filter((_, i) => i !== up0)), vertical: p0.chosen.vertical };
+  const across = materialWarnings(material, { cureTempC: o.cureTempC, partCtePpmPerK: o.partCtePpmPerK }, pieceSpans).filter((w) => w.code === "material-cte-across");
+  const piecewise = { ...result, warnings: [...result.warnings.filter((w) => w.code !== "material-cte-across"), ...across] };
+  return asPieces(piecewise, pieces, card, material, quantity);
 }
 
 const dryingOut = (d: BuildPlan["feed"]["drying"]) => (d ? { hours: d.hours, tempC: d.tempC, dryerKg: d.dryerKg, maxKgPerH: r2(d.maxKgPerH) } : null);
@@ -324,6 +330,8 @@ function asPieces(r: EstimateResult, pp: PiecesPlan, card: RateCardParams, mater
     batch: { partsPerBuild: 1, builds: sum((p) => p.chosen.bp.builds) },
     status: reviewReasons.length ? "needs-review" : "priced", reviewReasons, warnings, cautions,
     remedies: r.remedies.map((x) => (x.code === "split" ? { ...x, result: `each piece planned and priced on its own (${out.map((p) => p.cellName).join(", ")}), with the joining` } : x)),
+    // the whole-part candidates do not fit; the pieces are the plan
+    alternatives: [],
     pieces: out, joint: { cuts: pp.joint.cuts, faceAreaMm2: r2(pp.joint.faceAreaMm2), contourMm: r2(pp.joint.contourMm), hours: r4(pp.joint.hours) },
   };
 }

@@ -82,3 +82,12 @@ describe("a split part priced as pieces", () => {
     expect(clientEstimate(r).pieces![0]!.lines.length).toBeGreaterThan(0);
   });
 });
+
+describe("warnings of a part priced as pieces", () => {
+  it("the expansion across the beads follows the pieces' build: each 7 m piece is built along its length", async () => {
+    const r = await run([14_000, 400, 300], { partCtePpmPerK: 3, cureTempC: 120 });
+    // 77e-6 × 100 K × 7000 mm ≈ 53.9 mm (linear expansion; ABS/CF 80 ppm/K across, memory, checks.md)
+    expect(r.warnings.find((w) => w.code === "material-cte-across")!.message).toMatch(/7000 mm.*53\.9 mm/);
+    expect(r.alternatives).toEqual([]);
+  });
+});
