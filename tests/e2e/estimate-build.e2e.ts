@@ -37,6 +37,9 @@ describe("how the part is built, on the estimate screens", () => {
     const { context, page } = await newPage(browser, WIDE);
     await signIn(page, stack.baseUrl, "engineer@caldrith.example", DEMO_PASSWORDS.client);
     await page.goto(`${stack.baseUrl}/portal/requests/${await requestId("Spar cap tool")}`);
+    await page.getByRole("button", { name: "Continue" }).click();
+    // the seeded spar's units were guessed: the client confirms them before the review
+    await page.getByLabel(/Confirm millimetres|Units confirmed/).first().check();
     await page.getByRole("button", { name: "3. Review & submit" }).click();
     const pieces = page.getByTestId("build-pieces");
     await expect(pieces.textContent({ timeout: 60_000 })).resolves.toMatch(/2 pieces/);
