@@ -11,15 +11,16 @@ const now = new Date("2027-03-01T09:00:00Z");
 const est = (size: [number, number, number], materialKey = "abs-cf") => analyse({ bytes: binaryStl(box(...size)), fileName: "p.stl", options: { materialKey }, catalogue, now });
 
 describe("the build on the estimate screens", () => {
-  it("a 14 m beam: its pieces and the joining; the client's withheld view shows no piece prices", async () => {
+  it("a 14 m beam: its pieces and the joining; piece prices (before margin) for staff only", async () => {
     const r = await est([14_000, 400, 300]);
-    const html = renderToStaticMarkup(<BuildDetails r={r} priceWithheld={false} />);
+    expect(renderToStaticMarkup(<BuildDetails r={clientEstimate(r)} priceWithheld={false} />)).not.toContain("Before margin");
+    const html = renderToStaticMarkup(<BuildDetails r={r} priceWithheld={false} staff />);
     expect(html).toContain("2 pieces");
     expect(html).toContain("Long Axis");
     expect(html).toContain("Joining");
     expect(html).toContain("Before margin");
     const hidden = clientEstimate({ ...r, status: "needs-review" });
-    expect(renderToStaticMarkup(<BuildDetails r={hidden} priceWithheld />)).not.toContain("Before margin");
+    expect(renderToStaticMarkup(<BuildDetails r={hidden} priceWithheld staff />)).not.toContain("Before margin");
   });
 
   it("an 11 m beam built vertically; a PA/CF part dried first, its feed held by the dryer", async () => {

@@ -22,7 +22,7 @@ type Shown = Pick<EstimateResult, "printMode" | "drying" | "feed" | "pieces" | "
 /**
  * How the part is built beyond cell and fill: vertical printing of a long part, pellet drying
  * before the first layer and the feed it allows, machining set-ups, and a split part's pieces and
- * joint. Shown to the client (prices hidden when withheld) and to staff. Estimates made before these
+ * joint. Shown to the client (no piece prices: those are before margin) and to staff (with them). Estimates made before these
  * figures existed show none of it.
  */
 export function BuildDetails({ r, priceWithheld, staff = false }: { r: Partial<Shown>; priceWithheld: boolean; staff?: boolean }) {
@@ -65,7 +65,7 @@ export function BuildDetails({ r, priceWithheld, staff = false }: { r: Partial<S
                   <th className="py-1 pr-3 font-medium">Cell and build</th>
                   <th className="py-1 pr-3 text-right font-medium">Printing</th>
                   <th className="py-1 pr-3 text-right font-medium">Machining</th>
-                  {priceWithheld ? null : <th className="py-1 text-right font-medium">Before margin</th>}
+                  {!staff || priceWithheld ? null : <th className="py-1 text-right font-medium">Before margin</th>}
                 </tr>
               </thead>
               <tbody className="divide-y divide-paper-200">
@@ -75,7 +75,7 @@ export function BuildDetails({ r, priceWithheld, staff = false }: { r: Partial<S
                     <td className="py-1 pr-3">{p.cellName}, {buildModeText(p.printMode).replace("Built ", "").toLowerCase()}</td>
                     <td className="figures py-1 pr-3 text-right">{hours(p.printHours + p.dwellHours)}</td>
                     <td className="figures py-1 pr-3 text-right">{hours(p.machiningHours)}</td>
-                    {priceWithheld ? null : <td className="figures py-1 text-right">{formatCents(p.subtotalCents)}</td>}
+                    {!staff || priceWithheld ? null : <td className="figures py-1 text-right">{formatCents(p.subtotalCents)}</td>}
                   </tr>
                 ))}
                 {r.joint ? (
@@ -84,7 +84,7 @@ export function BuildDetails({ r, priceWithheld, staff = false }: { r: Partial<S
                     <td className="py-1 pr-3">bonded, machined across</td>
                     <td className="py-1 pr-3" />
                     <td className="figures py-1 pr-3 text-right">{hours(r.joint.hours)}</td>
-                    {priceWithheld ? null : <td className="py-1" />}
+                    {!staff || priceWithheld ? null : <td className="py-1" />}
                   </tr>
                 ) : null}
               </tbody>

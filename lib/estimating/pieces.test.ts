@@ -75,11 +75,13 @@ describe("a split part priced as pieces", () => {
     expect(r.schedule.printEnd).toBe(b!.schedule.printEnd);
   });
 
-  it("a needs-review estimate withholds the pieces' prices from the client", async () => {
+  it("the client sees each piece's build and hours, never its own lines (before margin)", async () => {
     const r = await run([14_000, 400, 300]);
-    const withheld = clientEstimate({ ...r, status: "needs-review" });
-    expect(withheld.pieces!.every((p) => p.lines.length === 0 && p.subtotalCents === 0)).toBe(true);
-    expect(clientEstimate(r).pieces![0]!.lines.length).toBeGreaterThan(0);
+    for (const view of [clientEstimate(r), clientEstimate({ ...r, status: "needs-review" })]) {
+      expect(view.pieces!.every((p) => p.lines.length === 0 && p.subtotalCents === 0)).toBe(true);
+      expect(view.pieces!.map((p) => p.printHours)).toEqual(r.pieces!.map((p) => p.printHours));
+    }
+    expect(r.pieces![0]!.lines.length).toBeGreaterThan(0);
   });
 });
 
