@@ -3,6 +3,7 @@ import { getCurrentRateCard, listCurrentCells, listCurrentMaterials } from "@/db
 import { listPartsWithAnalysis } from "@/db/queries/parts";
 import type { Request } from "@/db/schema";
 import { defaultRateCard } from "@/lib/estimating/defaults";
+import { verticalCellOf } from "@/lib/estimating/orient";
 import { cToF } from "@/lib/units";
 import type { DraftInput } from "@/lib/validation/request";
 import type { CatalogueForForm, PartFileState } from "./types";
@@ -12,7 +13,7 @@ export async function loadFormCatalogue(db: Db, unitsPref: "mm" | "in"): Promise
   const [materials, cells, card] = await Promise.all([listCurrentMaterials(db), listCurrentCells(db), getCurrentRateCard(db)]);
   return {
     materials: materials.map((m) => m.params),
-    cells: cells.map((c) => ({ key: c.key, name: c.params.name, envelopeMm: c.params.envelopeMm })),
+    cells: cells.map((c) => ({ key: c.key, name: c.params.name, envelopeMm: c.params.envelopeMm, verticalEnvelopeMm: verticalCellOf(c.params)?.envelopeMm ?? null })),
     defaultAllowanceMm: (card?.params ?? defaultRateCard).defaultAllowanceMm,
     unitsPref,
   };

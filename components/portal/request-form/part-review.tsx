@@ -25,12 +25,14 @@ export function PartReview({
   result: EstimateResult;
   fileUnits: "mm" | "in";
   displayUnits: UnitsPref;
-  cells: { key: string; name: string; envelopeMm: { x: number; y: number; z: number } }[];
+  cells: { key: string; name: string; envelopeMm: { x: number; y: number; z: number }; verticalEnvelopeMm?: { x: number; y: number; z: number } | null }[];
   cureTempC: number | null;
   /** With several parts on one page, each 3D preview loads only when asked for (each is a WebGL scene and a mesh download). */
   isPreviewOnDemand?: boolean;
 }) {
   const cell = cells.find((c) => c.key === result.cell) ?? null;
+  // a vertical build stands the part along the cell's long axis, inside its cross travel
+  const vertical = Boolean(result.printMode?.startsWith("vertical-") && cell?.verticalEnvelopeMm);
   const [showPreview, setShowPreview] = useState(!isPreviewOnDemand);
   return (
     <Card className="space-y-5" data-testid="part-review">
@@ -41,8 +43,8 @@ export function PartReview({
           fileUnits={fileUnits}
           displayUnits={displayUnits}
           orientation={result.orientation}
-          envelopeMm={cell?.envelopeMm ?? null}
-          cellName={cell?.name ?? null}
+          envelopeMm={(vertical ? cell?.verticalEnvelopeMm : cell?.envelopeMm) ?? null}
+          cellName={cell ? (vertical ? `${cell.name}, vertical build,` : cell.name) : null}
           allowanceMm={result.allowanceMm}
         />
       ) : (

@@ -2,7 +2,7 @@ import type { MaterialParams } from "@/lib/estimating/types";
 
 export interface CatalogueForForm {
   materials: MaterialParams[];
-  cells: { key: string; name: string; envelopeMm: { x: number; y: number; z: number } }[];
+  cells: { key: string; name: string; envelopeMm: { x: number; y: number; z: number }; verticalEnvelopeMm?: { x: number; y: number; z: number } | null }[];
   defaultAllowanceMm: number;
   unitsPref: "mm" | "in";
 }
