@@ -100,12 +100,13 @@ export async function prepareFaultData(dbUrl: string, opts: { stageOrders: numbe
   const seeded = createClient({ url: dbUrl, timeout: 10_000 });
   const have = Number((await seeded.execute("SELECT count(*) AS n FROM orders")).rows[0]?.n ?? 0);
   seeded.close();
-  await growOrders(dbUrl, have + opts.stageOrders + opts.payOrders);
+  // Twice the orders to pay are grown: some copies are orders on account, which take no deposit.
+  await growOrders(dbUrl, have + opts.stageOrders + 2 * opts.payOrders);
   const db = createClient({ url: dbUrl, timeout: 10_000 });
   try {
-    const grown = (await db.execute("SELECT r.id AS request_id, o.id AS order_id FROM requests r JOIN orders o ON o.request_id = r.id WHERE r.reference LIKE 'LW-H%' ORDER BY r.reference")).rows;
+    const grown = (await db.execute("SELECT r.id AS request_id, o.id AS order_id, o.deposit_cents FROM requests r JOIN orders o ON o.request_id = r.id WHERE r.reference LIKE 'LW-H%' ORDER BY r.reference")).rows;
     const stage = grown.slice(0, opts.stageOrders);
-    const pay = grown.slice(opts.stageOrders, opts.stageOrders + opts.payOrders);
+    const pay = grown.slice(opts.stageOrders).filter((g) => Number(g.deposit_cents) > 0).slice(0, opts.payOrders);
     for (const g of stage) {
       await db.execute({ sql: "UPDATE requests SET stage = 'printing', held_from_stage = NULL WHERE id = ?", args: [String(g.request_id)] });
       await db.execute({ sql: "UPDATE stage_events SET to_stage = 'printing', note = 'seeded' WHERE request_id = ?", args: [String(g.request_id)] });
@@ -187,12 +188,13 @@ async function fakeEvents(stack: HardStack) {
 }
 
 /**
- * Deposits waiting to be paid on the grown orders at `accepted`: a pending payment row and its
+ * Deposits waiting to be paid on the grown orders at `accepted` that take one (an order on account
+ * has none): a pending payment row and its
  * checkout session on the payment fake for each (at most `count`); returns the sessions' ids.
  */
 export async function pendingDeposits(stack: HardStack, db: Client, count: number, label: string): Promise<string[]> {
   const stripe = stripeFor(stack);
-  const targets = (await db.execute("SELECT o.id AS order_id, o.org_id, o.deposit_cents, o.currency FROM orders o JOIN requests r ON r.id = o.request_id WHERE r.stage = 'accepted' AND r.reference LIKE 'LW-H%' ORDER BY r.reference LIMIT ?", [count])).rows;
+  const targets = (await db.execute("SELECT o.id AS order_id, o.org_id, o.deposit_cents, o.currency FROM orders o JOIN requests r ON r.id = o.request_id WHERE r.stage = 'accepted' AND r.reference LIKE 'LW-H%' AND o.deposit_cents > 0 ORDER BY r.reference LIMIT ?", [count])).rows;
   const sessions: string[] = [];
   for (const t of targets) {
     const paymentId = crypto.randomUUID();
