@@ -5,7 +5,8 @@
  * Prints requests/s, p50/p99 latency and errors per target. Targets (ours): zero errors and
  * p99 < 100 ms for the list APIs and < 300 ms for the page render; the estimator answers 503 + Retry-After when its queue is full
  * and the others keep their latency. Then one firm floods the estimator while a second firm asks
- * for one small estimate: it must be served within a minute (firms are served in turn).
+ * for one small estimate: it must be served within a minute (firms are served in turn). Last, the
+ * servers' logs must hold no line reporting a locked database.
  *
  * LOAD_DURATION (s, default 30), LOAD_CONNECTIONS (default 50), LOAD_ORDERS (default 10000),
  * LOAD_DIST_DIR (default .next-hard; built when missing).
@@ -22,6 +23,7 @@ import { growOrders } from "./grow-orders";
 import { childPids, startHardStack } from "./hard-stack";
 import { describeWeight, pageWeight } from "./page-weight";
 import { Session } from "./http-client";
+import { busyLines } from "./stack";
 
 const DURATION = Number(process.env.LOAD_DURATION ?? 30);
 const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 50);
@@ -236,7 +238,10 @@ async function main() {
     const pagesOk = pages.every((l) => l.errors === 0 && l["p99 ms"] < 300);
     console.log(`list APIs: ${listsOk ? "zero errors and p99 < 100 ms" : "TARGET MISSED (errors or p99 ≥ 100 ms)"}`);
     console.log(`page render: ${pagesOk ? "zero errors and p99 < 300 ms" : "TARGET MISSED (errors or p99 ≥ 300 ms)"}`);
-    const ok = listsOk && pagesOk;
+    // Every server process's and the fakes' output, for a write that met SQLite's lock.
+    const busy = [stack.app(), stack.fakes].flatMap((p) => busyLines(p));
+    console.log(`locked-database lines in the servers' logs: ${busy.length}${busy.length ? ` (first: ${busy[0]!.slice(0, 200)})` : " (target 0, met)"}`);
+    const ok = listsOk && pagesOk && busy.length === 0;
     process.exitCode = ok ? 0 : 1;
   } finally {
     await stack.stop();
