@@ -240,7 +240,7 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
         status: "done",
         progress: 1,
         options: optionsOf(r),
-        result: result as unknown as Record<string, unknown>,
+        result,
         rateCardId: rateCard!.id,
         createdAt: created,
         finishedAt: created,

@@ -4,6 +4,7 @@ import type { Db } from "../client";
 import type { Stage } from "../schema/common";
 import { analyses, changeCounters, documents, fileRevisions, uploads, orders, organisations, parts, payments, requests, scheduleBlocks, stageEvents, users } from "../schema";
 import type { Tx } from "./audit";
+import type { EstimateResult } from "../../lib/estimating/types";
 
 /** One board card: what the card shows, nothing more. */
 const boardCard = {
@@ -87,7 +88,7 @@ export async function partsWithEstimates(db: Db | Tx, requestId: string) {
         .where(and(inArray(analyses.revisionId, revIds), eq(analyses.status, "done")))
         .orderBy(desc(analyses.createdAt))
     : [];
-  const latest = new Map<string, Record<string, unknown>>();
+  const latest = new Map<string, EstimateResult>();
   for (const a of done) if (!latest.has(a.revisionId) && a.result) latest.set(a.revisionId, a.result);
   return rows.map((r) => ({ ...r, estimate: r.revisionId ? (latest.get(r.revisionId) ?? null) : null }));
 }

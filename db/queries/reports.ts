@@ -1,12 +1,13 @@
 import "server-only";
 import { errorStats } from "../../lib/quoting/stats";
+import type { EstimateResult } from "../../lib/estimating/types";
 import type { Db } from "../client";
 import { listOrdersWithActuals, partsWithEstimates } from "./orders";
 
 const num = (v: unknown) => (typeof v === "number" && Number.isFinite(v) ? v : 0);
 
 /** The estimate's figures for a set of parts: print (deposition + dwell), kg and machining hours, × quantity. */
-export function estimateTotals(parts: { quantity: number; estimate: Record<string, unknown> | null }[]) {
+export function estimateTotals(parts: { quantity: number; estimate: Partial<Pick<EstimateResult, "printHours" | "dwellHours" | "massKg" | "machiningHours">> | null }[]) {
   let printHours = 0, massKg = 0, machiningHours = 0, complete = true;
   for (const p of parts) {
     if (!p.estimate) {
@@ -30,7 +31,7 @@ export async function actualVsEstimate(db: Db) {
     const parts = await partsWithEstimates(db, r.requestId);
     const est = estimateTotals(parts);
     // By the material's name as the estimate recorded it (the catalogue key when there is none).
-    const material = [...new Set(parts.map((p) => (p.estimate?.material as { name?: string } | undefined)?.name ?? p.materialKey))].join(" + ");
+    const material = [...new Set(parts.map((p) => p.estimate?.material?.name ?? p.materialKey))].join(" + ");
     perOrder.push({ ...r, material, estimate: est });
     const bucket = byMaterial.get(material) ?? { print: [], kg: [], machining: [] };
     if (r.actualPrintHours != null) bucket.print.push({ estimate: est.printHours, actual: r.actualPrintHours });

@@ -1,6 +1,7 @@
 import { index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
 import { users } from "./auth";
 import { createdAt, id, STAGES, ts } from "./common";
+import type { EstimateResult } from "../../lib/estimating/types";
 import { organisations } from "./organisations";
 
 export const CURE_PROCESSES = ["room", "oven", "autoclave"] as const;
@@ -141,7 +142,7 @@ export const analyses = sqliteTable(
     stageLabel: text("stage_label"),
     options: text("options", { mode: "json" }).$type<Record<string, unknown>>().notNull(),
     /** EstimateResult of lib/estimating, as JSON. */
-    result: text("result", { mode: "json" }).$type<Record<string, unknown>>(),
+    result: text("result", { mode: "json" }).$type<EstimateResult>(),
     errorCode: text("error_code"),
     errorMessage: text("error_message"),
     rateCardId: text("rate_card_id"),

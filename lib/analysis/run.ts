@@ -180,7 +180,7 @@ async function runOnce(db: Db, analysisId: string, deps: RunDeps): Promise<Outco
       status: "done",
       progress: 1,
       stageLabel: "Done",
-      result: estimate as unknown as Record<string, unknown>,
+      result: estimate,
       finishedAt: now(),
       leaseUntil: null,
     });

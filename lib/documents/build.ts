@@ -7,7 +7,6 @@ import type { Tx } from "../../db/queries/audit";
 import { getIssuedDocumentBySource, getTermsVersion } from "../../db/queries/issued-documents";
 import { listPartsWithAnalysis } from "../../db/queries/parts";
 import { orders, organisations, payments, quoteLines, quotes, refunds, requests } from "../../db/schema";
-import type { EstimateResult } from "../estimating/types";
 import { zoneFor } from "../estimating/freight";
 import { addressLines } from "../validation/address";
 import { getBillingAddress, getDefaultShipTo } from "../../db/queries/addresses";
@@ -58,7 +57,7 @@ async function cautionsFor(q: Q, requestId: string): Promise<{ cautions: string[
   const parts = await listPartsWithAnalysis(q, requestId);
   const seen = new Set<string>();
   for (const p of parts) {
-    const r = p.analysis?.status === "done" ? (p.analysis.result as unknown as EstimateResult | null) : null;
+    const r = p.analysis?.status === "done" ? p.analysis.result : null;
     for (const c of r?.cautions ?? []) seen.add(`${parts.length > 1 ? `${p.part.name}: ` : ""}${c}`);
   }
   return { cautions: [...seen, GENERAL_CAUTION], parts };
@@ -244,7 +243,7 @@ export async function buildPackingListData(q: Q, orderId: string, now: Date, uni
   const { order, request, shipTo, client } = await orderContext(q, orderId);
   const { cautions, parts } = await cautionsFor(q, request.id);
   const items = parts.map(({ part, revision, analysis }) => {
-    const r = analysis?.status === "done" ? (analysis.result as unknown as EstimateResult | null) : null;
+    const r = analysis?.status === "done" ? analysis.result : null;
     return {
       part: part.name,
       quantity: part.quantity,

@@ -7,7 +7,6 @@ import { listPartsWithAnalysis } from "../../db/queries/parts";
 import { getValidExemption } from "../../db/queries/tax-exemptions";
 import { quoteLines, type Address, type Quote, type TaxExemption } from "../../db/schema";
 import { zoneFor, type Crate, type FreightRules, type FreightZone } from "../estimating/freight";
-import type { EstimateResult } from "../estimating/types";
 import { orderFiguresFor, type OrderFigures } from "../quoting/acceptance";
 
 export interface ShipToOption {
@@ -41,7 +40,7 @@ export async function acceptanceContext(q: Db | Tx, input: { quote: Quote; orgId
   const rules = card?.params.freight ?? null;
   const crates = new Map<string, Crate>();
   for (const p of parts) {
-    const r = p.analysis?.status === "done" ? (p.analysis.result as unknown as EstimateResult | null) : null;
+    const r = p.analysis?.status === "done" ? p.analysis.result : null;
     if (r?.crate) crates.set(p.part.id, r.crate);
   }
   const rates = { marginBp: quote.marginBp, taxBp: quote.taxBp, depositBp: quote.depositBp };

@@ -80,7 +80,7 @@ describe("quotes", () => {
     as("sales");
     const requestId = await requestIn("submitted");
     const s = (await getRequestForSales(db, requestId))!;
-    const lines = linesFromEstimates(s.parts.map((p) => ({ partId: p.id, partName: p.name, lines: (p.analysis!.result as { lines: never[] }).lines })));
+    const lines = linesFromEstimates(s.parts.map((p) => ({ partId: p.id, partName: p.name, lines: p.analysis!.result!.lines })));
     lines[0] = { ...lines[0]!, unitCents: lines[0]!.unitCents - 100, amountCents: Math.round(lines[0]!.quantity * (lines[0]!.unitCents - 100)), editReason: "" };
     const base = { requestId, basisAnalysisIds: s.parts.map((p) => p.analysis!.id), marginBp: 2500, taxBp: 0, depositBp: 5000, validityDays: 30, issue: true };
 

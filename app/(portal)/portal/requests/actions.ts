@@ -107,7 +107,7 @@ async function rerunChangedAnalyses(requestId: string): Promise<Record<string, s
     const options = analysisOptionsFor(p, req);
     const a = latest.get(p.currentRevisionId!);
     // Confirming the units the engine guessed changes nothing: compare with the guess filled in.
-    const guessed = (a?.result as { units?: string } | null)?.units;
+    const guessed = a?.result?.units;
     const before = a ? { ...(guessed && a.options.units === undefined ? { units: guessed } : {}), ...a.options } : null;
     if (a && sameOptions(before, options as Record<string, unknown>)) continue;
     const rev = await getRevision(db, p.currentRevisionId!);

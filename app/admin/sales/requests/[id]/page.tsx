@@ -20,7 +20,7 @@ import { formatCents } from "@/lib/money";
 import { label } from "@/lib/orders/stages";
 import { CURE_LABEL } from "@/lib/labels";
 import { formatTempBoth } from "@/lib/units";
-import { linesFromEstimates, type DraftLine, type EstimateCostLine } from "@/lib/quoting/lines";
+import { linesFromEstimates, type DraftLine } from "@/lib/quoting/lines";
 
 export const metadata: Metadata = { title: "Request" };
 export const dynamic = "force-dynamic";
@@ -41,7 +41,7 @@ export default async function SalesRequestPage({ params }: { params: Promise<{ i
   const basis = draft ?? previous;
   const basisAnalysisIds = parts.map((p) => p.analysis?.id).filter((x): x is string => Boolean(x));
   const estimateLines = linesFromEstimates(
-    parts.filter((p) => p.analysis?.status === "done" && p.analysis.result).map((p) => ({ partId: p.id, partName: p.name, lines: ((p.analysis!.result as { lines?: EstimateCostLine[] }).lines ?? []) })),
+    parts.filter((p) => p.analysis?.status === "done" && p.analysis.result).map((p) => ({ partId: p.id, partName: p.name, lines: p.analysis!.result!.lines ?? [] })),
   );
   const basisLines: DraftLine[] | null = basis
     ? (await listQuoteLines(db, basis.id)).map((l) => ({ partId: l.partId, kind: l.kind, description: l.description, quantity: l.quantity, unitCents: l.unitCents, amountCents: l.amountCents, estimatedCents: l.estimatedCents, editReason: l.editReason }))
@@ -58,7 +58,7 @@ export default async function SalesRequestPage({ params }: { params: Promise<{ i
         validityDays: rc?.quoteValidityDays ?? 30,
         terms: `Deposit due on acceptance; balance due on shipment. Prices exclude duties. Parts are made to the files supplied; the client's own engineering sign-off governs use. Model files are deleted ${retentionText(settings.modelRetentionDays)} after the order closes; documents are kept.`,
         notes: "",
-        shipDate: (parts[0]?.analysis?.result as { shipDate?: string } | null)?.shipDate ?? null,
+        shipDate: parts[0]?.analysis?.result?.shipDate ?? null,
       };
 
   return (
