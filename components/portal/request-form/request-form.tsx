@@ -173,7 +173,7 @@ export function RequestForm({ initial, initialFiles, reference: initialRef, cata
     setSubmitting(true);
     try {
       await inflight.current;
-      const res = await submitRequest(values);
+      const res = await submitRequest({ ...values, requestId: values.requestId ?? "" }); // a draft never saved has no id: refused as invalid
       if (!res.ok) {
         setFormError(res.message);
         const pe: Record<number, string> = {};
