@@ -18,7 +18,7 @@ export default defineConfig({
         extends: true,
         test: {
           name: "unit",
-          include: ["lib/**/*.test.ts", "components/**/*.test.{ts,tsx}", "mocks/**/*.test.ts", "emails/**/*.test.{ts,tsx}", "db/**/*.test.ts"],
+          include: ["lib/**/*.test.ts", "components/**/*.test.{ts,tsx}", "app/**/*.test.{ts,tsx}", "mocks/**/*.test.ts", "emails/**/*.test.{ts,tsx}", "db/**/*.test.ts"],
           environment: "node",
           testTimeout: 60_000,
           // seeding a test database takes seconds on a busy machine; vitest's 10 s default was hit

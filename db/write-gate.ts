@@ -104,12 +104,12 @@ export function gateWrites(client: Client, gate: WriteGate): Client {
   };
   const gated: Partial<Client> = {
     execute: ((stmt: InStatement | string, args?: unknown) => {
-      const run = () => (args === undefined ? client.execute(stmt as InStatement) : client.execute(stmt as string, args as never));
+      const run = () => (args === undefined ? client.execute(stmt) : client.execute(stmt as string, args as never));
       return isReadOnlyStatement(stmt) ? run() : held(run);
-    }) as Client["execute"],
-    batch: ((stmts, mode?: TransactionMode) => (mode === "read" ? client.batch(stmts, mode) : held(() => client.batch(stmts, mode)))) as Client["batch"],
-    migrate: ((stmts) => held(() => client.migrate(stmts))) as Client["migrate"],
-    executeMultiple: ((sql) => held(() => client.executeMultiple(sql))) as Client["executeMultiple"],
+    }),
+    batch: ((stmts, mode?: TransactionMode) => (mode === "read" ? client.batch(stmts, mode) : held(() => client.batch(stmts, mode)))),
+    migrate: ((stmts) => held(() => client.migrate(stmts))),
+    executeMultiple: ((sql) => held(() => client.executeMultiple(sql))),
     transaction: (async (mode?: TransactionMode) => {
       if (mode === "read") return client.transaction(mode);
       const release = await gate.acquire();
@@ -119,7 +119,7 @@ export function gateWrites(client: Client, gate: WriteGate): Client {
         release();
         throw e;
       }
-    }) as Client["transaction"],
+    }),
   };
   return new Proxy(client, {
     get(target, prop, receiver) {

@@ -17,7 +17,7 @@ import { sendEmail } from "@/lib/email/send";
 import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
 import { rootLogger } from "@/lib/observability/log";
-import { defineFormAction } from "@/lib/server/define-action";
+import { defineAction, defineFormAction } from "@/lib/server/define-action";
 import { magicLinkSchema, safeCallbackPath, signInSchema, signUpSchema } from "@/lib/validation/auth";
 import { nestedFields } from "@/lib/validation/form";
 
@@ -81,6 +81,12 @@ export const signUp = defineFormAction({ access: "public", input: z.preprocess(n
   redirect("/portal");
 });
 
-export async function signOutAction() {
+/** Sign out: open to anyone (signing out a missing session changes nothing); ends every copy of the session (lib/auth/sign-out.ts). */
+const signOutDoor = defineAction({ access: "public", input: z.unknown() }, async () => {
   await signOut({ redirectTo: "/" });
+});
+
+/** The sign-out button's form action (a `<form action>` wants nothing back; a failure is logged by the door). */
+export async function signOutAction(formData: FormData): Promise<void> {
+  await signOutDoor(formData);
 }

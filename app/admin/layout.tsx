@@ -1,4 +1,5 @@
 import { AppShell, ROLE_LABELS, type NavItem } from "@/components/layout/app-shell";
+import { signOutAction } from "@/app/(auth)/actions";
 import { pagePermission } from "@/lib/auth/page-guard";
 import { hasPermission, type Permission } from "@/lib/auth/policy";
 
@@ -20,7 +21,7 @@ export default async function AdminLayout({ children }: { children: React.ReactN
   const nav: NavItem[] = SECTIONS.filter((s) => hasPermission(user, s.permission)).map(({ href, label }) => ({ href, label }));
   nav.push({ href: "/two-factor", label: "Sign-in code" });
   return (
-    <AppShell nav={nav} area="Bureau" userLabel={user.name ?? user.email} roleLabel={ROLE_LABELS[user.role] ?? user.role}>
+    <AppShell nav={nav} area="Bureau" userLabel={user.name ?? user.email} roleLabel={ROLE_LABELS[user.role] ?? user.role} signOutAction={signOutAction}>
       {children}
     </AppShell>
   );

@@ -1,5 +1,4 @@
 import Link from "next/link";
-import { signOutAction } from "@/app/(auth)/actions";
 import { LogoMark } from "@/components/brand/logo";
 
 export interface NavItem {
@@ -13,12 +12,15 @@ export function AppShell({
   area,
   userLabel,
   roleLabel,
+  signOutAction,
   children,
 }: {
   nav: NavItem[];
   area: string;
   userLabel: string;
   roleLabel: string;
+  /** The route's sign-out action (a server action, passed down: nothing under components/ imports from app/). */
+  signOutAction: (formData: FormData) => Promise<void>;
   children: React.ReactNode;
 }) {
   return (

@@ -1,7 +1,7 @@
 "use client";
 
 import { generateReactHelpers } from "@uploadthing/react";
-import type { UploadRouter } from "@/app/api/uploadthing/core";
+import type { UploadRouter } from "@/lib/uploads/file-router";
 
 /** Typed UploadThing hooks for our file router (/api/uploadthing). */
 export const { useUploadThing } = generateReactHelpers<UploadRouter>();

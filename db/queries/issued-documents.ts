@@ -1,7 +1,7 @@
 import { and, asc, desc, eq, isNull, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { documentSeries, issuedDocuments, requests, termsOfSale, type IssuedDocumentKind } from "../schema";
-import { formatDocumentNumber, SERIES_BY_KIND, seriesYear } from "../../lib/documents/numbering";
+import { formatDocumentNumber, SERIES_BY_KIND, seriesYear } from "../document-number";
 import type { Tx } from "./audit";
 
 /**

@@ -1,7 +1,7 @@
 import { and, asc, desc, eq, inArray, isNotNull, isNull, like, ne, or, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { orders, payments, requests, webhookEvents, type PaymentStatus } from "../schema";
-import { RECEIPT_SERIES, nextReceiptNumber, receiptYear } from "../../lib/payments/receipt-number";
+import { RECEIPT_SERIES, nextReceiptNumber, receiptYear } from "@/db/receipt-number";
 import type { Tx } from "./audit";
 
 export type PaymentKind = "deposit" | "balance";

@@ -1,8 +1,7 @@
 import "server-only";
 import { and, eq, inArray, isNull, lt, ne, or, sql } from "drizzle-orm";
 import type { Db } from "../client";
-import { bureauSettings, DEFAULT_MODEL_RETENTION_DAYS, fileRetention, fileRevisions, parts, requests, type FileRetention } from "../schema";
-import { FINISHED_STAGES } from "../../lib/retention/policy";
+import { bureauSettings, DEFAULT_MODEL_RETENTION_DAYS, FINISHED_STAGES, fileRetention, fileRevisions, parts, requests, type FileRetention } from "../schema";
 import { writeAudit } from "./audit";
 
 const BUREAU = "bureau";

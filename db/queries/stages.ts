@@ -2,57 +2,51 @@ import "server-only";
 import { and, eq } from "drizzle-orm";
 import type { Stage } from "../schema/common";
 import { requests, stageEvents } from "../schema";
-import { AppError } from "../../lib/errors";
-import { checkTransition } from "../../lib/orders/stages";
 import type { Db } from "../client";
 import { writeAudit, type Tx } from "./audit";
 
-/**
- * Move a request/order to another stage, checked against the stage machine, recorded as a stage
- * event and in the audit log. Guarded by the current stage in the WHERE, so two racing moves can
- * not both win. Pass a transaction to combine with other writes.
- */
-export async function transitionStage(
-  db: Db | Tx,
-  input: { requestId: string; to: Stage; actorId: string | null; note?: string; plannedAt?: Date | null; expectedFrom?: Stage },
-) {
-  const [current] = await db
+/** A request's stage, the stage it was held from, and its firm; null when there is no such request. */
+export async function getStageRow(db: Db | Tx, requestId: string) {
+  const [row] = await db
     .select({ stage: requests.stage, heldFromStage: requests.heldFromStage, orgId: requests.orgId })
     .from(requests)
-    .where(eq(requests.id, input.requestId));
-  if (!current) throw new AppError("not_found:request", "That request was not found.");
-  if (input.expectedFrom && current.stage !== input.expectedFrom) {
-    throw new AppError("conflict:stage", `The order is already ${current.stage.replace("_", " ")}.`);
-  }
-  const check = checkTransition(current.stage, input.to, current.heldFromStage);
-  if (!check.ok) throw new AppError("conflict:stage", check.reason ?? "That stage change is not allowed.");
+    .where(eq(requests.id, requestId));
+  return row ?? null;
+}
 
-  const heldFromStage = input.to === "on_hold" ? current.stage : null;
-  const now = new Date();
+/**
+ * Write a stage change: guarded by the current stage in the WHERE (two racing moves cannot both
+ * win), then the stage event and the audit row. Returns false, writing nothing, when the stage
+ * moved meanwhile. The rules of which moves are allowed are lib/orders/stages.ts's.
+ */
+export async function writeStageChange(
+  db: Db | Tx,
+  input: { requestId: string; orgId: string; from: Stage; to: Stage; actorId: string | null; note?: string; plannedAt?: Date | null; now: Date },
+): Promise<boolean> {
+  const heldFromStage = input.to === "on_hold" ? input.from : null;
   const updated = await db
     .update(requests)
-    .set({ stage: input.to, heldFromStage, updatedAt: now, ...(input.to === "submitted" ? { submittedAt: now } : {}) })
-    .where(and(eq(requests.id, input.requestId), eq(requests.stage, current.stage)))
+    .set({ stage: input.to, heldFromStage, updatedAt: input.now, ...(input.to === "submitted" ? { submittedAt: input.now } : {}) })
+    .where(and(eq(requests.id, input.requestId), eq(requests.stage, input.from)))
     .returning({ id: requests.id });
-  if (updated.length === 0) throw new AppError("conflict:stage", "The order changed stage meanwhile; reload and try again.");
-
+  if (updated.length === 0) return false;
   await db.insert(stageEvents).values({
     requestId: input.requestId,
-    fromStage: current.stage,
+    fromStage: input.from,
     toStage: input.to,
     actorId: input.actorId,
     note: input.note ?? null,
     plannedAt: input.plannedAt ?? null,
-    at: now,
+    at: input.now,
   });
   await writeAudit(db, {
     actorId: input.actorId,
     action: "stage.change",
     entityType: "request",
     entityId: input.requestId,
-    orgId: current.orgId,
-    before: { stage: current.stage },
+    orgId: input.orgId,
+    before: { stage: input.from },
     after: { stage: input.to, note: input.note ?? null },
   });
-  return { from: current.stage, to: input.to };
+  return true;
 }

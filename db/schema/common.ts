@@ -41,3 +41,6 @@ export const STAGES = [
   "cancelled",
 ] as const;
 export type Stage = (typeof STAGES)[number];
+
+/** Stages after which an order's model files are no longer needed for the work. */
+export const FINISHED_STAGES = ["closed", "cancelled"] as const satisfies readonly Stage[];

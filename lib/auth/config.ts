@@ -16,15 +16,15 @@ import { endSessionsOnSignOut } from "./sign-out";
 import { isOverLimit, LINK_EMAIL_RULE } from "./throttle";
 
 class LockedSignin extends CredentialsSignin {
-  code = "locked";
+  override code = "locked";
 }
 /** Password right; the account has a second factor and no code came with it. */
 class CodeRequiredSignin extends CredentialsSignin {
-  code = "code_required";
+  override code = "code_required";
 }
 /** Password right; the code was wrong, already used, or not a code. */
 class CodeInvalidSignin extends CredentialsSignin {
-  code = "code_invalid";
+  override code = "code_invalid";
 }
 
 async function authorizeCredentials(raw: unknown, request: Request | undefined) {

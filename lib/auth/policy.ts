@@ -15,6 +15,7 @@ export const PERMISSIONS = [
   "message:post",
   "members:manage",
   "billing:manage",
+  "files:delete_early",
   // staff side
   "admin:access",
   "sales:inbox",
@@ -38,7 +39,7 @@ const STAFF_BASE: Permission[] = ["admin:access", "request:read_any"];
 
 export const ROLE_PERMISSIONS: Record<Role, ReadonlySet<Permission>> = {
   client: new Set(CLIENT),
-  client_admin: new Set<Permission>([...CLIENT, "request:read_org", "members:manage", "billing:manage"]),
+  client_admin: new Set<Permission>([...CLIENT, "request:read_org", "members:manage", "billing:manage", "files:delete_early"]),
   sales: new Set<Permission>([...STAFF_BASE, "sales:inbox", "quote:manage", "message:post"]),
   production: new Set<Permission>([...STAFF_BASE, "production:board", "production:schedule", "production:record"]),
   accounts: new Set<Permission>([...STAFF_BASE, "accounts:ledger", "accounts:refund", "accounts:terms"]),

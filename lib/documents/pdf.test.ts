@@ -8,7 +8,7 @@ describe("the lines as billed", () => {
       { kind: "print", description: "Printing cell time", quantity: 10, unitCents: 15_000, amountCents: 150_000 },
       { kind: "dwell", description: "Cooling dwell between layers", quantity: 0, unitCents: 6_500, amountCents: 0 },
     ];
-    const billed = linesAsBilled(lines as never, 162_500);
+    const billed = linesAsBilled(lines, 162_500);
     expect(billed.map((l) => l.description)).toEqual(["Material", "Printing cell time"]);
     expect(billed.reduce((s, l) => s + l.amountCents, 0)).toBe(650_000 + 162_500);
     expect(billed[0]!.amountCents).toBe(625_000);

@@ -85,7 +85,7 @@ export async function sendEmail(input: SendEmailInput, resend: Resend = getResen
   }
   const { data, error } = result;
   if (error || !data) {
-    const statusCode = error && "statusCode" in error ? (error.statusCode as number | null) : null;
+    const statusCode = error && "statusCode" in error ? (error.statusCode) : null;
     throw new EmailSendError(
       `E-mail "${input.subject}" was refused by the e-mail API: ${error?.message ?? "no message id returned"}`,
       error?.name ?? "unknown",
@@ -156,7 +156,7 @@ export async function sendRenderedEmail(input: RenderedEmail, resend: Resend = g
   }
   const { data, error } = result;
   if (error || !data) {
-    const statusCode = error && "statusCode" in error ? (error.statusCode as number | null) : null;
+    const statusCode = error && "statusCode" in error ? (error.statusCode) : null;
     throw new EmailSendError(`E-mail "${input.subject}" was refused by the e-mail API: ${error?.message ?? "no message id returned"}`, error?.name ?? "unknown", statusCode);
   }
   return { id: data.id };

@@ -118,11 +118,11 @@ async function main(): Promise<number> {
     if (v.orientation !== undefined && !["x", "y", "z"].includes(v.orientation)) throw new EstimateInputError("option:orientation", "--orientation must be x, y or z (the file axis that points up).");
     const cat = await loadCatalogue();
     // read from disk in chunks (a binary STL never sits whole in memory), then analysed in place
-    const read = await readModelFile(file, basename(file), { units: v.units as "mm" | "in" | undefined, toleranceMm: num(v.tolerance, "tolerance"), bodies: bodiesOf(v.bodies) });
+    const read = await readModelFile(file, basename(file), { units: v.units, toleranceMm: num(v.tolerance, "tolerance"), bodies: bodiesOf(v.bodies) });
     const r = await analyse({
       read, fileName: basename(file),
       options: {
-        units: v.units as "mm" | "in" | undefined, materialKey: v.material, allowanceMm: num(v.allowance, "allowance"), cellKey: v.cell,
+        units: v.units, materialKey: v.material, allowanceMm: num(v.allowance, "allowance"), cellKey: v.cell,
         printMode: v.solid ? "solid" : "shell",
         shellWalls: num(v["shell-walls"], "shell-walls") ?? null, orientation: v.orientation as "x" | "y" | "z" | undefined,
         quantity: num(v.quantity, "quantity"), cureTempC: num(v["cure-temp"], "cure-temp"),
@@ -140,4 +140,4 @@ async function main(): Promise<number> {
   }
 }
 
-main().then((code) => { process.exitCode = code; });
+void main().then((code) => { process.exitCode = code; });

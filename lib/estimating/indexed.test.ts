@@ -100,8 +100,8 @@ describe("the indexed mesh (distinct corners and three indices a triangle)", () 
     // two float32 neighbours whose products by 25.4 round to the same float32
     const f = new Float32Array(2), u = new Uint32Array(f.buffer);
     f[0] = 1.9;
-    for (u[1] = u[0]! + 1; Math.fround(f[0]! * 25.4) !== Math.fround(f[1]! * 25.4); u[1] = u[1]! + 1) u[0] = u[1]!;
-    const a = f[0]!, b = f[1]!;
+    for (u[1] = u[0]! + 1; Math.fround(f[0] * 25.4) !== Math.fround(f[1]! * 25.4); u[1] = u[1] + 1) u[0] = u[1]!;
+    const a = f[0], b = f[1]!;
     expect(a).not.toBe(b);
     expect(Math.fround(a * 25.4)).toBe(Math.fround(b * 25.4));
     const soup: Mesh = {

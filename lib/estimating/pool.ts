@@ -350,7 +350,7 @@ export class EstimatePool {
         this.remove(slot);
         void slot.worker.terminate();
       }
-      if (msg.type === "result") job.resolve(msg.result!);
+      if (msg.type === "result") job.resolve(msg.result);
       else {
         const e = msg.error!;
         job.reject(

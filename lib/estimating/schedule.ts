@@ -34,7 +34,7 @@ export function zoneOffsetMs(t: number, timeZone: string): number {
   }
   const v: Record<string, number> = {};
   for (const p of f.formatToParts(new Date(Math.floor(t / 1000) * 1000))) if (p.type !== "literal") v[p.type] = Number(p.value);
-  const local = Date.UTC(v.year!, v.month! - 1, v.day!, v.hour!, v.minute!, v.second!);
+  const local = Date.UTC(v.year!, v.month! - 1, v.day, v.hour, v.minute, v.second);
   const off = local - Math.floor(t / 1000) * 1000;
   if (offsets.size > 50_000) offsets.clear();
   offsets.set(key, off);

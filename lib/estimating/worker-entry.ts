@@ -27,7 +27,10 @@ const RETIRE_ABOVE_BYTES = (Number(process.env.ESTIMATE_WASM_RETIRE_MB) || 768) 
 if (!parentPort) throw new Error("estimate worker must run in a worker thread");
 lowerThreadPriority();
 const port = parentPort;
-port.on("message", async (msg: { id: number; input: JobInput; read?: undefined } | { id: number; read: ReadJob; input?: undefined }) => {
+type WorkerMessage = { id: number; input: JobInput; read?: undefined } | { id: number; read: ReadJob; input?: undefined };
+
+/** One job: every failure is answered to the pool as an error message, never thrown. */
+async function handle(msg: WorkerMessage): Promise<void> {
   const { id } = msg;
   try {
     if (msg.read) {
@@ -49,7 +52,9 @@ port.on("message", async (msg: { id: number; input: JobInput; read?: undefined }
     const err = e as { name?: string; code?: string; message?: string };
     port.postMessage({ id, type: "error", error: { name: err?.name ?? "Error", code: err?.code ?? "internal", message: err?.message ?? String(e) }, retire: shouldRetire() });
   }
-});
+}
+
+port.on("message", (msg: WorkerMessage) => void handle(msg));
 
 /** A stored file fetched here, off the request thread, and given the upload content check. */
 async function fetched<T extends { remote: RemoteFile; fileName: string }>(input: T): Promise<Omit<T, "remote"> & { bytes: Uint8Array }> {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { formatReceiptNumber, nextReceiptNumber, parseReceiptNumber, receiptYear } from "./receipt-number";
+import { formatReceiptNumber, nextReceiptNumber, parseReceiptNumber, receiptYear } from "@/db/receipt-number";
 
 describe("receipt numbers", () => {
   it("formats the year and a five-digit sequence, and reads it back", () => {

@@ -3,7 +3,7 @@ import { and, eq, ne } from "drizzle-orm";
 import type { Db } from "../../db/client";
 import { writeAudit, type Tx } from "../../db/queries/audit";
 import { allocateReceiptNumber, getOrderWithRequest } from "../../db/queries/payments";
-import { transitionStage } from "../../db/queries/stages";
+import { transitionStage } from "../../lib/orders/transition";
 import { organisations, payments, transferFunds, type Payment } from "../../db/schema";
 import { issueDocumentInTx } from "../documents/issue";
 import { applyArrival, type ArrivalStatus } from "./terms";

@@ -5,7 +5,7 @@ import type { Db } from "../../db/client";
 import { payments } from "../../db/schema";
 import { writeAudit, type Tx } from "../../db/queries/audit";
 import { getOrderWithRequest, getPayment, getPaymentBySession, markPaymentExpired, markPaymentPaid, recordWebhookEvent, isWebhookEventRecorded } from "../../db/queries/payments";
-import { transitionStage } from "../../db/queries/stages";
+import { transitionStage } from "../../lib/orders/transition";
 import { issueDocumentInTx } from "../documents/issue";
 import { recordTransferArrival, type FundedTransaction } from "./transfers";
 

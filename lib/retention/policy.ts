@@ -1,5 +1,4 @@
-/** Stages after which an order's model files are no longer needed for the work. */
-export const FINISHED_STAGES = ["closed", "cancelled"] as const;
+export { FINISHED_STAGES } from "../../db/schema/common";
 
 const DAY_MS = 24 * 60 * 60 * 1000;
 

@@ -1,4 +1,4 @@
-import { DEMO_TOTP_SECRETS } from "../../db/seed-data";
+import { DEMO_TOTP_SECRETS } from "@/lib/seed/data";
 import { totpCodeForStep, totpStepAt } from "../auth/two-factor";
 
 const used = new Map<string, number>();

@@ -7,8 +7,8 @@ import { existsSync, mkdirSync } from "node:fs";
 import path from "node:path";
 import { createClient } from "@libsql/client";
 import { openDb } from "../../db/client";
-import { seed } from "../../db/seed";
-import { DEMO_PASSWORDS, DEMO_USERS } from "../../db/seed-data";
+import { seed } from "@/lib/seed/seed";
+import { DEMO_PASSWORDS, DEMO_USERS } from "@/lib/seed/data";
 import { migrateDatabase } from "./migrate";
 import { DEMO_PORTS, root, startStack, stackEnv } from "./stack";
 

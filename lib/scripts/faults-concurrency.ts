@@ -7,7 +7,7 @@
  * afterwards (shared by tests/e2e/faults.e2e.ts and `npm run faults`).
  */
 import { createClient } from "@libsql/client";
-import { DEMO_PASSWORDS, DEMO_USERS } from "../../db/seed-data";
+import { DEMO_PASSWORDS, DEMO_USERS } from "@/lib/seed/data";
 import { checkDatabase, pendingDeposits, type CheckReport } from "./faults-core";
 import type { HardStack } from "./hard-stack";
 import { listActions, Session } from "./http-client";

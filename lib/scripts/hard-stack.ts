@@ -8,7 +8,7 @@ import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from "node
 import os from "node:os";
 import path from "node:path";
 import { openDb } from "../../db/client";
-import { seed } from "../../db/seed";
+import { seed } from "@/lib/seed/seed";
 import { freePort, waitForHttp } from "./free-port";
 import { migrateDatabase } from "./migrate";
 import { appArgs, root, startStack, type RunningStack, type StackPorts } from "./stack";
@@ -118,7 +118,7 @@ export async function startHardStack(opts: {
     restartApp,
     stop: async () => {
       for (const p of [app, fakes]) if (p.exitCode === null && !p.signalCode) p.kill("SIGTERM");
-      await Promise.all([app, fakes].map((p) => (p.exitCode === null && !p.signalCode ? new Promise((r) => p.once("exit", r)) : null)));
+      await Promise.all([app, fakes].map((p) => (p.exitCode === null && !p.signalCode ? new Promise((r) => p.once("exit", r)) : Promise.resolve())));
       rmSync(dataDir, { recursive: true, force: true });
     },
   };

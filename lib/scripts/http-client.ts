@@ -48,7 +48,7 @@ export class Session {
 
   /**
    * Credentials sign-in as the form does (csrf token, then the callback). Demo staff accounts also
-   * send the code their authenticator app would show (db/seed-data.ts). Returns the callback's answer.
+   * send the code their authenticator app would show (lib/seed/data.ts). Returns the callback's answer.
    */
   async signIn(email: string, password: string, headers: Record<string, string> = {}): Promise<{ ok: boolean; location: string; setCookies: string[] }> {
     const csrfRes = await this.fetch("/api/auth/csrf", { headers });
@@ -88,7 +88,7 @@ export function actionResultOf(text: string): unknown {
     try {
       const v = JSON.parse(m[1]!) as Record<string, unknown>;
       if ("ok" in v) return v;
-      if (v.a && typeof v.a === "object" && "ok" in (v.a as object)) return v.a;
+      if (v.a && typeof v.a === "object" && "ok" in (v.a)) return v.a;
     } catch {
       /* not JSON */
     }

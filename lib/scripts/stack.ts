@@ -6,7 +6,7 @@
 import { spawn, type ChildProcess } from "node:child_process";
 import { existsSync, readFileSync, renameSync } from "node:fs";
 import path from "node:path";
-import { processorObjectsFor, type SeedProcessorRecord } from "../../db/seed-processor";
+import { processorObjectsFor, type SeedProcessorRecord } from "@/lib/seed/processor";
 import { demoSecrets } from "./demo-secrets";
 import { waitForHttp } from "./free-port";
 
@@ -138,7 +138,7 @@ export async function startStack(opts: {
   const processes = [fakes, app];
   const stop = async () => {
     for (const p of processes) if (p.exitCode === null) p.kill("SIGTERM");
-    await Promise.all(processes.map((p) => (p.exitCode === null ? new Promise((r) => p.once("exit", r)) : null)));
+    await Promise.all(processes.map((p) => (p.exitCode === null ? new Promise((r) => p.once("exit", r)) : Promise.resolve())));
   };
   try {
     await waitForHttp(`http://127.0.0.1:${opts.ports.stripe}/health`, 60_000);

@@ -26,5 +26,5 @@ export async function enter<A extends Access>(access: A): Promise<UserFor<A>> {
     if (!user) throw new AppError("unauthenticated", "Please sign in.");
     return user as UserFor<A>;
   }
-  return (await requirePermission(access as Permission)) as UserFor<A>;
+  return (await requirePermission(access)) as UserFor<A>;
 }

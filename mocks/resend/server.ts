@@ -46,7 +46,7 @@ export interface ResendFake {
 class ResendError extends Error {
   constructor(
     readonly statusCode: number,
-    readonly name: string,
+    override readonly name: string,
     message: string,
   ) {
     super(message);

@@ -1,6 +1,6 @@
 import { createHash } from "node:crypto";
 import type { WebhookQueue } from "./delivery";
-import { arr, metadataOf, obj, str, type FormObject, type FormValue } from "./form";
+import { arr, metadataOf, obj, str, type FormObject } from "./form";
 import type { Collection, Store, StripeObject } from "./store";
 import { collectionForId, newId } from "./store";
 import { createCustomer, createPaymentIntent, fundCashBalance, listCashBalanceTransactions, retrieveCustomer } from "./cash-balance";
@@ -180,7 +180,7 @@ function createCheckoutSession(ctx: ApiContext, params: FormObject): ApiResult {
   let currency: string | undefined;
   const lineItems: StripeObject[] = [];
   items.forEach((raw, i) => {
-    const item = obj(raw as FormValue) ?? {};
+    const item = obj(raw) ?? {};
     const price = obj(item.price_data);
     if (!price) throw missing(`line_items[${i}][price_data]`);
     const unit = str(price.unit_amount);

@@ -1,7 +1,7 @@
 import { createClient } from "@libsql/client";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_PASSWORDS } from "../../db/seed-data";
+import { DEMO_PASSWORDS } from "@/lib/seed/data";
 import { totpCodeForStep, totpStepAt } from "../../lib/auth/two-factor";
 import { launchBrowser, newPage, PHONE, shot, signIn, startStack, type TestStack } from "./harness";
 

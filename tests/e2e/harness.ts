@@ -9,7 +9,7 @@ import path from "node:path";
 import AxeBuilder from "@axe-core/playwright";
 import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
 import { openDb } from "../../db/client";
-import { seed } from "../../db/seed";
+import { seed } from "@/lib/seed/seed";
 import { demoSignInCode } from "../../lib/scripts/demo-code";
 import { freePort } from "../../lib/scripts/free-port";
 import { migrateDatabase } from "../../lib/scripts/migrate";

@@ -2,7 +2,7 @@ import { createClient, type Client } from "@libsql/client";
 import path from "node:path";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_PASSWORDS } from "../../db/seed-data";
+import { DEMO_PASSWORDS } from "@/lib/seed/data";
 import { DESKTOP, launchBrowser, newPage, PHONE, shot, signIn, startStack, type TestStack } from "./harness";
 import { addPartWithFile, fillProject, MOLD_STL, payOnFakeCheckout, signUp, waitForEstimate } from "./portal-journey";
 

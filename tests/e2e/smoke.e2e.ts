@@ -1,7 +1,7 @@
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createClient } from "@libsql/client";
-import { DEMO_PASSWORDS, DEMO_USERS } from "../../db/seed-data";
+import { DEMO_PASSWORDS, DEMO_USERS } from "@/lib/seed/data";
 import { homePathFor } from "../../lib/auth/policy";
 import { DESKTOP, launchBrowser, newPage, PHONE, shot, signIn, startStack, type TestStack } from "./harness";
 

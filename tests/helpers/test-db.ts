@@ -2,7 +2,7 @@ import { mkdtempSync, rmSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { openDb, type Db } from "../../db/client";
-import { seed } from "../../db/seed";
+import { seed } from "@/lib/seed/seed";
 import { migrateDatabase } from "../../lib/scripts/migrate";
 
 export interface TestDb {

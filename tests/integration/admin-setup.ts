@@ -5,7 +5,7 @@
  */
 import { eq } from "drizzle-orm";
 import type { Db } from "../../db/client";
-import { DEMO_USERS } from "../../db/seed-data";
+import { DEMO_USERS } from "@/lib/seed/data";
 import { users } from "../../db/schema";
 import type { Role } from "../../db/schema/common";
 

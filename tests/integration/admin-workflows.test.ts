@@ -4,8 +4,8 @@ import os from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { openDb, type Db } from "../../db/client";
-import { seed } from "../../db/seed";
-import { processorObjectsFor } from "../../db/seed-processor";
+import { seed } from "@/lib/seed/seed";
+import { processorObjectsFor } from "@/lib/seed/processor";
 import { analyses, auditLog, orders, parts, payments, quotes, rateCards, refunds, requests, scheduleBlocks, stageEvents } from "../../db/schema";
 import { STAGES, type Stage } from "../../db/schema/common";
 import { resetEnvCache } from "../../lib/env";
@@ -86,7 +86,7 @@ describe("quotes", () => {
 
     const noReason = await saveQuote({ ...base, lines });
     expect(noReason).toMatchObject({ ok: false, code: "invalid_input" });
-    lines[0]!.editReason = "Repeat-customer material price";
+    lines[0].editReason = "Repeat-customer material price";
     const issued = await saveQuote({ ...base, lines });
     expect(issued).toMatchObject({ ok: true, data: { status: "issued", version: 1 } });
     expect(await stageOf(requestId)).toBe("quoted");

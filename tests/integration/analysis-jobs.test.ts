@@ -86,7 +86,7 @@ describe("durable analyses", () => {
 
   it("counts against its uploader's share of the estimator: it waits while their other jobs fill it, then runs", async () => {
     const [rev] = await db.select({ by: fileRevisions.uploadedById }).from(fileRevisions).where(eq(fileRevisions.id, revisionId));
-    const owner = rev!.by!;
+    const owner = rev!.by;
     const small = new EstimatePool({ size: 1, maxPerOwner: 1, workerPath: path.join(root, ".worker", "estimate-worker.mjs") });
     try {
       // The uploader already has one job (an estimate being prepared): their share is full.

@@ -64,7 +64,7 @@ describe("database handle", () => {
       ...Array.from({ length: 6 }, (_, i) => db.insert(auditLog).values(probe(`plain-${i}`))),
     ]);
     await holder.done;
-    const failed = writes.filter((w) => w.status === "rejected").map((w) => String((w as PromiseRejectedResult).reason));
+    const failed = writes.filter((w) => w.status === "rejected").map((w) => String((w).reason));
     expect(failed).toEqual([]);
     expect(Date.now() - started).toBeGreaterThanOrEqual(300);
     const [n] = await db.select({ n: sql<number>`count(*)` }).from(auditLog).where(sql`${auditLog.action} = 'lock.probe'`);

@@ -2,7 +2,7 @@ import { eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { Db } from "../../db/client";
 import { createClientFirmWithAdmin, isEmailTaken } from "../../db/queries/organisations";
-import { transitionStage } from "../../db/queries/stages";
+import { transitionStage } from "../../lib/orders/transition";
 import { memberships, organisations, requests, stageEvents, users, auditLog } from "../../db/schema";
 import { FLOW } from "../../lib/orders/stages";
 import { createTestDb, type TestDb } from "../helpers/test-db";

@@ -142,12 +142,12 @@ describe("freight by destination", () => {
     await db.transaction((tx) => issueDocumentInTx(tx, { kind: "invoice", sourceId: order!.id }));
     await db.transaction((tx) => issueDocumentInTx(tx, { kind: "packing_list", sourceId: order!.id }));
     const docs = await db.select().from(issuedDocuments).where(eq(issuedDocuments.requestId, r.id));
-    const inv = docs.find((d) => d.kind === "invoice")!.data as Record<string, unknown>;
+    const inv = docs.find((d) => d.kind === "invoice")!.data;
     expect(inv.totals).toMatchObject({ subtotalCents: order!.subtotalCents, totalCents: order!.totalCents });
     expect(inv.shipTo).toMatchObject({ name: "Bramblewake Boatworks, Gulf yard" });
     expect((inv.shipTo as { lines: string[] }).lines).toEqual(expect.arrayContaining(["48 Bayou Quay", "Pellmoor, LA 70397"]));
     expect((inv.client as { lines: string[] }).lines).toEqual(expect.arrayContaining(["1 Slipway Road", "Saltcombe Reach, ME 04590"]));
-    const pl = docs.find((d) => d.kind === "packing_list")!.data as Record<string, unknown>;
+    const pl = docs.find((d) => d.kind === "packing_list")!.data;
     expect(pl.shipTo).toMatchObject({ name: "Bramblewake Boatworks, Gulf yard" });
   }, 60_000);
 

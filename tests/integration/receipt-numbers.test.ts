@@ -4,7 +4,7 @@ import { asc, eq, isNotNull } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { markPaymentPaid } from "../../db/queries/payments";
 import { payments } from "../../db/schema";
-import { parseReceiptNumber } from "../../lib/payments/receipt-number";
+import { parseReceiptNumber } from "@/db/receipt-number";
 import { createTestDb, type TestDb } from "../helpers/test-db";
 
 let t: TestDb;

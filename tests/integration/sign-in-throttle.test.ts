@@ -10,7 +10,7 @@ import { eq, like } from "drizzle-orm";
 import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
 import { signInAttempts } from "../../db/schema";
 import type * as PasswordModule from "../../lib/auth/password";
-import { DEMO_PASSWORDS, DEMO_TOTP_SECRETS } from "../../db/seed-data";
+import { DEMO_PASSWORDS, DEMO_TOTP_SECRETS } from "@/lib/seed/data";
 import { totpCodeForStep, totpStepAt } from "../../lib/auth/two-factor";
 import { createTestDb, type TestDb } from "../helpers/test-db";
 

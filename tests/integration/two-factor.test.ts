@@ -8,7 +8,7 @@ import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { Db } from "../../db/client";
 import { auditLog, twoFactor, users } from "../../db/schema";
-import { DEMO_TOTP_SECRETS } from "../../db/seed-data";
+import { DEMO_TOTP_SECRETS } from "@/lib/seed/data";
 import { totpCodeForStep, totpStepAt } from "../../lib/auth/two-factor";
 import { createTestDb, type TestDb } from "../helpers/test-db";
 import { userIdOf } from "./admin-setup";

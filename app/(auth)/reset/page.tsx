@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { ResetRequestForm } from "@/components/auth/reset-request-form";
+import { ResetRequestForm } from "@/app/(auth)/reset/_components/reset-request-form";
 
 export const metadata: Metadata = { title: "Reset your password" };
 

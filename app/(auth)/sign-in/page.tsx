@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { SignInForm } from "@/components/auth/sign-in-form";
+import { SignInForm } from "@/app/(auth)/sign-in/_components/sign-in-form";
 import { safeCallbackPath } from "@/lib/validation/auth";
 
 export const metadata: Metadata = { title: "Sign in" };

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { SignUpForm } from "@/components/auth/sign-up-form";
+import { SignUpForm } from "@/app/(auth)/sign-up/_components/sign-up-form";
 
 export const metadata: Metadata = { title: "Create an account" };
 

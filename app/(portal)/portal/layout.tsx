@@ -1,5 +1,6 @@
 import { redirect } from "next/navigation";
 import { AppShell, ROLE_LABELS, type NavItem } from "@/components/layout/app-shell";
+import { signOutAction } from "@/app/(auth)/actions";
 import { QueryProvider } from "@/components/portal/query-provider";
 import { pageUser } from "@/lib/auth/page-guard";
 import { isStaff } from "@/lib/auth/policy";
@@ -17,7 +18,7 @@ export default async function PortalLayout({ children }: { children: React.React
   }
   nav.push({ href: "/two-factor", label: "Sign-in code" });
   return (
-    <AppShell nav={nav} area="Client portal" userLabel={user.name ?? user.email} roleLabel={ROLE_LABELS[user.role] ?? user.role}>
+    <AppShell nav={nav} area="Client portal" userLabel={user.name ?? user.email} roleLabel={ROLE_LABELS[user.role] ?? user.role} signOutAction={signOutAction}>
       <QueryProvider>{children}</QueryProvider>
     </AppShell>
   );

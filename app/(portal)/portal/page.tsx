@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { RequestsTable } from "@/components/portal/requests-table";
+import { RequestsTable } from "@/app/(portal)/portal/_components/requests-table";
 import { ButtonLink } from "@/components/ui/button";
 import { PageHeader } from "@/components/ui/card";
 import { pageUser } from "@/lib/auth/page-guard";

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { LedgerTable } from "@/components/admin/ledger-table";
+import { LedgerTable } from "@/app/admin/accounts/_components/ledger-table";
 import { ButtonLink } from "@/components/ui/button";
 import { PageHeader } from "@/components/ui/card";
 import { pagePermission } from "@/lib/auth/page-guard";

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { AuditTable } from "@/components/admin/audit-table";
+import { AuditTable } from "@/app/admin/audit/_components/audit-table";
 import { PageHeader } from "@/components/ui/card";
 import { pagePermission } from "@/lib/auth/page-guard";
 

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { ParamsForm } from "@/components/admin/params-form";
+import { ParamsForm } from "@/app/admin/catalogue/_components/params-form";
 import { Badge } from "@/components/ui/badge";
 import { Card, CardTitle, PageHeader } from "@/components/ui/card";
 import { getDb } from "@/db/client";

@@ -7,7 +7,7 @@ import { getCurrentCell } from "@/db/queries/admin-catalogue";
 import { getCurrentRateCard } from "@/db/queries/catalogue";
 import { attachInspectionReport, ensureBalancePayment, getOrderForProduction, listCellBlocks, saveSchedule, updateActuals } from "@/db/queries/orders";
 import { releaseCellBlocks, trimCellBlocksAfter } from "@/db/queries/schedule-blocks";
-import { transitionStage } from "@/db/queries/stages";
+import { transitionStage } from "@/lib/orders/transition";
 import { formatDateTime, fromPlantInput } from "@/lib/dates";
 import { issueDocument, issueDocumentInTx } from "@/lib/documents/issue";
 import { openBankTransfer } from "@/lib/payments/bank-transfer";

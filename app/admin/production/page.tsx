@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
-import { CellCalendar } from "@/components/admin/cell-calendar";
-import { ProductionBoard } from "@/components/admin/production-board";
+import { CellCalendar } from "@/app/admin/production/_components/cell-calendar";
+import { ProductionBoard } from "@/app/admin/production/_components/production-board";
 import { ButtonLink } from "@/components/ui/button";
 import { CardTitle, PageHeader } from "@/components/ui/card";
 import { getDb } from "@/db/client";

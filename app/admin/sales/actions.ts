@@ -4,7 +4,7 @@ import { revalidatePath } from "next/cache";
 import { writeAudit } from "@/db/queries/audit";
 import { getCurrentRateCard } from "@/db/queries/catalogue";
 import { createDraftQuote, createStaffMessage, getQuote, getRequestForSales, hasOrder, markIssued, updateDraftQuote } from "@/db/queries/quotes";
-import { transitionStage } from "@/db/queries/stages";
+import { transitionStage } from "@/lib/orders/transition";
 import { label } from "@/lib/orders/stages";
 import { retryAnalysis } from "@/lib/analysis/run";
 import { currentRequestId } from "@/lib/observability/request-id";

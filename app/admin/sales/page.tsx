@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { InboxTable } from "@/components/admin/inbox-table";
+import { InboxTable } from "@/app/admin/sales/_components/inbox-table";
 import { ButtonLink } from "@/components/ui/button";
 import { PageHeader } from "@/components/ui/card";
 import { pagePermission } from "@/lib/auth/page-guard";

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { StaffTable } from "@/components/admin/staff-table";
+import { StaffTable } from "@/app/admin/staff/_components/staff-table";
 import { PageHeader } from "@/components/ui/card";
 import { pagePermission } from "@/lib/auth/page-guard";
 

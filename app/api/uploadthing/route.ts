@@ -1,6 +1,6 @@
 import { createRouteHandler } from "uploadthing/next";
 import { uploadthingRouteConfig } from "@/lib/uploads/uploadthing";
-import { uploadRouter } from "./core";
+import { uploadRouter } from "@/lib/uploads/file-router";
 
 type Handlers = ReturnType<typeof createRouteHandler>;
 let handlers: Handlers | undefined;

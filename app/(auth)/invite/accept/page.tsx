@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { AcceptInvitationForm } from "@/components/auth/accept-invitation-form";
+import { AcceptInvitationForm } from "@/app/(auth)/invite/accept/_components/accept-invitation-form";
 import { AuthNotice } from "@/components/auth/auth-notice";
 import { getDb } from "@/db/client";
 import { openInvitation } from "@/lib/auth/staff-invitation";

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { getDb } from "@/db/client";
 import { isPasswordResetTokenLive } from "@/db/queries/password-reset";
-import { ResetPasswordForm } from "@/components/auth/reset-password-form";
+import { ResetPasswordForm } from "@/app/(auth)/reset/new/_components/reset-password-form";
 import { hashResetToken } from "@/lib/auth/password-reset";
 
 export const metadata: Metadata = { title: "Choose a new password", referrer: "no-referrer" };

@@ -8,7 +8,7 @@ import { markQuotesStale } from "@/db/queries/client-quotes";
 import { addFileRevision, getRevision, getUploadOwned } from "@/db/queries/files";
 import { createPart, getPart, latestAnalyses, listParts, updatePart } from "@/db/queries/parts";
 import { createDraftRequest, getRequest, updateDraftRequest } from "@/db/queries/requests";
-import { transitionStage } from "@/db/queries/stages";
+import { transitionStage } from "@/lib/orders/transition";
 import { analysisOptionsFor, sameOptions } from "@/lib/analysis/options";
 import { MAX_MODEL_BYTES, startAnalysis } from "@/lib/analysis/run";
 import { currentRequestId } from "@/lib/observability/request-id";

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { ReconciliationView } from "@/components/admin/reconciliation-view";
+import { ReconciliationView } from "@/app/admin/accounts/reconciliation/_components/reconciliation-view";
 import { ButtonLink } from "@/components/ui/button";
 import { PageHeader } from "@/components/ui/card";
 import { pagePermission } from "@/lib/auth/page-guard";

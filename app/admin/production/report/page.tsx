@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { ActualsReport } from "@/components/admin/actuals-report";
+import { ActualsReport } from "@/app/admin/production/report/_components/actuals-report";
 import { ButtonLink } from "@/components/ui/button";
 import { PageHeader } from "@/components/ui/card";
 import { pagePermission } from "@/lib/auth/page-guard";

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { QuotesTable } from "@/components/admin/quotes-table";
+import { QuotesTable } from "@/app/admin/sales/quotes/_components/quotes-table";
 import { ButtonLink } from "@/components/ui/button";
 import { PageHeader } from "@/components/ui/card";
 import { pagePermission } from "@/lib/auth/page-guard";

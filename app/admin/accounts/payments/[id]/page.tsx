@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { dateText, dateTimeText } from "@/components/admin/format";
-import { RefundForm } from "@/components/admin/refund-form";
+import { RefundForm } from "@/app/admin/accounts/payments/[id]/_components/refund-form";
 import { PaymentStateBadge, RefundStateBadge } from "@/components/stage-badge";
 import { OrderDocumentsCard } from "@/components/admin/order-documents";
 import { Card, CardTitle, PageHeader } from "@/components/ui/card";

@@ -1,10 +1,10 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
-import { AnalysisPanel } from "@/components/admin/analysis-panel";
+import { AnalysisPanel } from "@/app/admin/sales/requests/[id]/_components/analysis-panel";
 import { dateText } from "@/components/admin/format";
-import { MessageThread } from "@/components/admin/message-thread";
-import { QuoteEditor } from "@/components/admin/quote-editor";
-import { QuoteNoticeProvider } from "@/components/admin/quote-notice";
+import { MessageThread } from "@/app/admin/sales/requests/[id]/_components/message-thread";
+import { QuoteEditor } from "@/app/admin/sales/requests/[id]/_components/quote-editor";
+import { QuoteNoticeProvider } from "@/app/admin/sales/requests/[id]/_components/quote-notice";
 import { QuoteStateBadge, StageBadge } from "@/components/stage-badge";
 import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";

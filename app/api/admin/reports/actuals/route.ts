@@ -1,4 +1,4 @@
-import { actualVsEstimate } from "@/db/queries/reports";
+import { actualVsEstimate } from "@/lib/quoting/actuals";
 import { defineRoute } from "@/lib/server/define-route";
 
 export const dynamic = "force-dynamic";
