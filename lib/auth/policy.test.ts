@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { ROLES, type Role } from "../../db/schema/common";
-import { can, canOpenFiles, canReadDocument, canSee, hasPermission, homePathFor, isStaff, PERMISSIONS, type Permission, type PolicyUser } from "./policy";
+import { can, canOpenFiles, canOpenStoredFile, canReadDocument, canSee, hasPermission, homePathFor, isStaff, PERMISSIONS, type Permission, type PolicyUser } from "./policy";
 
 const user = (role: Role, over: Partial<PolicyUser> = {}): PolicyUser => ({
   id: `${role}-1`,
@@ -68,6 +68,29 @@ describe("controlled files", () => {
   it("the client firm opens its own controlled files; another firm never", () => {
     expect(canOpenFiles(user("client"), controlled)).toBe(true);
     expect(canOpenFiles(user("client_admin", { orgId: "org-b" }), controlled)).toBe(false);
+  });
+});
+
+describe("stored files", () => {
+  const ROLES_ALL = ["client", "client_admin", "sales", "production", "accounts", "admin"] as const;
+  it("a loose upload opens for its uploader and for staff, every role checked", () => {
+    for (const role of ROLES_ALL) {
+      const u = user(role);
+      expect(canOpenStoredFile({ ...u, id: "uploader" }, { kind: "upload", uploaderId: "uploader" }), role).toBe(true);
+      expect(canOpenStoredFile({ ...u, id: "someone-else" }, { kind: "upload", uploaderId: "uploader" }), role).toBe(isStaff(role));
+    }
+  });
+  it("a request's model file or document follows the request's file rule, every role checked", () => {
+    for (const kind of ["revision", "document"] as const) {
+      for (const role of ROLES_ALL) {
+        for (const isControlled of [false, true]) {
+          const file = { kind, orgId: "org-a", createdById: "client-1", isControlled };
+          const u = user(role);
+          expect(canOpenStoredFile(u, file), `${kind} ${role} controlled=${isControlled}`).toBe(canOpenFiles(u, file));
+          expect(canOpenStoredFile({ ...u, orgId: u.orgId ? "org-b" : null }, { ...file }), `${kind} ${role} other firm`).toBe(isStaff(role) ? !isControlled : false);
+        }
+      }
+    }
   });
 });
 

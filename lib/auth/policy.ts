@@ -84,6 +84,18 @@ export function canOpenFiles(user: PolicyUser, resource: PolicyResource): boolea
   return true;
 }
 
+/**
+ * May this user open this stored file? A loose upload (not yet attached to a request): its uploader,
+ * or staff. A request's model file or document: the request's file rule (canOpenFiles).
+ */
+export function canOpenStoredFile(
+  user: PolicyUser,
+  file: { kind: "upload"; uploaderId: string | null } | { kind: "revision" | "document"; orgId: string; createdById: string; isControlled: boolean },
+): boolean {
+  if (file.kind === "upload") return file.uploaderId === user.id || isStaff(user.role);
+  return canOpenFiles(user, { orgId: file.orgId, createdById: file.createdById, isControlled: file.isControlled });
+}
+
 /** The permission check, with the resource's scope when one is given. */
 export function can(user: PolicyUser, permission: Permission, resource?: PolicyResource): boolean {
   if (!hasPermission(user, permission)) return false;

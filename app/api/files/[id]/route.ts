@@ -2,24 +2,12 @@ import { writeAudit } from "@/db/queries/audit";
 import { findStoredFile } from "@/db/queries/files";
 import { getFileRetention } from "@/db/queries/retention";
 import { clientAddress } from "@/lib/auth/client-address";
-import type { CurrentUser } from "@/lib/auth/guard";
-import { canOpenFiles, isStaff } from "@/lib/auth/policy";
+import { canOpenStoredFile } from "@/lib/auth/policy";
 import { AppError } from "@/lib/errors";
 import { defineRoute } from "@/lib/server/define-route";
 import { openUploadedFile } from "@/lib/uploads/uploadthing";
 
 export const runtime = "nodejs";
-
-type Stored = NonNullable<Awaited<ReturnType<typeof findStoredFile>>>;
-
-/** May this user open this file? Request files follow the policy (firm scope, controlled clearance). */
-function mayOpen(user: CurrentUser, f: Stored): boolean {
-  if (f.kind === "upload") {
-    if (f.uploaderId === user.id) return true;
-    return isStaff(user.role);
-  }
-  return canOpenFiles(user, { orgId: f.orgId, createdById: f.createdById, isControlled: f.isControlled });
-}
 
 const safeName = (name: string) => name.replace(/[^\w.\- ]+/g, "_").slice(0, 120) || "file";
 
@@ -31,7 +19,7 @@ const safeName = (name: string) => name.replace(/[^\w.\- ]+/g, "_").slice(0, 120
 export const GET = defineRoute<"signed-in", undefined, undefined, { id: string }>({ access: "signed-in" }, async ({ req, user, db, params: { id } }) => {
   const file = id.length <= 64 ? await findStoredFile(db, id) : null;
   const ip = clientAddress(req.headers);
-  if (!file || !mayOpen(user, file)) {
+  if (!file || !canOpenStoredFile(user, file)) {
     await writeAudit(db, { actorId: user.id, action: "file.download_refused", entityType: "file", entityId: id.slice(0, 64), orgId: file?.orgId ?? null, ip });
     throw new AppError("not_found:file", "That file was not found.");
   }
