@@ -8,7 +8,8 @@
  */
 import { createClient } from "@libsql/client";
 import { DEMO_PASSWORDS, DEMO_USERS } from "@/lib/seed/data";
-import { checkDatabase, pendingDeposits, type CheckReport } from "./faults-core";
+import { checkDatabase, type CheckReport } from "./faults-core";
+import { pendingDeposits } from "./faults-kill";
 import type { HardStack } from "./hard-stack";
 import { listActions, Session } from "./http-client";
 import { busyLines } from "./stack";

@@ -9,7 +9,9 @@
 import { readdirSync, statSync } from "node:fs";
 import { buildIfMissingFor } from "./build-if-missing";
 import { concurrentWrites } from "./faults-concurrency";
-import { diskFault, mountSmallStore, prepareFaultData, stageChangeFault, uploadFault, webhookFault, type CheckReport } from "./faults-core";
+import { prepareFaultData, type CheckReport } from "./faults-core";
+import { stageChangeFault, webhookFault } from "./faults-kill";
+import { diskFault, mountSmallStore, uploadFault } from "./faults-storage";
 import { startHardStack } from "./hard-stack";
 
 const DIST = process.env.FAULT_DIST_DIR ?? ".next-hard";

@@ -5,7 +5,9 @@
  * where mounting is not allowed).
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { diskFault, mountSmallStore, prepareFaultData, stageChangeFault, uploadFault, webhookFault } from "../../lib/scripts/faults-core";
+import { prepareFaultData } from "../../lib/scripts/faults-core";
+import { stageChangeFault, webhookFault } from "../../lib/scripts/faults-kill";
+import { diskFault, mountSmallStore, uploadFault } from "../../lib/scripts/faults-storage";
 import { startHardStack, type HardStack } from "../../lib/scripts/hard-stack";
 import { E2E_DIST_DIR } from "./global-setup";
 
