@@ -14,12 +14,11 @@ import { resetStripeClient } from "../../lib/payments/stripe";
 import { migrateDatabase } from "../../lib/scripts/migrate";
 import { startStripeFake, type StripeFake } from "../../mocks/stripe/server";
 import { USER_BY_ROLE, userIdOf } from "./admin-setup";
+import { dbRef, session } from "../support/integration";
 
-const session = vi.hoisted(() => ({ current: null as null | { user: { id: string } } }));
-vi.mock("@/lib/auth/config", () => ({ auth: async () => session.current }));
-vi.mock("@/lib/auth/session", () => ({ currentSession: async () => (session.current?.user?.id ? { userId: session.current.user.id, sessionVersion: 0 } : null) }));
-const dbRef = vi.hoisted(() => ({ db: null as unknown }));
-vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
+vi.mock("@/lib/auth/config", async () => (await import("../support/integration")).authConfigMock);
+vi.mock("@/lib/auth/session", async () => (await import("../support/integration")).sessionMock);
+vi.mock("@/db/client", async (importOriginal) => (await import("../support/integration")).dbClientMock(importOriginal));
 vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
 const notify = vi.hoisted(() => ({
   notifyQuoteReady: vi.fn(async (_id: string) => undefined),

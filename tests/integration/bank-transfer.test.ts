@@ -7,13 +7,12 @@ import { resetEnvCache } from "../../lib/env";
 import { resetStripeClient } from "../../lib/payments/stripe";
 import { startStripeFake, type StripeFake } from "../../mocks/stripe/server";
 import { createTestDb, type TestDb } from "../helpers/test-db";
+import { dbRef, session } from "../support/integration";
 
-const session = vi.hoisted(() => ({ current: null as null | { user: { id: string } } }));
-vi.mock("@/lib/auth/config", () => ({ auth: async () => session.current }));
-vi.mock("@/lib/auth/session", () => ({ currentSession: async () => (session.current?.user?.id ? { userId: session.current.user.id, sessionVersion: 0 } : null) }));
-const dbRef = vi.hoisted(() => ({ db: null as unknown }));
-vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
-vi.mock("next/cache", () => ({ revalidatePath: () => {} }));
+vi.mock("@/lib/auth/config", async () => (await import("../support/integration")).authConfigMock);
+vi.mock("@/lib/auth/session", async () => (await import("../support/integration")).sessionMock);
+vi.mock("@/db/client", async (importOriginal) => (await import("../support/integration")).dbClientMock(importOriginal));
+vi.mock("next/cache", async () => (await import("../support/integration")).nextCacheMock);
 const mails = vi.hoisted(() => ({ paid: [] as string[] }));
 vi.mock("@/lib/email/notify", () => ({ notifyDepositReceived: async (id: string) => void mails.paid.push(id), notifyRequestReceived: async () => {}, notifyShipped: async () => {}, notifyBalanceDue: async () => {} }));
 

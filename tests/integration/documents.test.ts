@@ -13,12 +13,11 @@ import { formatCents } from "../../lib/money";
 import { parseDocumentNumber } from "../../lib/documents/numbering";
 import { pdfText } from "../helpers/pdf-text";
 import { createTestDb, type TestDb } from "../helpers/test-db";
+import { dbRef, session } from "../support/integration";
 
-const session = vi.hoisted(() => ({ current: null as null | { user: { id: string } } }));
-vi.mock("@/lib/auth/config", () => ({ auth: async () => session.current }));
-vi.mock("@/lib/auth/session", () => ({ currentSession: async () => (session.current?.user?.id ? { userId: session.current.user.id, sessionVersion: 0 } : null) }));
-const dbRef = vi.hoisted(() => ({ db: null as unknown }));
-vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
+vi.mock("@/lib/auth/config", async () => (await import("../support/integration")).authConfigMock);
+vi.mock("@/lib/auth/session", async () => (await import("../support/integration")).sessionMock);
+vi.mock("@/db/client", async (importOriginal) => (await import("../support/integration")).dbClientMock(importOriginal));
 
 let t: TestDb;
 let db: Db;

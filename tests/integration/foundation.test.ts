@@ -6,13 +6,12 @@ import { transitionStage } from "../../lib/orders/transition";
 import { memberships, organisations, requests, stageEvents, users, auditLog } from "../../db/schema";
 import { FLOW } from "../../lib/orders/stages";
 import { createTestDb, type TestDb } from "../helpers/test-db";
+import { dbRef, session } from "../support/integration";
 
 // The guard reads the session through Auth.js; here the session is whatever the test says.
-const session = vi.hoisted(() => ({ current: null as null | { user: { id: string } } }));
-vi.mock("@/lib/auth/config", () => ({ auth: async () => session.current }));
-vi.mock("@/lib/auth/session", () => ({ currentSession: async () => (session.current?.user?.id ? { userId: session.current.user.id, sessionVersion: 0 } : null) }));
-const dbRef = vi.hoisted(() => ({ db: null as unknown }));
-vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
+vi.mock("@/lib/auth/config", async () => (await import("../support/integration")).authConfigMock);
+vi.mock("@/lib/auth/session", async () => (await import("../support/integration")).sessionMock);
+vi.mock("@/db/client", async (importOriginal) => (await import("../support/integration")).dbClientMock(importOriginal));
 
 let t: TestDb;
 let db: Db;

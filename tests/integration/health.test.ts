@@ -2,9 +2,9 @@ import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { eq } from "drizzle-orm";
 import { analyses, fileRevisions, parts, requests } from "../../db/schema";
 import { createTestDb, type TestDb } from "../helpers/test-db";
+import { dbRef } from "../support/integration";
 
-const dbRef = vi.hoisted(() => ({ db: null as unknown }));
-vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
+vi.mock("@/db/client", async (importOriginal) => (await import("../support/integration")).dbClientMock(importOriginal));
 
 let t: TestDb;
 // The health door is public: it never reads a session, so the sign-in module stays out.

@@ -3,13 +3,12 @@ import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { Db } from "../../db/client";
 import { auditLog, documents, issuedDocuments, orders, organisations, payments, quotes, requests, stageEvents, uploads, users } from "../../db/schema";
 import { createTestDb, type TestDb } from "../helpers/test-db";
+import { dbRef, session } from "../support/integration";
 
-const session = vi.hoisted(() => ({ current: null as null | { user: { id: string } } }));
-vi.mock("@/lib/auth/config", () => ({ auth: async () => session.current }));
-vi.mock("@/lib/auth/session", () => ({ currentSession: async () => (session.current?.user?.id ? { userId: session.current.user.id, sessionVersion: 0 } : null) }));
-const dbRef = vi.hoisted(() => ({ db: null as unknown }));
-vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
-vi.mock("next/cache", () => ({ revalidatePath: () => {} }));
+vi.mock("@/lib/auth/config", async () => (await import("../support/integration")).authConfigMock);
+vi.mock("@/lib/auth/session", async () => (await import("../support/integration")).sessionMock);
+vi.mock("@/db/client", async (importOriginal) => (await import("../support/integration")).dbClientMock(importOriginal));
+vi.mock("next/cache", async () => (await import("../support/integration")).nextCacheMock);
 vi.mock("@/lib/email/notify", () => ({ notifyShipped: async () => {}, notifyBalanceDue: async () => {}, notifyScheduled: async () => {}, notifyRequestReceived: async () => {}, notifyDepositReceived: async () => {} }));
 // Paying the deposit by card is covered by portal-flow; here the payment page must only not be reached on account.
 const checkout = vi.hoisted(() => ({ calls: 0 }));

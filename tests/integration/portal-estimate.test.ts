@@ -7,12 +7,11 @@ import { binaryStl, box } from "../../mocks/fixtures/meshes";
 import { startFileServer } from "../helpers/file-server";
 import { createTestDb, type TestDb } from "../helpers/test-db";
 import type * as PoolModule from "../../lib/estimating/pool";
+import { dbRef, session } from "../support/integration";
 
-const session = vi.hoisted(() => ({ current: null as null | { user: { id: string } } }));
-vi.mock("@/lib/auth/config", () => ({ auth: async () => session.current }));
-vi.mock("@/lib/auth/session", () => ({ currentSession: async () => (session.current?.user?.id ? { userId: session.current.user.id, sessionVersion: 0 } : null) }));
-const dbRef = vi.hoisted(() => ({ db: null as unknown }));
-vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
+vi.mock("@/lib/auth/config", async () => (await import("../support/integration")).authConfigMock);
+vi.mock("@/lib/auth/session", async () => (await import("../support/integration")).sessionMock);
+vi.mock("@/db/client", async (importOriginal) => (await import("../support/integration")).dbClientMock(importOriginal));
 const files = vi.hoisted(() => new Map<string, Uint8Array>());
 // Storage: the route hands the worker a signed URL; here it points at a small local file server.
 const storage = vi.hoisted(() => ({ base: "" }));

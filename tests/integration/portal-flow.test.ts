@@ -8,14 +8,13 @@ import { resetEnvCache } from "../../lib/env";
 import { resetStripeClient } from "../../lib/payments/stripe";
 import { startFileServer } from "../helpers/file-server";
 import { createTestDb, type TestDb } from "../helpers/test-db";
+import { dbRef, session } from "../support/integration";
 
 // The guard reads the session through Auth.js; here the session is whatever the test says.
-const session = vi.hoisted(() => ({ current: null as null | { user: { id: string } } }));
-vi.mock("@/lib/auth/config", () => ({ auth: async () => session.current }));
-vi.mock("@/lib/auth/session", () => ({ currentSession: async () => (session.current?.user?.id ? { userId: session.current.user.id, sessionVersion: 0 } : null) }));
-const dbRef = vi.hoisted(() => ({ db: null as unknown }));
-vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
-vi.mock("next/cache", () => ({ revalidatePath: () => {} }));
+vi.mock("@/lib/auth/config", async () => (await import("../support/integration")).authConfigMock);
+vi.mock("@/lib/auth/session", async () => (await import("../support/integration")).sessionMock);
+vi.mock("@/db/client", async (importOriginal) => (await import("../support/integration")).dbClientMock(importOriginal));
+vi.mock("next/cache", async () => (await import("../support/integration")).nextCacheMock);
 // Stored files: the test's own bytes by key (the upload fake is covered by its own tests).
 const files = vi.hoisted(() => new Map<string, Uint8Array>());
 // The analysis worker fetches by URL: a small local server hands out the same bytes.

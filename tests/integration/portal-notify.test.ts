@@ -7,9 +7,9 @@ import { resetEnvCache } from "../../lib/env";
 import { resetResendClient } from "../../lib/email/send";
 import { createTestDb, type TestDb } from "../helpers/test-db";
 import { formatDate } from "../../lib/dates";
+import { dbRef } from "../support/integration";
 
-const dbRef = vi.hoisted(() => ({ db: null as unknown }));
-vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
+vi.mock("@/db/client", async (importOriginal) => (await import("../support/integration")).dbClientMock(importOriginal));
 
 let t: TestDb;
 let db: Db;

@@ -7,9 +7,9 @@ import { startResendFake, type ResendFake } from "../../mocks/resend/server";
 import { resetEnvCache } from "../../lib/env";
 import { resetResendClient } from "../../lib/email/send";
 import { createTestDb, type TestDb } from "../helpers/test-db";
+import { dbRef } from "../support/integration";
 
-const dbRef = vi.hoisted(() => ({ db: null as unknown }));
-vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
+vi.mock("@/db/client", async (importOriginal) => (await import("../support/integration")).dbClientMock(importOriginal));
 // The webhook's door takes no session (its access is the signature); the sign-in module stays out.
 vi.mock("@/lib/auth/config", () => ({ auth: async () => null }));
 

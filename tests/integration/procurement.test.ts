@@ -7,13 +7,12 @@ import { crateFor, freightTo, zoneByKey, type FreightRules } from "../../lib/est
 import type { EstimateResult } from "../../lib/estimating/types";
 import { listPartsWithAnalysis } from "../../db/queries/parts";
 import { createTestDb, type TestDb } from "../helpers/test-db";
+import { dbRef, session } from "../support/integration";
 
-const session = vi.hoisted(() => ({ current: null as null | { user: { id: string } } }));
-vi.mock("@/lib/auth/config", () => ({ auth: async () => session.current }));
-vi.mock("@/lib/auth/session", () => ({ currentSession: async () => (session.current?.user?.id ? { userId: session.current.user.id, sessionVersion: 0 } : null) }));
-const dbRef = vi.hoisted(() => ({ db: null as unknown }));
-vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
-vi.mock("next/cache", () => ({ revalidatePath: () => {} }));
+vi.mock("@/lib/auth/config", async () => (await import("../support/integration")).authConfigMock);
+vi.mock("@/lib/auth/session", async () => (await import("../support/integration")).sessionMock);
+vi.mock("@/db/client", async (importOriginal) => (await import("../support/integration")).dbClientMock(importOriginal));
+vi.mock("next/cache", async () => (await import("../support/integration")).nextCacheMock);
 vi.mock("@/lib/email/notify", () => ({ notifyRequestReceived: async () => {}, notifyDepositReceived: async () => {} }));
 // The payment page after acceptance is covered by portal-flow; here it must only not be reached.
 vi.mock("@/lib/payments/checkout", () => ({ openCheckout: async () => ({ url: null, isComplete: false }) }));

@@ -11,6 +11,7 @@ import { users } from "../../db/schema";
 import type { SendEmailInput } from "../../lib/email/send";
 import { createTestDb, type TestDb } from "../helpers/test-db";
 import { userIdOf } from "./admin-setup";
+import { dbRef } from "../support/integration";
 
 /** Auth.js's view of each cookie: whose it is and the version it was signed in at. */
 const tokens = vi.hoisted(() => ({ byCookie: new Map<string, { id: string; sv: number }>(), current: "", verified: 0 }));
@@ -25,8 +26,7 @@ vi.mock("@/lib/auth/config", () => ({
     return t ? { user: { id: t.id }, sessionVersion: t.sv, expires: "" } : null;
   },
 }));
-const dbRef = vi.hoisted(() => ({ db: null as unknown }));
-vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
+vi.mock("@/db/client", async (importOriginal) => (await import("../support/integration")).dbClientMock(importOriginal));
 vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
 
 let t: TestDb;

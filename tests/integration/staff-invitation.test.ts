@@ -14,12 +14,11 @@ import { verifyPassword } from "../../lib/auth/password";
 import type { SendEmailInput } from "../../lib/email/send";
 import { createTestDb, type TestDb } from "../helpers/test-db";
 import { interruptOf, userIdOf } from "./admin-setup";
+import { dbRef, session } from "../support/integration";
 
-const session = vi.hoisted(() => ({ current: null as null | { user: { id: string } } }));
-vi.mock("@/lib/auth/config", () => ({ auth: async () => session.current }));
-vi.mock("@/lib/auth/session", () => ({ currentSession: async () => (session.current?.user?.id ? { userId: session.current.user.id, sessionVersion: 0 } : null) }));
-const dbRef = vi.hoisted(() => ({ db: null as unknown }));
-vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
+vi.mock("@/lib/auth/config", async () => (await import("../support/integration")).authConfigMock);
+vi.mock("@/lib/auth/session", async () => (await import("../support/integration")).sessionMock);
+vi.mock("@/db/client", async (importOriginal) => (await import("../support/integration")).dbClientMock(importOriginal));
 vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
 const sent = vi.hoisted(() => [] as SendEmailInput[]);
 vi.mock("@/lib/email/send", () => ({ sendEmail: vi.fn(async (m: SendEmailInput) => (sent.push(m), { id: `m${sent.length}` })) }));

@@ -12,12 +12,11 @@ import { DEMO_TOTP_SECRETS } from "@/lib/seed/data";
 import { totpCodeForStep, totpStepAt } from "../../lib/auth/two-factor";
 import { createTestDb, type TestDb } from "../helpers/test-db";
 import { userIdOf } from "./admin-setup";
+import { dbRef, session } from "../support/integration";
 
-const session = vi.hoisted(() => ({ current: null as null | { user: { id: string } } }));
-vi.mock("@/lib/auth/config", () => ({ auth: async () => session.current }));
-vi.mock("@/lib/auth/session", () => ({ currentSession: async () => (session.current?.user?.id ? { userId: session.current.user.id, sessionVersion: 0 } : null) }));
-const dbRef = vi.hoisted(() => ({ db: null as unknown }));
-vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
+vi.mock("@/lib/auth/config", async () => (await import("../support/integration")).authConfigMock);
+vi.mock("@/lib/auth/session", async () => (await import("../support/integration")).sessionMock);
+vi.mock("@/db/client", async (importOriginal) => (await import("../support/integration")).dbClientMock(importOriginal));
 vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
 
 let t: TestDb;
