@@ -5,12 +5,15 @@ import { getDb, type Db } from "@/db/client";
 import { AppError, isAppError } from "@/lib/errors";
 import { errorFields } from "@/lib/observability/log";
 import { requestLog } from "@/lib/observability/request-id";
+import type { AsSent } from "@/lib/contracts/wire";
 import { enter, type Access, type UserFor } from "./access";
 
 type Params = Record<string, string | string[]>;
 type Infer<S> = S extends z.ZodType ? z.output<S> : undefined;
+/** What the handler may return: a Response, or data matching the contract as sent (Dates allowed where strings go out). */
+type Answer<R> = R extends z.ZodType ? AsSent<z.output<R>> | Response : unknown;
 
-interface RouteSpec<A extends Access, Q extends z.ZodType | undefined, B extends z.ZodType | undefined> {
+interface RouteSpec<A extends Access, Q extends z.ZodType | undefined, B extends z.ZodType | undefined, R extends z.ZodType | undefined = undefined> {
   /** Who may call it (lib/server/access.ts). */
   access: A;
   /** The query string, parsed as an object of strings (coerce numbers and dates in the schema). */
@@ -19,6 +22,12 @@ interface RouteSpec<A extends Access, Q extends z.ZodType | undefined, B extends
   body?: B;
   /** Extra headers on a JSON answer (e.g. `{ "cache-control": "no-store" }`). */
   headers?: Record<string, string>;
+  /**
+   * The answer's contract (lib/contracts/), shared with the screen that reads it. Types the
+   * handler's data; outside production each JSON answer is checked against it, so a route that
+   * drifts from its contract fails its tests rather than a screen.
+   */
+  response?: R;
 }
 
 export interface RouteContext<A extends Access, Q, B, P> {
@@ -44,6 +53,15 @@ export function errorResponse(e: unknown): Response {
   return NextResponse.json({ error: { code: "internal", message: "Something went wrong on our side." } }, { status: 500 });
 }
 
+const CHECK_CONTRACTS = process.env.NODE_ENV !== "production";
+
+/** The answer as JSON carries it, against its contract; a mismatch is the route's defect (500, logged). */
+function checkContract(schema: z.ZodType, out: unknown): void {
+  const sent: unknown = JSON.parse(JSON.stringify(out));
+  const r = schema.safeParse(sent);
+  if (!r.success) throw new Error(`the answer does not match its contract: ${r.error.issues.slice(0, 3).map((i) => `${i.path.join(".")}: ${i.message}`).join("; ")}`);
+}
+
 async function readBody(req: Request): Promise<unknown> {
   return req.json().catch(() => {
     throw new AppError("invalid_input", "Send a JSON body.");
@@ -57,9 +75,9 @@ async function readBody(req: Request): Promise<unknown> {
  *
  *     export const GET = defineRoute({ access: "accounts:ledger", query: ledgerQuerySchema }, async ({ query, db }) => listLedger(db, query));
  */
-export function defineRoute<A extends Access, Q extends z.ZodType | undefined = undefined, B extends z.ZodType | undefined = undefined, P extends Params = Params>(
-  spec: RouteSpec<A, Q, B>,
-  handler: (ctx: RouteContext<A, Q, B, P>) => Promise<unknown>,
+export function defineRoute<A extends Access, Q extends z.ZodType | undefined = undefined, B extends z.ZodType | undefined = undefined, P extends Params = Params, R extends z.ZodType | undefined = undefined>(
+  spec: RouteSpec<A, Q, B, R>,
+  handler: (ctx: RouteContext<A, Q, B, P>) => Promise<Answer<R>>,
 ): (req: Request, ctx?: { params: Promise<P> }) => Promise<Response> {
   return async (req, ctx) => {
     try {
@@ -68,7 +86,9 @@ export function defineRoute<A extends Access, Q extends z.ZodType | undefined = 
       const body = (spec.body ? spec.body.parse(await readBody(req)) : undefined) as Infer<B>;
       const params = ((await ctx?.params) ?? {}) as P;
       const out = await handler({ req, params, user, db: getDb(), query, body });
-      return out instanceof Response ? out : NextResponse.json(out, { headers: spec.headers });
+      if (out instanceof Response) return out;
+      if (spec.response && CHECK_CONTRACTS) checkContract(spec.response, out);
+      return NextResponse.json(out, { headers: spec.headers });
     } catch (e) {
       return errorResponse(e);
     }

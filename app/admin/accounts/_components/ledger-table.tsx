@@ -9,24 +9,10 @@ import { formatCents } from "@/lib/money";
 import { dateText } from "@/components/admin/format";
 import { Pager } from "@/components/admin/pager";
 import { PaymentStateBadge } from "@/components/stage-badge";
-import { PAYMENT_KIND_LABEL, PAYMENT_STATE_LABEL, type PaymentState } from "@/lib/labels";
+import { PAYMENT_KIND_LABEL, PAYMENT_STATE_LABEL } from "@/lib/labels";
 import { useServerTable } from "@/components/admin/use-server-table";
+import type { LedgerAnswer, LedgerRow } from "@/lib/contracts/admin";
 
-interface LedgerRow {
-  id: string;
-  reference: string;
-  projectName: string;
-  firmName: string;
-  kind: "deposit" | "balance";
-  status: PaymentState;
-  amountCents: number;
-  feeCents: number | null;
-  refundedCents: number;
-  currency: string;
-  createdAt: string;
-  paidAt: string | null;
-  receiptNumber: string | null;
-}
 
 const columns: ColumnDef<LedgerRow, unknown>[] = [
   { accessorKey: "reference", header: "Order", cell: ({ row }) => <Link className="font-medium text-kiln-700 underline" href={`/admin/accounts/payments/${row.original.id}`}><span className="whitespace-nowrap">{row.original.reference}</span></Link> },
@@ -48,7 +34,7 @@ const today = () => new Date().toISOString().slice(0, 10);
 export function LedgerTable() {
   const [from, setFrom] = useState(monthAgo);
   const [to, setTo] = useState(today);
-  const { table, pager, firstPage } = useServerTable<LedgerRow, { rows: LedgerRow[]; total: number; page: number; pageSize: number }>("/api/admin/ledger", {
+  const { table, pager, firstPage } = useServerTable<LedgerRow, LedgerAnswer>("/api/admin/ledger", {
     server: { initialSorting: [{ id: "createdAt", desc: true }], filterParams: ["status", "kind"] },
     params: { from, to },
     enabled: Boolean(from && to),

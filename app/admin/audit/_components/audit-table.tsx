@@ -8,24 +8,8 @@ import { dateTimeText } from "@/components/admin/format";
 import { Pager } from "@/components/admin/pager";
 import { useApi } from "@/components/admin/use-api";
 import { describeChange } from "@/lib/audit-text";
+import type { AuditAnswer, AuditRow } from "@/lib/contracts/admin";
 
-interface AuditRow {
-  id: string;
-  at: string;
-  action: string;
-  entityType: string;
-  entityId: string | null;
-  actorEmail: string | null;
-  before: unknown;
-  after: unknown;
-}
-interface Answer {
-  rows: AuditRow[];
-  total: number;
-  page: number;
-  pageSize: number;
-  options: { actors: { id: string; email: string }[]; entityTypes: string[] };
-}
 
 
 const columns: ColumnDef<AuditRow, unknown>[] = [
@@ -64,7 +48,7 @@ export function AuditTable() {
   const [page, setPage] = useState(1);
   const params = new URLSearchParams({ page: String(page) });
   for (const [k, v] of Object.entries({ actorId, entityType, from, to })) if (v) params.set(k, v);
-  const { data, error, isLoading, reload } = useApi<Answer>(`/api/admin/audit?${params}`);
+  const { data, error, isLoading, reload } = useApi<AuditAnswer>(`/api/admin/audit?${params}`);
   const reset = <T,>(fn: (v: T) => void) => (v: T) => (fn(v), setPage(1));
   return (
     <div className="space-y-3">

@@ -5,20 +5,8 @@ import { DataTable, type ColumnDef } from "@/components/data-table";
 import { Badge } from "@/components/ui/badge";
 import { dateText } from "@/components/admin/format";
 import { useServerTable } from "@/components/admin/use-server-table";
+import type { InboxRow } from "@/lib/contracts/admin";
 
-interface InboxRow {
-  id: string;
-  reference: string;
-  projectName: string;
-  firmName: string;
-  stage: string;
-  neededBy: string | null;
-  submittedAt: string | null;
-  isControlled: boolean;
-  cureProcess: string;
-  partCount: number;
-  staleQuotes: number;
-}
 
 const columns: ColumnDef<InboxRow, unknown>[] = [
   {

@@ -7,21 +7,13 @@ import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input, Select } from "@/components/ui/input";
 import { dateText } from "@/components/admin/format";
 import { useApi } from "@/components/admin/use-api";
+import type { StaffAnswer, StaffRow } from "@/lib/contracts/admin";
 
-interface StaffRow {
-  id: string;
-  name: string | null;
-  email: string;
-  role: string;
-  isControlledCleared: boolean;
-  disabledAt: string | null;
-  twoFactorSince: string | null;
-}
 const ROLES = ["sales", "production", "accounts", "admin"];
 
 /** Staff, their roles and clearance; invite by e-mail. The server keeps one admin at least. */
 export function StaffTable({ selfId }: { selfId: string }) {
-  const { data, error, isLoading, reload } = useApi<{ rows: StaffRow[]; invitations: { id: string; email: string; role: string; expiresAt: string; isExpired: boolean }[] }>("/api/admin/staff");
+  const { data, error, isLoading, reload } = useApi<StaffAnswer>("/api/admin/staff");
   const [msg, setMsg] = useState<{ tone: "ok" | "error"; text: string } | null>(null);
   const [pending, start] = useTransition();
   const change = (userId: string, patch: { role?: string; isControlledCleared?: boolean; disabled?: boolean }) =>

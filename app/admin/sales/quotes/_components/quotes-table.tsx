@@ -10,29 +10,8 @@ import { QuoteStateBadge } from "@/components/stage-badge";
 import { Badge } from "@/components/ui/badge";
 import { QUOTE_STATE_LABEL, type QuoteState } from "@/lib/labels";
 import { useServerTable } from "@/components/admin/use-server-table";
+import type { QuoteRow, QuotesAnswer } from "@/lib/contracts/admin";
 
-interface QuoteRow {
-  id: string;
-  requestId: string;
-  reference: string;
-  projectName: string;
-  firmName: string;
-  version: number;
-  status: QuoteState;
-  isStale: boolean;
-  totalCents: number;
-  currency: string;
-  issuedAt: string | null;
-  validUntil: string | null;
-  createdAt: string;
-}
-interface QuotesAnswer {
-  rows: QuoteRow[];
-  total: number;
-  page: number;
-  pageSize: number;
-  stats: { winRate: { won: number; lost: number; open: number; rate: number | null }; turnaround: { count: number; meanHours: number | null; medianHours: number | null } };
-}
 
 const columns: ColumnDef<QuoteRow, unknown>[] = [
   { accessorKey: "reference", header: "Request", cell: ({ row }) => <Link className="font-medium text-kiln-700 underline" href={`/admin/sales/requests/${row.original.requestId}`}>{row.original.reference}</Link> },

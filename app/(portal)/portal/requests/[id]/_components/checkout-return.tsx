@@ -5,6 +5,7 @@ import { useRouter } from "next/navigation";
 import { useEffect } from "react";
 import { Alert } from "@/components/ui/alert";
 import { fetchJson } from "@/components/portal/query-provider";
+import type { RequestStatus } from "@/lib/contracts/portal";
 
 /**
  * Shown after the payment page sends the client back. On success it waits for the webhook to
@@ -15,7 +16,7 @@ export function CheckoutReturn({ requestId, outcome, stage }: { requestId: strin
   const waiting = outcome === "success" && (stage === "accepted" || stage === "shipped");
   const q = useQuery({
     queryKey: ["request-stage", requestId],
-    queryFn: () => fetchJson<{ stage: string }>(`/api/portal/requests/${requestId}`),
+    queryFn: () => fetchJson<RequestStatus>(`/api/portal/requests/${requestId}`),
     enabled: waiting,
     refetchInterval: 1000,
   });

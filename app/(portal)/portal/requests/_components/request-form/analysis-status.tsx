@@ -5,15 +5,10 @@ import { useEffect, useState } from "react";
 import { exportHint } from "@/lib/analysis/export-hints";
 import type { EstimateResult } from "@/lib/estimating/types";
 import { fetchJson } from "@/components/portal/query-provider";
+import type { AnalysisPoll } from "@/lib/contracts/portal";
 
-export interface AnalysisPoll {
-  id: string;
-  status: "queued" | "running" | "done" | "failed";
-  progress: number;
-  stageLabel: string | null;
-  error: { code: string | null; message: string | null } | null;
-  result: EstimateResult | null;
-}
+export type { AnalysisPoll };
+
 
 /** Poll one analysis row until it is done or failed. */
 export function useAnalysis(analysisId: string | null) {

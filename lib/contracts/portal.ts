@@ -1,0 +1,31 @@
+import { z } from "zod";
+import type { EstimateResult } from "@/lib/estimating/types";
+import { STAGE_LABEL } from "@/lib/labels";
+import { keysOf, wireDate } from "./wire";
+
+/** The portal's polled routes, as sent (app/api/portal/**), shared with the hooks that poll them. */
+
+/** GET /api/portal/analyses/:id: one analysis's progress, and its estimate when done. */
+export const analysisPoll = z.object({
+  id: z.string(),
+  partId: z.string(),
+  revisionId: z.string(),
+  status: z.enum(["queued", "running", "done", "failed"]),
+  progress: z.number(),
+  stageLabel: z.string().nullable(),
+  error: z.object({ code: z.string().nullable(), message: z.string().nullable() }).nullable(),
+  /** The engine's result (lib/estimating/types.ts, its own typed contract); a client's view drops the alternatives' prices. */
+  result: z.custom<EstimateResult>((v) => typeof v === "object" && v !== null).nullable(),
+});
+export type AnalysisPoll = z.infer<typeof analysisPoll>;
+
+/** GET /api/portal/requests/:id: one request's stage, polled after paying. */
+export const requestStatus = z.object({
+  id: z.string(),
+  reference: z.string(),
+  projectName: z.string(),
+  stage: keysOf(STAGE_LABEL),
+  updatedAt: wireDate,
+  order: z.object({ id: z.string(), totalCents: z.number().int(), depositCents: z.number().int() }).nullable(),
+});
+export type RequestStatus = z.infer<typeof requestStatus>;
