@@ -10,7 +10,9 @@ describe("exportHint", () => {
     expect(exportHint("notes.docx")).toMatch(/send STL, OBJ, 3MF, STEP/);
     expect(exportHint("mesh:bad-coordinate")).toMatch(/send STL/);
     // Not about the file: no advice to re-export.
-    expect(exportHint("job:timeout")).toBe("");
+    expect(exportHint("timeout:estimate")).toBe("");
+    expect(exportHint("unavailable:estimator")).toBe("");
+    expect(exportHint("bad_gateway:storage")).toBe("");
     expect(exportHint("busy")).toBe("");
     expect(exportHint(null)).toBe("");
   });

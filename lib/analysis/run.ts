@@ -5,8 +5,9 @@ import { claimAnalysis, getAnalysisJob, listStrandedAnalyses, renewAnalysisLease
 import { loadCatalogue } from "../../db/queries/catalogue";
 import { createAnalysis, getAnalysis, updateAnalysis } from "../../db/queries/parts";
 import type { AnalyseOptions } from "../estimating/analyse";
-import { isEstimateInputError } from "../estimating/errors";
-import { EstimateJobError, getEstimatePool, OwnerBusyError, QueueFullError, type EstimatePool, type QueuePlace } from "../estimating/pool";
+import { getEstimatePool, OwnerBusyError, QueueFullError, type EstimatePool, type QueuePlace } from "../estimating/pool";
+import { isAppError } from "../errors";
+import { estimatorError } from "./estimator";
 import { errorFields, logFor } from "../observability/log";
 import { signedFileUrl } from "../uploads/uploadthing";
 
@@ -186,16 +187,24 @@ async function runOnce(db: Db, analysisId: string, deps: RunDeps): Promise<Outco
     });
     return { kind: "done" };
   } catch (e) {
-    if (isEstimateInputError(e)) return { kind: "failed", code: e.code, message: e.message };
-    if (e instanceof EstimateJobError) {
-      // A crashed worker or unreachable storage may go better next time; a time-out will not.
-      const retryable = e.code === "worker-failed" || e.code === "storage";
-      return { kind: retryable ? "retry" : "failed", code: `job:${e.code}`, message: e.message };
-    }
-    if (e instanceof QueueFullError || e instanceof OwnerBusyError) return { kind: "retry", code: "busy", message: "The estimator is busy; save the draft again in a minute to retry." };
+    return outcomeOfError(e, analysisId);
+  }
+}
+
+/**
+ * A failed run, through the estimator's one error table (lib/analysis/estimator.ts): a file the
+ * engine cannot read fails with the engine's code (its export advice keys on it); a time-out fails;
+ * storage, a dead worker or a busy estimator are tried again later.
+ */
+function outcomeOfError(e: unknown, analysisId: string): Outcome {
+  const mapped = estimatorError(e);
+  if (!isAppError(mapped)) {
     logFor({ analysisId }).error({ ...errorFields(e), event: "analysis.error" }, "analysis failed");
     return { kind: "retry", code: "internal", message: "The analysis could not run; please try again, or ask us to look at the file." };
   }
+  if (mapped.code.startsWith("unprocessable:")) return { kind: "failed", code: mapped.code.slice("unprocessable:".length), message: mapped.message };
+  if (mapped.code.startsWith("busy")) return { kind: "retry", code: "busy", message: "The estimator is busy; save the draft again in a minute to retry." };
+  return { kind: mapped.code === "timeout:estimate" ? "failed" : "retry", code: mapped.code, message: mapped.message };
 }
 
 /** For polling: the analysis row's status and progress, without the large result. */
