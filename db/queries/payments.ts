@@ -182,3 +182,23 @@ export async function isWebhookEventRecorded(db: Db | Tx, eventId: string) {
   const [row] = await db.select({ id: webhookEvents.id }).from(webhookEvents).where(eq(webhookEvents.id, eventId));
   return Boolean(row);
 }
+
+/** A paid payment's other pending checkouts of the same kind are moot: expired, their links dropped. */
+export async function expireOtherPendingPayments(tx: Db | Tx, payment: { id: string; orderId: string; kind: PaymentKind }) {
+  await tx
+    .update(payments)
+    .set({ status: "expired", checkoutUrl: null })
+    .where(and(eq(payments.orderId, payment.orderId), eq(payments.kind, payment.kind), eq(payments.status, "pending"), ne(payments.id, payment.id)));
+}
+
+/** The payment intent of a payment whose processing fee is not recorded yet (null otherwise). */
+export async function getIntentWithoutFee(db: Db | Tx, paymentId: string): Promise<string | null> {
+  const [p] = await db.select({ intent: payments.paymentIntentId, fee: payments.feeCents }).from(payments).where(eq(payments.id, paymentId));
+  return p?.intent && p.fee === null ? p.intent : null;
+}
+
+/** Record the processor's charge and fee where the fee is still unrecorded (safe to repeat). */
+export async function setProcessorFee(db: Db | Tx, paymentId: string, fee: { chargeId: string; feeCents: number }) {
+  await db.update(payments).set({ chargeId: fee.chargeId, feeCents: fee.feeCents }).where(and(eq(payments.id, paymentId), isNull(payments.feeCents)));
+}
+

@@ -1,11 +1,11 @@
-import { asc, eq } from "drizzle-orm";
 import type { Db } from "../../db/client";
 import type { Tx } from "../../db/queries/audit";
 import { getBillingAddress, listAddresses } from "../../db/queries/addresses";
 import { getCurrentRateCard, getRateCardById } from "../../db/queries/catalogue";
 import { listPartsWithAnalysis } from "../../db/queries/parts";
 import { getValidExemption } from "../../db/queries/tax-exemptions";
-import { quoteLines, type Address, type Quote, type TaxExemption } from "../../db/schema";
+import { listQuoteLines } from "../../db/queries/quotes";
+import type { Address, Quote, TaxExemption } from "../../db/schema";
 import { zoneFor, type Crate, type FreightRules, type FreightZone } from "../estimating/freight";
 import { orderFiguresFor, type OrderFigures } from "../quoting/acceptance";
 
@@ -34,7 +34,7 @@ export async function acceptanceContext(q: Db | Tx, input: { quote: Quote; orgId
     getBillingAddress(q, input.orgId),
     getValidExemption(q, input.orgId, input.now),
     listPartsWithAnalysis(q, input.requestId),
-    q.select().from(quoteLines).where(eq(quoteLines.quoteId, quote.id)).orderBy(asc(quoteLines.sort)),
+    listQuoteLines(q, quote.id),
     quote.rateCardId ? getRateCardById(q as Db, quote.rateCardId) : getCurrentRateCard(q as Db),
   ]);
   const rules = card?.params.freight ?? null;

@@ -1,10 +1,10 @@
 import "server-only";
-import { and, desc, eq, isNull } from "drizzle-orm";
 import type Stripe from "stripe";
 import type { Db } from "../../db/client";
 import { writeAudit } from "../../db/queries/audit";
 import { getOrderWithRequest, hasPaid, type PaymentKind } from "../../db/queries/payments";
-import { organisations, payments, type Payment, type TransferDetails } from "../../db/schema";
+import { getOpenTransfer, getOrgForProcessor, keepProcessorCustomer, setTransferInstructions, takePaymentForTransfer } from "../../db/queries/transfers";
+import type { Payment, TransferDetails } from "../../db/schema";
 import { AppError } from "../errors";
 import { getStripe } from "./stripe";
 
@@ -24,14 +24,12 @@ const PAYABLE: Record<PaymentKind, readonly string[]> = {
 
 /** The firm's customer record at the processor (bank-transfer account details hang on it), made once. */
 export async function ensureProcessorCustomer(db: Db, orgId: string, stripe: Stripe = getStripe()): Promise<string> {
-  const [org] = await db.select({ id: organisations.id, name: organisations.name, email: organisations.billingEmail, customer: organisations.processorCustomerId }).from(organisations).where(eq(organisations.id, orgId));
+  const org = await getOrgForProcessor(db, orgId);
   if (!org) throw new AppError("not_found:firm", "That firm was not found.");
   if (org.customer) return org.customer;
   const customer = await stripe.customers.create({ name: org.name, email: org.email ?? undefined, metadata: { orgId } }, { idempotencyKey: `customer/${orgId}` });
   // Two requests at once get the same customer (same key); the first write wins, the second is a no-op.
-  await db.update(organisations).set({ processorCustomerId: customer.id }).where(and(eq(organisations.id, orgId), isNull(organisations.processorCustomerId)));
-  const [after] = await db.select({ customer: organisations.processorCustomerId }).from(organisations).where(eq(organisations.id, orgId));
-  return after!.customer!;
+  return keepProcessorCustomer(db, orgId, customer.id);
 }
 
 const instructionsOf = (p: Payment): TransferInstructionsView => ({ paymentId: p.id, reference: p.transferReference!, details: p.transferDetails!, amountCents: p.amountCents, receivedCents: p.receivedCents, currency: p.currency });
@@ -54,31 +52,13 @@ export async function openBankTransfer(db: Db, input: { orderId: string; kind: P
   const amountCents = input.kind === "deposit" ? order.depositCents : order.balanceCents;
   if (amountCents <= 0) throw new AppError("conflict:amount", `Nothing is due for the ${input.kind}.`);
 
-  const [open] = await db
-    .select()
-    .from(payments)
-    .where(and(eq(payments.orderId, order.id), eq(payments.kind, input.kind), eq(payments.status, "pending"), eq(payments.method, "bank_transfer")))
-    .orderBy(desc(payments.createdAt))
-    .limit(1);
+  const open = await getOpenTransfer(db, order.id, input.kind);
   if (open?.transferReference && open.transferDetails) return instructionsOf(open);
 
   const customer = await ensureProcessorCustomer(db, order.orgId, stripe);
   const payment =
     open ??
-    (await db.transaction(async (tx) => {
-      // A pending payment never sent to a payment page (the balance made at shipping) becomes the transfer.
-      const [blank] = await tx
-        .select()
-        .from(payments)
-        .where(and(eq(payments.orderId, order.id), eq(payments.kind, input.kind), eq(payments.status, "pending"), isNull(payments.checkoutSessionId), eq(payments.receivedCents, 0)))
-        .limit(1);
-      if (blank) {
-        const [p] = await tx.update(payments).set({ method: "bank_transfer" }).where(eq(payments.id, blank.id)).returning();
-        return p!;
-      }
-      const [p] = await tx.insert(payments).values({ orderId: order.id, orgId: order.orgId, kind: input.kind, status: "pending", method: "bank_transfer", amountCents, currency: order.currency, createdById: input.userId }).returning();
-      return p!;
-    }));
+    (await db.transaction((tx) => takePaymentForTransfer(tx, { orderId: order.id, orgId: order.orgId, kind: input.kind, amountCents, currency: order.currency, createdById: input.userId })));
 
   const intent = await stripe.paymentIntents.create(
     {
@@ -98,10 +78,10 @@ export async function openBankTransfer(db: Db, input: { orderId: string; kind: P
   const aba = shown?.financial_addresses?.find((a) => a.type === "aba")?.aba;
   if (!shown?.reference || !aba) throw new AppError("unavailable", "The bank-transfer details could not be opened; try again in a moment.");
   const details: TransferDetails = { bankName: aba.bank_name, accountHolder: "Ostrevane Additive Works", accountNumber: aba.account_number, routingNumber: aba.routing_number, swiftCode: null };
-  const [saved] = await db.transaction(async (tx) => {
-    const rows = await tx.update(payments).set({ paymentIntentId: intent.id, transferReference: shown.reference, transferDetails: details }).where(eq(payments.id, payment.id)).returning();
+  const saved = await db.transaction(async (tx) => {
+    const row = await setTransferInstructions(tx, payment.id, { paymentIntentId: intent.id, transferReference: shown.reference!, transferDetails: details });
     await writeAudit(tx, { actorId: input.userId, action: "transfer.opened", entityType: "payment", entityId: payment.id, orgId: order.orgId, after: { kind: input.kind, amountCents: payment.amountCents, reference: shown.reference } });
-    return rows;
+    return row;
   });
-  return instructionsOf(saved!);
+  return instructionsOf(saved);
 }

@@ -1,7 +1,6 @@
-import { and, eq, isNull } from "drizzle-orm";
 import type Stripe from "stripe";
 import type { Db } from "../../db/client";
-import { payments } from "../../db/schema";
+import { getIntentWithoutFee, setProcessorFee } from "../../db/queries/payments";
 import { getStripe, retrieveChargeFee } from "./stripe";
 
 /**
@@ -11,10 +10,10 @@ import { getStripe, retrieveChargeFee } from "./stripe";
  * repeat. Answers what it recorded, or null when the processor has no settled charge yet.
  */
 export async function recordProcessorFee(db: Db, paymentId: string, stripe: Stripe = getStripe()): Promise<{ chargeId: string; feeCents: number } | null> {
-  const [p] = await db.select({ intent: payments.paymentIntentId, fee: payments.feeCents }).from(payments).where(eq(payments.id, paymentId));
-  if (!p?.intent || p.fee !== null) return null;
-  const found = await retrieveChargeFee(p.intent, stripe);
+  const intent = await getIntentWithoutFee(db, paymentId);
+  if (!intent) return null;
+  const found = await retrieveChargeFee(intent, stripe);
   if (!found) return null;
-  await db.update(payments).set({ chargeId: found.chargeId, feeCents: found.feeCents }).where(and(eq(payments.id, paymentId), isNull(payments.feeCents)));
+  await setProcessorFee(db, paymentId, found);
   return found;
 }

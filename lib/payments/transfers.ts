@@ -1,10 +1,10 @@
 import "server-only";
-import { and, eq, ne } from "drizzle-orm";
 import type { Db } from "../../db/client";
 import { writeAudit, type Tx } from "../../db/queries/audit";
-import { allocateReceiptNumber, getOrderWithRequest } from "../../db/queries/payments";
-import { transitionStage } from "../../lib/orders/transition";
-import { organisations, payments, transferFunds, type Payment } from "../../db/schema";
+import { allocateReceiptNumber, expireOtherPendingPayments, getOrderWithRequest } from "../../db/queries/payments";
+import { findTransferPayment, getArrivalByProcessorId, getOrgByProcessorCustomer, insertArrival, markReceivedPaid, setReceivedCents } from "../../db/queries/transfers";
+import { transitionStage } from "../orders/transition";
+import type { Payment } from "../../db/schema";
 import { issueDocumentInTx } from "../documents/issue";
 import { applyArrival, type ArrivalStatus } from "./terms";
 
@@ -33,14 +33,12 @@ export interface ArrivalResult {
  * it is whole. Short, over, late and unknown-reference arrivals are kept for accounts to settle.
  */
 export async function recordTransferArrival(tx: Tx, t: FundedTransaction): Promise<ArrivalResult> {
-  const [seen] = await tx.select({ id: transferFunds.id }).from(transferFunds).where(eq(transferFunds.processorId, t.id));
+  const seen = await getArrivalByProcessorId(tx, t.id);
   if (seen) return { status: "duplicate", fundsId: seen.id };
   const receivedAt = new Date(t.created * 1000);
   const reference = t.funded?.bank_transfer?.reference?.trim() || null;
-  const [org] = await tx.select({ id: organisations.id }).from(organisations).where(eq(organisations.processorCustomerId, t.customer));
-  const [payment] = reference
-    ? await tx.select().from(payments).where(and(eq(payments.transferReference, reference), eq(payments.method, "bank_transfer"), org ? eq(payments.orgId, org.id) : undefined))
-    : [];
+  const org = await getOrgByProcessorCustomer(tx, t.customer);
+  const payment = reference ? await findTransferPayment(tx, reference, org?.id ?? null) : null;
   const row = payment ? await getOrderWithRequest(tx, payment.orderId) : null;
   const dueAt = payment?.kind === "balance" ? (row?.order.dueAt ?? null) : null;
   const isOpen = payment?.status === "pending";
@@ -48,14 +46,11 @@ export async function recordTransferArrival(tx: Tx, t: FundedTransaction): Promi
   const outcome = applyArrival({ amountCents: t.net_amount, owedCents: owed, receivedAt, dueAt });
   // Money for a payment already settled is all over; it is not "unknown".
   const status: ArrivalStatus = payment && !isOpen ? "over" : outcome.status;
-  const [funds] = await tx
-    .insert(transferFunds)
-    .values({ processorId: t.id, processorCustomerId: t.customer, orgId: org?.id ?? payment?.orgId ?? null, paymentId: payment?.id ?? null, amountCents: t.net_amount, currency: t.currency, reference, appliedCents: outcome.appliedCents, status, receivedAt })
-    .returning({ id: transferFunds.id });
-  await writeAudit(tx, { actorId: null, action: "transfer.received", entityType: "transfer_funds", entityId: funds!.id, orgId: org?.id ?? payment?.orgId ?? null, after: { amountCents: t.net_amount, reference, status, appliedCents: outcome.appliedCents, paymentId: payment?.id ?? null } });
-  if (!payment || !isOpen || outcome.appliedCents === 0) return { status, fundsId: funds!.id };
+  const fundsId = await insertArrival(tx, { processorId: t.id, processorCustomerId: t.customer, orgId: org?.id ?? payment?.orgId ?? null, paymentId: payment?.id ?? null, amountCents: t.net_amount, currency: t.currency, reference, appliedCents: outcome.appliedCents, status, receivedAt });
+  await writeAudit(tx, { actorId: null, action: "transfer.received", entityType: "transfer_funds", entityId: fundsId, orgId: org?.id ?? payment?.orgId ?? null, after: { amountCents: t.net_amount, reference, status, appliedCents: outcome.appliedCents, paymentId: payment?.id ?? null } });
+  if (!payment || !isOpen || outcome.appliedCents === 0) return { status, fundsId };
   const paid = await applyToPayment(tx, payment, outcome.appliedCents, receivedAt, null);
-  return { status, fundsId: funds!.id, paidPaymentId: paid ? payment.id : undefined };
+  return { status, fundsId, paidPaymentId: paid ? payment.id : undefined };
 }
 
 /**
@@ -66,18 +61,13 @@ export async function recordTransferArrival(tx: Tx, t: FundedTransaction): Promi
 export async function applyToPayment(tx: Tx, payment: Payment, cents: number, at: Date, actorId: string | null): Promise<boolean> {
   const receivedCents = payment.receivedCents + cents;
   if (receivedCents < payment.amountCents) {
-    await tx.update(payments).set({ receivedCents }).where(eq(payments.id, payment.id));
+    await setReceivedCents(tx, payment.id, receivedCents);
     return false;
   }
   const receiptNumber = await allocateReceiptNumber(tx, at);
-  const rows = await tx
-    .update(payments)
-    .set({ receivedCents, status: "paid", paidAt: at, receiptNumber, checkoutUrl: null })
-    .where(and(eq(payments.id, payment.id), eq(payments.status, "pending")))
-    .returning({ id: payments.id });
-  if (rows.length !== 1) return false;
+  if (!(await markReceivedPaid(tx, payment.id, { receivedCents, paidAt: at, receiptNumber }))) return false;
   // Another way of paying the same amount opened meanwhile (a payment page) is now moot.
-  await tx.update(payments).set({ status: "expired", checkoutUrl: null }).where(and(eq(payments.orderId, payment.orderId), eq(payments.kind, payment.kind), eq(payments.status, "pending"), ne(payments.id, payment.id)));
+  await expireOtherPendingPayments(tx, payment);
   await writeAudit(tx, { actorId, action: "payment.paid", entityType: "payment", entityId: payment.id, orgId: payment.orgId, after: { kind: payment.kind, amountCents: payment.amountCents, method: payment.method, reference: payment.transferReference ?? payment.externalReference } });
   if (payment.kind === "deposit") {
     await issueDocumentInTx(tx, { kind: "deposit_invoice", sourceId: payment.id, now: at, actorId });

@@ -1,11 +1,9 @@
 import "server-only";
 import type Stripe from "stripe";
-import { and, eq, ne } from "drizzle-orm";
 import type { Db } from "../../db/client";
-import { payments } from "../../db/schema";
 import { writeAudit, type Tx } from "../../db/queries/audit";
-import { getOrderWithRequest, getPayment, getPaymentBySession, markPaymentExpired, markPaymentPaid, recordWebhookEvent, isWebhookEventRecorded } from "../../db/queries/payments";
-import { transitionStage } from "../../lib/orders/transition";
+import { expireOtherPendingPayments, getOrderWithRequest, getPayment, getPaymentBySession, markPaymentExpired, markPaymentPaid, recordWebhookEvent, isWebhookEventRecorded } from "../../db/queries/payments";
+import { transitionStage } from "../orders/transition";
 import { issueDocumentInTx } from "../documents/issue";
 import { recordTransferArrival, type FundedTransaction } from "./transfers";
 
@@ -81,10 +79,7 @@ async function onCompleted(tx: Tx, session: Stripe.Checkout.Session, now: Date):
   const changed = await markPaymentPaid(tx, payment.id, { checkoutSessionId: session.id, paymentIntentId, paidAt: now });
   if (!changed) return { outcome: "already_paid" };
   // A newer checkout opened for the same amount (after this one seemed abandoned) is now moot.
-  await tx
-    .update(payments)
-    .set({ status: "expired", checkoutUrl: null })
-    .where(and(eq(payments.orderId, payment.orderId), eq(payments.kind, payment.kind), eq(payments.status, "pending"), ne(payments.id, payment.id)));
+  await expireOtherPendingPayments(tx, payment);
   await writeAudit(tx, {
     actorId: null,
     action: "payment.paid",
