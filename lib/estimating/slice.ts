@@ -63,6 +63,17 @@ export function slice(mesh: Mesh | IndexedMesh, z0: number, h: number, count: nu
   for (let k = 0; k < count; k++) bucket[k + 1] = bucket[k + 1]! + bucket[k]!;
   const fill = bucket.slice(0, count);
   for (let t = 0; t < n; t++) { const k = first[t]!; if (k >= 0) { const at = fill[k]!++; order[at] = t; lastAt[at] = last[t]!; } }
+  // `first` and `last` are done with: their memory now holds each entry's lowest and highest
+  // height (float32, as the file gives them), in sweep order, so a plane the triangle does not
+  // reach is passed over without reading its corners (cut ⇔ lo < z_k ≤ hi, the side test's own rule)
+  const placed = bucket[count]!;
+  const loAt = new Float32Array(first.buffer, first.byteOffset, n), hiAt = new Float32Array(last.buffer, last.byteOffset, n);
+  for (let at = 0; at < placed; at++) {
+    const i = order[at]! * 3;
+    const za = p[ix[i]! * 3 + ic]!, zb = p[ix[i + 1]! * 3 + ic]!, zc = p[ix[i + 2]! * 3 + ic]!;
+    loAt[at] = za < zb ? (za < zc ? za : zc) : (zb < zc ? zb : zc);
+    hiAt[at] = za > zb ? (za > zc ? za : zc) : (zb > zc ? zb : zc);
+  }
 
   let na = 0;
   for (let k = 0; k < count; k++) {
@@ -72,8 +83,10 @@ export function slice(mesh: Mesh | IndexedMesh, z0: number, h: number, count: nu
     for (let i = 0; i < na; ) {
       const at = active[i]!;
       if (lastAt[at]! < k) { active[i] = active[--na]!; continue; }
-      const t = order[at]!;
       i++;
+      const zl = loAt[at]!, zh = hiAt[at]!;
+      if (!(zl < zp && zh >= zp)) continue;
+      const t = order[at]!;
       const b1 = ix[t * 3]! * 3, b2 = ix[t * 3 + 1]! * 3, b3 = ix[t * 3 + 2]! * 3;
       const x1 = p[b1 + ia]! - ox, y1 = p[b1 + ib]! - oy, d1 = p[b1 + ic]! - zp;
       const x2 = p[b2 + ia]! - ox, y2 = p[b2 + ib]! - oy, d2 = p[b2 + ic]! - zp;
