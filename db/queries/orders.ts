@@ -1,8 +1,8 @@
 import "server-only";
 import { and, asc, count, desc, eq, gt, inArray, lt, sql } from "drizzle-orm";
-import type { Db } from "../client";
+import { readRows, type Db } from "../client";
 import type { Stage } from "../schema/common";
-import { analyses, changeCounters, documents, fileRevisions, uploads, orders, organisations, parts, payments, requests, scheduleBlocks, stageEvents, users } from "../schema";
+import { analyses, documents, fileRevisions, uploads, orders, organisations, parts, payments, requests, scheduleBlocks, stageEvents, users } from "../schema";
 import type { Tx } from "./audit";
 import type { EstimateResult } from "../../lib/estimating/types";
 
@@ -33,8 +33,8 @@ export async function listBoardColumn(db: Db, stages: readonly Stage[], page: { 
 
 /** The database's count of changes to what the board shows (raised by triggers; see the schema). */
 export async function boardVersion(db: Db): Promise<number> {
-  const [row] = await db.select({ n: changeCounters.n }).from(changeCounters).where(eq(changeCounters.name, "board"));
-  return row?.n ?? 0;
+  const [row] = await readRows<{ n: number }>(db, "select n from change_counters where name = 'board'");
+  return Number(row?.n ?? 0);
 }
 
 /** How many orders with an order record sit in each of these stages. */

@@ -1,9 +1,11 @@
 import "server-only";
-import { and, asc, count, desc, eq, inArray, like, or, sql, type SQL } from "drizzle-orm";
-import { containsText } from "./search";
-import type { Db } from "../client";
+import { and, asc, count, eq, like, sql } from "drizzle-orm";
+import { escapeLike } from "./search";
+import type { InValue } from "@libsql/client";
+import { AppError } from "../../lib/errors";
+import { readRows, type Db } from "../client";
 import type { Stage } from "../schema/common";
-import { memberships, orders, organisations, parts, quotes, requests, stageEvents, users } from "../schema";
+import { memberships, organisations, parts, requests, stageEvents, users } from "../schema";
 import type { Tx } from "./audit";
 
 /** Who is asking, for scoping: client_admin sees the firm, client their own requests. */
@@ -11,12 +13,6 @@ export interface RequestScope {
   orgId: string;
   /** Set for a plain client: only requests they created. */
   createdById?: string;
-}
-
-function scopeWhere(scope: RequestScope): SQL {
-  return scope.createdById
-    ? and(eq(requests.orgId, scope.orgId), eq(requests.createdById, scope.createdById))!
-    : eq(requests.orgId, scope.orgId);
 }
 
 export const REQUEST_SORTS = ["updatedAt", "reference", "projectName", "stage", "neededBy", "totalCents"] as const;
@@ -29,7 +25,80 @@ export interface ListRequestsInput {
   dir?: "asc" | "desc";
   limit?: number;
   offset?: number;
+  /** A page's `nextCursor`: the page after it, found from the last row's sort value and id (keyset; `offset` is then not used). */
+  after?: string;
 }
+
+/** One row of the portal list, as the route sends it. */
+export interface RequestListRow {
+  id: string;
+  reference: string;
+  projectName: string;
+  stage: Stage;
+  neededBy: Date | null;
+  updatedAt: Date;
+  isControlled: boolean;
+  createdByName: string | null;
+  partCount: number;
+  /** An order total or an issued quote: either way a sales-approved figure. */
+  totalCents: number | null;
+  orderId: string | null;
+}
+
+/** An order total, else the latest issued (or accepted) quote's. */
+const TOTAL_SQL =
+  "coalesce((select o.total_cents from orders o where o.request_id = r.id), " +
+  "(select q.total_cents from quotes q where q.request_id = r.id and q.status in ('issued','accepted') order by q.version desc limit 1))";
+
+/** Each sort's expression, and whether it may be null (SQLite puts nulls first ascending, last descending). */
+const SORT_SQL: Record<RequestSort, { expr: string; nullable: boolean }> = {
+  updatedAt: { expr: "r.updated_at", nullable: false },
+  reference: { expr: "r.reference", nullable: false },
+  projectName: { expr: "r.project_name", nullable: false },
+  stage: { expr: "r.stage", nullable: false },
+  neededBy: { expr: "r.needed_by", nullable: true },
+  totalCents: { expr: TOTAL_SQL, nullable: true },
+};
+
+const DETAIL_SQL =
+  "select r.id, r.reference, r.project_name, r.stage, r.needed_by, r.updated_at, r.is_controlled, u.name as created_by_name, " +
+  "(select count(*) from parts p where p.request_id = r.id) as part_count, " +
+  "coalesce(o.total_cents, (select q.total_cents from quotes q where q.request_id = r.id and q.status in ('issued','accepted') order by q.version desc limit 1)) as total_cents, " +
+  "o.id as order_id from requests r left join orders o on o.request_id = r.id left join users u on u.id = r.created_by_id " +
+  "where r.id in (select value from json_each(?))";
+
+type SortKey = string | number | null;
+
+/** A page's last row as an opaque cursor: its sort value and id. */
+function encodeCursor(k: SortKey, id: string): string {
+  return Buffer.from(JSON.stringify([k, id])).toString("base64url");
+}
+
+function decodeCursor(cursor: string): [SortKey, string] {
+  try {
+    const v: unknown = JSON.parse(Buffer.from(cursor, "base64url").toString("utf8"));
+    if (Array.isArray(v) && v.length === 2 && (v[0] === null || typeof v[0] === "string" || (typeof v[0] === "number" && Number.isFinite(v[0]))) && typeof v[1] === "string" && v[1].length <= 100) return [v[0] as SortKey, v[1]];
+  } catch {
+    // answered below
+  }
+  throw new AppError("invalid_input", "That page cursor is not one this list gave.");
+}
+
+/**
+ * The rows after a cursor in `order by K dir, id desc` (ties broken by the id, descending, both
+ * ways): written as a range on K where K cannot be null, so the sort's index starts at the cursor.
+ */
+function afterCursor(expr: string, nullable: boolean, dir: "asc" | "desc", k: SortKey, id: string): { sql: string; args: InValue[] } {
+  if (k === null) {
+    return dir === "desc" ? { sql: `(${expr} is null and r.id < ?)`, args: [id] } : { sql: `((${expr} is null and r.id < ?) or ${expr} is not null)`, args: [id] };
+  }
+  const [within, beyond] = dir === "desc" ? ["<=", "<"] : [">=", ">"];
+  const range = `(${expr} ${within} ? and (${expr} ${beyond} ? or r.id < ?))`;
+  // descending, the nulls come after every value
+  return { sql: dir === "desc" && nullable ? `(${range} or ${expr} is null)` : range, args: [k, k, id] };
+}
+
+const at = (v: unknown): Date | null => (v === null || v === undefined ? null : new Date(Number(v)));
 
 /**
  * The portal table: the firm's (or the user's) requests with their order total, scoped.
@@ -39,61 +108,64 @@ export interface ListRequestsInput {
  * the per-row subqueries for every row of the firm before sorting (60–90 ms at 5,000 requests
  * for any sort but the default, against well under 1 ms now). Sorting by total still computes
  * each row's total (it is derived from the order or the latest issued quote).
+ *
+ * Pages: `offset` (as ever), or `after` a page's `nextCursor` (keyset: the index is entered at
+ * the cursor, so a deep page costs what the first does, and rows added meanwhile above it shift
+ * nothing). Every statement is plain SQL prepared once per shape on the read connection
+ * (`readRows`): built by the query builder on each call, the list cost 3–4 ms of CPU at
+ * 10,000 orders; prepared, under 1 ms.
  */
-export async function listRequestsForScope(db: Db, scope: RequestScope, input: ListRequestsInput = {}) {
-  const where: SQL[] = [scopeWhere(scope)];
-  if (input.stages?.length) where.push(inArray(requests.stage, input.stages));
+export async function listRequestsForScope(db: Db, scope: RequestScope, input: ListRequestsInput = {}): Promise<{ rows: RequestListRow[]; total: number; nextCursor: string | null }> {
+  const where: string[] = ["r.org_id = ?"];
+  const args: InValue[] = [scope.orgId];
+  if (scope.createdById) { where.push("r.created_by_id = ?"); args.push(scope.createdById); }
+  if (input.stages?.length) { where.push(`r.stage in (${input.stages.map(() => "?").join(", ")})`); args.push(...input.stages); }
   const q = input.search?.trim();
   if (q) {
-    where.push(or(containsText(requests.reference, q), containsText(requests.projectName, q), containsText(requests.notes, q))!);
+    const like = `%${escapeLike(q)}%`;
+    where.push("(r.reference like ? escape '\\' or r.project_name like ? escape '\\' or r.notes like ? escape '\\')");
+    args.push(like, like, like);
   }
-  const partCount = sql<number>`(select count(*) from ${parts} where ${parts.requestId} = ${requests.id})`;
-  const latestQuoteTotal = sql<number | null>`(select ${quotes.totalCents} from ${quotes} where ${quotes.requestId} = ${requests.id} and ${quotes.status} in ('issued','accepted') order by ${quotes.version} desc limit 1)`;
-  const orderTotal = sql<number | null>`(select ${orders.totalCents} from ${orders} where ${orders.requestId} = ${requests.id})`;
-  const sortCol = {
-    updatedAt: requests.updatedAt,
-    reference: requests.reference,
-    projectName: requests.projectName,
-    stage: requests.stage,
-    neededBy: requests.neededBy,
-    totalCents: sql`coalesce(${orderTotal}, ${latestQuoteTotal})`,
-  }[input.sort ?? "updatedAt"];
-  const order = input.dir === "asc" ? asc(sortCol) : desc(sortCol);
+  const sort = SORT_SQL[input.sort ?? "updatedAt"];
+  const dir = input.dir === "asc" ? "asc" : "desc";
   const limit = Math.min(Math.max(input.limit ?? 50, 1), 200);
-  const whereAll = and(...where);
-  const [page, [total]] = await Promise.all([
-    db
-      .select({ id: requests.id })
-      .from(requests)
-      .where(whereAll)
-      .orderBy(order, desc(requests.id))
-      .limit(limit)
-      .offset(Math.max(input.offset ?? 0, 0)),
-    db.select({ n: count() }).from(requests).where(whereAll),
+  const pageWhere = [...where], pageArgs = [...args];
+  let offset = Math.max(input.offset ?? 0, 0);
+  if (input.after !== undefined) {
+    const [k, id] = decodeCursor(input.after);
+    const c = afterCursor(sort.expr, sort.nullable, dir, k, id);
+    pageWhere.push(c.sql);
+    pageArgs.push(...c.args);
+    offset = 0;
+  }
+  const [page, [counted]] = await Promise.all([
+    readRows<{ id: string; k: SortKey }>(db, `select r.id, ${sort.expr} as k from requests r where ${pageWhere.join(" and ")} order by k ${dir}, r.id desc limit ? offset ?`, [...pageArgs, limit, offset]),
+    readRows<{ n: number }>(db, `select count(*) as n from requests r where ${where.join(" and ")}`, args),
   ]);
-  if (page.length === 0) return { rows: [], total: total?.n ?? 0 };
-  const found = await db
-    .select({
-      id: requests.id,
-      reference: requests.reference,
-      projectName: requests.projectName,
-      stage: requests.stage,
-      neededBy: requests.neededBy,
-      updatedAt: requests.updatedAt,
-      isControlled: requests.isControlled,
-      createdByName: users.name,
-      partCount,
-      /** An order total or an issued quote: either way a sales-approved figure. */
-      totalCents: sql<number | null>`coalesce(${orders.totalCents}, ${latestQuoteTotal})`,
-      orderId: orders.id,
-    })
-    .from(requests)
-    .leftJoin(orders, eq(orders.requestId, requests.id))
-    .leftJoin(users, eq(users.id, requests.createdById))
-    .where(inArray(requests.id, page.map((p) => p.id)));
-  const byId = new Map(found.map((r) => [r.id, r]));
-  const rows = page.map((p) => byId.get(p.id)).filter((r): r is (typeof found)[number] => r !== undefined);
-  return { rows, total: total?.n ?? 0 };
+  const total = Number(counted?.n ?? 0);
+  if (page.length === 0) return { rows: [], total, nextCursor: null };
+  const found = await readRows<Record<string, unknown>>(db, DETAIL_SQL, [JSON.stringify(page.map((p) => p.id))]);
+  const byId = new Map(found.map((r) => [String(r.id), r]));
+  const rows: RequestListRow[] = [];
+  for (const p of page) {
+    const r = byId.get(p.id);
+    if (!r) continue;
+    rows.push({
+      id: String(r.id),
+      reference: String(r.reference),
+      projectName: String(r.project_name),
+      stage: r.stage as Stage,
+      neededBy: at(r.needed_by),
+      updatedAt: at(r.updated_at)!,
+      isControlled: Boolean(r.is_controlled),
+      createdByName: r.created_by_name === null || r.created_by_name === undefined ? null : String(r.created_by_name),
+      partCount: Number(r.part_count),
+      totalCents: r.total_cents === null || r.total_cents === undefined ? null : Number(r.total_cents),
+      orderId: r.order_id === null || r.order_id === undefined ? null : String(r.order_id),
+    });
+  }
+  const last = page[page.length - 1]!;
+  return { rows, total, nextCursor: page.length === limit ? encodeCursor(last.k, last.id) : null };
 }
 
 /** One request with what the policy needs to decide visibility. */

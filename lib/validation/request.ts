@@ -163,4 +163,6 @@ export const listQuerySchema = z.object({
   dir: z.enum(["asc", "desc"]).default("desc"),
   limit: z.coerce.number().int().min(1).max(200).default(50),
   offset: z.coerce.number().int().min(0).default(0),
+  /** The previous page's `nextCursor` (keyset paging; takes the place of `offset`). */
+  after: z.string().max(400).optional(),
 });

@@ -2,7 +2,7 @@ import { eq, sql } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "../../db/client";
 import { listRequestsForScope, REQUEST_SORTS, type RequestScope } from "../../db/queries/requests";
-import { memberships, users } from "../../db/schema";
+import { memberships, requests, users } from "../../db/schema";
 import { growOrders } from "../../lib/scripts/grow-orders";
 import { createTestDb, type TestDb } from "../helpers/test-db";
 
@@ -65,7 +65,7 @@ describe("the portal request list (ids first, then the page's columns)", () => {
     const found = await listRequestsForScope(db, firm, { search: one.reference });
     expect(found.rows.map((r) => r.id)).toContain(one.id);
     expect(found.total).toBeLessThan(firmTotal);
-    expect(await listRequestsForScope(db, firm, { offset: firmTotal + 10 })).toEqual({ rows: [], total: firmTotal });
+    expect(await listRequestsForScope(db, firm, { offset: firmTotal + 10 })).toEqual({ rows: [], total: firmTotal, nextCursor: null });
   });
 
   it("each indexed sort reads its page from an index, with no whole-table sort step (query plan)", async () => {
@@ -82,6 +82,82 @@ describe("the portal request list (ids first, then the page's columns)", () => {
       // a whole sort step is what the indexes remove; mixed directions (asc, then id desc) may
       // still order ties within one value ("RIGHT PART OF ORDER BY"), which stops with the page
       expect(plan, order).not.toContain("TEMP B-TREE FOR ORDER BY");
+    }
+  });
+
+  it("keyset pages (after the previous page's cursor) give the same rows as offset pages, for every sort both ways, filtered or not", async () => {
+    const cases: [RequestScope, { stages?: ("closed" | "shipped" | "in_production")[]; search?: string }][] = [
+      [firm, {}],
+      [own, {}],
+      [firm, { stages: ["closed", "shipped", "in_production"] }],
+      [firm, { search: "LW-" }],
+    ];
+    for (const [scope, filter] of cases) {
+      for (const sort of REQUEST_SORTS) {
+        for (const dir of ["asc", "desc"] as const) {
+          const byOffset: string[] = [];
+          let total = 0;
+          for (let offset = 0; ; offset += 23) {
+            const p = await listRequestsForScope(db, scope, { ...filter, sort, dir, limit: 23, offset });
+            total = p.total;
+            byOffset.push(...p.rows.map((r) => r.id));
+            if (p.rows.length < 23) break;
+          }
+          const byCursor: string[] = [];
+          let after: string | undefined;
+          for (let i = 0; i < 1000; i++) {
+            const p = await listRequestsForScope(db, scope, { ...filter, sort, dir, limit: 23, after });
+            expect(p.total, `${sort} ${dir}: the total does not depend on the page`).toBe(total);
+            byCursor.push(...p.rows.map((r) => r.id));
+            if (!p.nextCursor) break;
+            after = p.nextCursor;
+          }
+          expect(byCursor.length, `${sort} ${dir} ${JSON.stringify(filter)}`).toBe(total);
+          expect(byCursor, `${sort} ${dir} ${JSON.stringify(filter)}`).toEqual(byOffset);
+        }
+      }
+    }
+  }, 180_000);
+
+  it("keyset pages stay in order across ties: many rows sharing one sort value are split between pages without a gap or a repeat", async () => {
+    // the grown orders share a handful of stages; forty requests are given no needed-by date
+    // (null) and forty one same date: the id alone orders each run, so a page ending inside a
+    // run of equal values must resume inside it
+    const ids = (await listRequestsForScope(db, firm, { limit: 80 })).rows.map((r) => r.id);
+    for (const [i, id] of ids.entries()) await db.update(requests).set({ neededBy: i < 40 ? null : new Date("2027-05-03T00:00:00Z") }).where(eq(requests.id, id));
+    for (const sort of ["stage", "neededBy"] as const) {
+      for (const dir of ["asc", "desc"] as const) {
+        const all = (await listRequestsForScope(db, firm, { sort, dir, limit: 200 })).rows;
+        const key = (r: (typeof all)[number]) => (sort === "stage" ? r.stage : r.neededBy?.getTime() ?? null);
+        const ties = all.filter((r, i) => i > 0 && key(all[i - 1]!) === key(r)).length;
+        expect(ties, `${sort}: the scenario has ties to cross`).toBeGreaterThan(20);
+        const seen: string[] = [];
+        let after: string | undefined;
+        for (;;) {
+          const p = await listRequestsForScope(db, firm, { sort, dir, limit: 7, after });
+          seen.push(...p.rows.map((r) => r.id));
+          if (!p.nextCursor || seen.length >= all.length) break;
+          after = p.nextCursor;
+        }
+        expect(seen.slice(0, all.length)).toEqual(all.map((r) => r.id));
+        expect(new Set(seen).size).toBe(seen.length);
+      }
+    }
+  });
+
+  it("a keyset page starts inside the sort's index at the cursor (query plan), and a cursor it did not give is refused", async () => {
+    const first = await listRequestsForScope(db, firm, { limit: 10 });
+    const [k, id] = JSON.parse(Buffer.from(first.nextCursor!, "base64url").toString("utf8")) as [number, string];
+    expect(k).toBe(first.rows.at(-1)!.updatedAt.getTime());
+    expect(id).toBe(first.rows.at(-1)!.id);
+    const rows = await db.all<{ detail: string }>(
+      sql`explain query plan select r.id, r.updated_at as k from requests r where r.org_id = ${firm.orgId} and (r.updated_at <= ${k} and (r.updated_at < ${k} or r.id < ${id})) order by k desc, r.id desc limit 50`,
+    );
+    const plan = rows.map((r) => r.detail).join(" | ");
+    expect(plan).toMatch(/requests_org_idx \(org_id=\? AND updated_at<\?\)/);
+    expect(plan).not.toContain("TEMP B-TREE");
+    for (const bad of ["not-a-cursor", Buffer.from("[1]").toString("base64url"), Buffer.from('[{"a":1},"x"]').toString("base64url")]) {
+      await expect(listRequestsForScope(db, firm, { after: bad })).rejects.toMatchObject({ code: "invalid_input" });
     }
   });
 });

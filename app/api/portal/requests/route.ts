@@ -4,14 +4,18 @@ import { AppError } from "@/lib/errors";
 import { defineRoute } from "@/lib/server/define-route";
 import { listQuerySchema } from "@/lib/validation/request";
 
-/** GET /api/portal/requests?q=&stage=a,b&sort=&dir= — the firm's (client_admin) or own (client) requests. */
+/**
+ * GET /api/portal/requests?q=&stage=a,b&sort=&dir=&limit=&offset= — the firm's (client_admin) or own (client)
+ * requests: `{ rows, total, nextCursor }`; `&after=<nextCursor>` gives the next page by keyset.
+ */
 export const GET = defineRoute({ access: "request:read_own", query: listQuerySchema, headers: { "cache-control": "no-store" } }, async ({ user, db, query: q }) => {
   if (!user.orgId) throw new AppError("forbidden", "Your account is not part of a client firm.");
   const stages = (q.stage ?? "").split(",").filter((s): s is Stage => (STAGES as readonly string[]).includes(s));
   const scope = user.role === "client_admin" ? { orgId: user.orgId } : { orgId: user.orgId, createdById: user.id };
-  const { rows, total } = await listRequestsForScope(db, scope, { search: q.q, stages, sort: q.sort, dir: q.dir, limit: q.limit, offset: q.offset });
+  const { rows, total, nextCursor } = await listRequestsForScope(db, scope, { search: q.q, stages, sort: q.sort, dir: q.dir, limit: q.limit, offset: q.offset, after: q.after });
   return {
     total,
+    nextCursor,
     rows: rows.map((r) => ({
       id: r.id,
       reference: r.reference,
