@@ -73,7 +73,11 @@ export async function startHardStack(opts: {
 }): Promise<HardStack> {
   ensureBuilt(opts.distDir);
   const dataDir = mkdtempSync(path.join(os.tmpdir(), "layerwright-hard-"));
-  const ports: StackPorts = { app: await freePort(), stripe: await freePort(), resend: await freePort(), uploads: await freePort() };
+  // HARD_PORT_BASE=N keeps the run on N…N+3 (app, payment, e-mail, uploads) where free ports must stay in a range
+  const base = Number(process.env.HARD_PORT_BASE);
+  const ports: StackPorts = Number.isInteger(base) && base > 0
+    ? { app: base, stripe: base + 1, resend: base + 2, uploads: base + 3 }
+    : { app: await freePort(), stripe: await freePort(), resend: await freePort(), uploads: await freePort() };
   const dbUrl = `file:${path.join(dataDir, "layerwright.db")}`;
   await migrateDatabase(dbUrl);
   const { db, client } = openDb(dbUrl);
