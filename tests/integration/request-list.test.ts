@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "../../db/client";
 import { listRequestsForScope, REQUEST_SORTS, type RequestScope } from "../../db/queries/requests";
 import { memberships, requests, users } from "../../db/schema";
+import type { Stage } from "../../db/schema/common";
 import { growOrders } from "../../lib/scripts/grow-orders";
 import { createTestDb, type TestDb } from "../helpers/test-db";
 
@@ -86,10 +87,10 @@ describe("the portal request list (ids first, then the page's columns)", () => {
   });
 
   it("keyset pages (after the previous page's cursor) give the same rows as offset pages, for every sort both ways, filtered or not", async () => {
-    const cases: [RequestScope, { stages?: ("closed" | "shipped" | "in_production")[]; search?: string }][] = [
+    const cases: [RequestScope, { stages?: Stage[]; search?: string }][] = [
       [firm, {}],
       [own, {}],
-      [firm, { stages: ["closed", "shipped", "in_production"] }],
+      [firm, { stages: ["closed", "shipped", "printing"] }],
       [firm, { search: "LW-" }],
     ];
     for (const [scope, filter] of cases) {

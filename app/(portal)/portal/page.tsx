@@ -1,8 +1,8 @@
 import type { Metadata } from "next";
-import { RequestsTable } from "@/app/(portal)/portal/_components/requests-table";
 import { ButtonLink } from "@/components/ui/button";
 import { PageHeader } from "@/components/ui/card";
 import { pageUser } from "@/lib/auth/page-guard";
+import { RequestsSlot } from "@/app/(portal)/portal/_components/requests-slot";
 
 export const metadata: Metadata = { title: "Requests & orders" };
 
@@ -15,7 +15,7 @@ export default async function PortalHomePage() {
         subtitle={user.role === "client_admin" ? "Every request and order of your firm." : "Your requests and orders."}
         actions={<ButtonLink href="/portal/requests/new">New request</ButtonLink>}
       />
-      <RequestsTable showAuthor={user.role === "client_admin"} />
+      <RequestsSlot showAuthor={user.role === "client_admin"} />
     </>
   );
 }
