@@ -2,7 +2,7 @@ import "server-only";
 import { and, asc, count, eq, like, sql } from "drizzle-orm";
 import { escapeLike } from "./search";
 import type { InValue } from "@libsql/client";
-import { AppError } from "../../lib/errors";
+import type { CursorKey, ListCursor } from "../../lib/validation/list-cursor";
 import { readRows, type Db } from "../client";
 import type { Stage } from "../schema/common";
 import { memberships, organisations, parts, requests, stageEvents, users } from "../schema";
@@ -25,8 +25,8 @@ export interface ListRequestsInput {
   dir?: "asc" | "desc";
   limit?: number;
   offset?: number;
-  /** A page's `nextCursor`: the page after it, found from the last row's sort value and id (keyset; `offset` is then not used). */
-  after?: string;
+  /** A page's `next`: the page after it, found from its last row's sort value and id (keyset; `offset` is then not used). */
+  after?: ListCursor;
 }
 
 /** One row of the portal list, as the route sends it. */
@@ -67,28 +67,11 @@ const DETAIL_SQL =
   "o.id as order_id from requests r left join orders o on o.request_id = r.id left join users u on u.id = r.created_by_id " +
   "where r.id in (select value from json_each(?))";
 
-type SortKey = string | number | null;
-
-/** A page's last row as an opaque cursor: its sort value and id. */
-function encodeCursor(k: SortKey, id: string): string {
-  return Buffer.from(JSON.stringify([k, id])).toString("base64url");
-}
-
-function decodeCursor(cursor: string): [SortKey, string] {
-  try {
-    const v: unknown = JSON.parse(Buffer.from(cursor, "base64url").toString("utf8"));
-    if (Array.isArray(v) && v.length === 2 && (v[0] === null || typeof v[0] === "string" || (typeof v[0] === "number" && Number.isFinite(v[0]))) && typeof v[1] === "string" && v[1].length <= 100) return [v[0] as SortKey, v[1]];
-  } catch {
-    // answered below
-  }
-  throw new AppError("invalid_input", "That page cursor is not one this list gave.");
-}
-
 /**
  * The rows after a cursor in `order by K dir, id desc` (ties broken by the id, descending, both
  * ways): written as a range on K where K cannot be null, so the sort's index starts at the cursor.
  */
-function afterCursor(expr: string, nullable: boolean, dir: "asc" | "desc", k: SortKey, id: string): { sql: string; args: InValue[] } {
+function afterCursor(expr: string, nullable: boolean, dir: "asc" | "desc", k: CursorKey, id: string): { sql: string; args: InValue[] } {
   if (k === null) {
     return dir === "desc" ? { sql: `(${expr} is null and r.id < ?)`, args: [id] } : { sql: `((${expr} is null and r.id < ?) or ${expr} is not null)`, args: [id] };
   }
@@ -109,13 +92,13 @@ const at = (v: unknown): Date | null => (v === null || v === undefined ? null : 
  * for any sort but the default, against well under 1 ms now). Sorting by total still computes
  * each row's total (it is derived from the order or the latest issued quote).
  *
- * Pages: `offset` (as ever), or `after` a page's `nextCursor` (keyset: the index is entered at
+ * Pages: `offset` (as ever), or `after` a page's `next` (keyset: the index is entered at
  * the cursor, so a deep page costs what the first does, and rows added meanwhile above it shift
  * nothing). Every statement is plain SQL prepared once per shape on the read connection
  * (`readRows`): built by the query builder on each call, the list cost 3–4 ms of CPU at
  * 10,000 orders; prepared, under 1 ms.
  */
-export async function listRequestsForScope(db: Db, scope: RequestScope, input: ListRequestsInput = {}): Promise<{ rows: RequestListRow[]; total: number; nextCursor: string | null }> {
+export async function listRequestsForScope(db: Db, scope: RequestScope, input: ListRequestsInput = {}): Promise<{ rows: RequestListRow[]; total: number; next: ListCursor | null }> {
   const where: string[] = ["r.org_id = ?"];
   const args: InValue[] = [scope.orgId];
   if (scope.createdById) { where.push("r.created_by_id = ?"); args.push(scope.createdById); }
@@ -132,18 +115,17 @@ export async function listRequestsForScope(db: Db, scope: RequestScope, input: L
   const pageWhere = [...where], pageArgs = [...args];
   let offset = Math.max(input.offset ?? 0, 0);
   if (input.after !== undefined) {
-    const [k, id] = decodeCursor(input.after);
-    const c = afterCursor(sort.expr, sort.nullable, dir, k, id);
+    const c = afterCursor(sort.expr, sort.nullable, dir, input.after.key, input.after.id);
     pageWhere.push(c.sql);
     pageArgs.push(...c.args);
     offset = 0;
   }
   const [page, [counted]] = await Promise.all([
-    readRows<{ id: string; k: SortKey }>(db, `select r.id, ${sort.expr} as k from requests r where ${pageWhere.join(" and ")} order by k ${dir}, r.id desc limit ? offset ?`, [...pageArgs, limit, offset]),
+    readRows<{ id: string; k: CursorKey }>(db, `select r.id, ${sort.expr} as k from requests r where ${pageWhere.join(" and ")} order by k ${dir}, r.id desc limit ? offset ?`, [...pageArgs, limit, offset]),
     readRows<{ n: number }>(db, `select count(*) as n from requests r where ${where.join(" and ")}`, args),
   ]);
   const total = Number(counted?.n ?? 0);
-  if (page.length === 0) return { rows: [], total, nextCursor: null };
+  if (page.length === 0) return { rows: [], total, next: null };
   const found = await readRows<Record<string, unknown>>(db, DETAIL_SQL, [JSON.stringify(page.map((p) => p.id))]);
   const byId = new Map(found.map((r) => [String(r.id), r]));
   const rows: RequestListRow[] = [];
@@ -165,7 +147,7 @@ export async function listRequestsForScope(db: Db, scope: RequestScope, input: L
     });
   }
   const last = page[page.length - 1]!;
-  return { rows, total, nextCursor: page.length === limit ? encodeCursor(last.k, last.id) : null };
+  return { rows, total, next: page.length === limit ? { key: last.k, id: last.id } : null };
 }
 
 /** One request with what the policy needs to decide visibility. */

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { plantToday } from "../dates";
 import { fToC } from "../units";
+import { decodeListCursor } from "./list-cursor";
 
 /**
  * The new-request form's schemas, shared by the browser (react-hook-form + zodResolver) and the
@@ -164,5 +165,16 @@ export const listQuerySchema = z.object({
   limit: z.coerce.number().int().min(1).max(200).default(50),
   offset: z.coerce.number().int().min(0).default(0),
   /** The previous page's `nextCursor` (keyset paging; takes the place of `offset`). */
-  after: z.string().max(400).optional(),
+  after: z
+    .string()
+    .max(400)
+    .transform((s, ctx) => {
+      const c = decodeListCursor(s);
+      if (!c) {
+        ctx.addIssue({ code: "custom", message: "That page cursor is not one this list gave." });
+        return z.NEVER;
+      }
+      return c;
+    })
+    .optional(),
 });

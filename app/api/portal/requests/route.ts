@@ -2,6 +2,7 @@ import { listRequestsForScope } from "@/db/queries/requests";
 import { STAGES, type Stage } from "@/db/schema/common";
 import { AppError } from "@/lib/errors";
 import { defineRoute } from "@/lib/server/define-route";
+import { encodeListCursor } from "@/lib/validation/list-cursor";
 import { listQuerySchema } from "@/lib/validation/request";
 
 /**
@@ -12,10 +13,10 @@ export const GET = defineRoute({ access: "request:read_own", query: listQuerySch
   if (!user.orgId) throw new AppError("forbidden", "Your account is not part of a client firm.");
   const stages = (q.stage ?? "").split(",").filter((s): s is Stage => (STAGES as readonly string[]).includes(s));
   const scope = user.role === "client_admin" ? { orgId: user.orgId } : { orgId: user.orgId, createdById: user.id };
-  const { rows, total, nextCursor } = await listRequestsForScope(db, scope, { search: q.q, stages, sort: q.sort, dir: q.dir, limit: q.limit, offset: q.offset, after: q.after });
+  const { rows, total, next } = await listRequestsForScope(db, scope, { search: q.q, stages, sort: q.sort, dir: q.dir, limit: q.limit, offset: q.offset, after: q.after });
   return {
     total,
-    nextCursor,
+    nextCursor: next ? encodeListCursor(next) : null,
     rows: rows.map((r) => ({
       id: r.id,
       reference: r.reference,
