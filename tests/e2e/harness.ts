@@ -24,7 +24,11 @@ export interface TestStack extends RunningStack {
 
 export async function startStack(): Promise<TestStack> {
   const dataDir = mkdtempSync(path.join(os.tmpdir(), "layerwright-e2e-"));
-  const ports = { app: await freePort(), stripe: await freePort(), resend: await freePort(), uploads: await freePort() };
+  // E2E_PORT_BASE=N keeps the run on N…N+3 (app, payment, e-mail, uploads)
+  const base = Number(process.env.E2E_PORT_BASE);
+  const ports = Number.isInteger(base) && base > 0
+    ? { app: base, stripe: base + 1, resend: base + 2, uploads: base + 3 }
+    : { app: await freePort(), stripe: await freePort(), resend: await freePort(), uploads: await freePort() };
   const dbUrl = `file:${path.join(dataDir, "layerwright.db")}`;
   await migrateDatabase(dbUrl);
   const { db, client } = openDb(dbUrl);
