@@ -4,75 +4,12 @@ import type { AddressInfo } from "node:net";
 import { pathToFileURL } from "node:url";
 import { decodeToken, FILE_KEY, sign, utParam, verifySignedUrl, type UploadthingToken } from "./protocol";
 import { FileStore, type StoredFile } from "./store";
+import type { Registration, UploadthingFake, UploadthingFakeOptions } from "./types";
+import { cors, DEFAULT_MAX, HttpError, json, readBody, readJson } from "./http";
+import { handleV6 } from "./v6";
+import { deliverCallback } from "./callback";
 
-export interface UploadthingFakeOptions {
-  port?: number;
-  host?: string;
-  /** The same token the app uses (base64 JSON { apiKey, appId, regions }). */
-  token: string;
-  /** Files go to `<dataDir>/uploads/<fileKey>`. */
-  dataDir: string;
-  /** Largest single upload in bytes (default 256 MiB). */
-  maxFileBytes?: number;
-  /** Base URL apps and browsers use for this fake (default: the listening address). */
-  publicUrl?: string;
-  /** How long a PUT waits for the app's `/callback-result` before answering (ms). */
-  callbackTimeoutMs?: number;
-  log?: (line: string) => void;
-}
-
-export interface UploadthingFake {
-  url: string;
-  port: number;
-  close: () => Promise<void>;
-}
-
-interface Registration {
-  metadata: unknown;
-  isDev: boolean;
-  callbackUrl: string;
-  callbackSlug: string;
-  awaitServerData: boolean;
-  /** Dev mode: the open `/route-metadata` response the SDK reads callbacks from. */
-  stream: ServerResponse | null;
-  pendingKeys: Set<string>;
-}
-
-class HttpError extends Error {
-  constructor(
-    readonly status: number,
-    message: string,
-  ) {
-    super(message);
-  }
-}
-
-const DEFAULT_MAX = 256 * 1024 * 1024;
-
-async function readBody(req: IncomingMessage, limit: number): Promise<Buffer> {
-  const chunks: Buffer[] = [];
-  let size = 0;
-  for await (const chunk of req) {
-    size += (chunk as Buffer).length;
-    if (size > limit) throw new HttpError(413, `Upload too large: the limit is ${limit} bytes`);
-    chunks.push(chunk as Buffer);
-  }
-  return Buffer.concat(chunks);
-}
-
-function cors(req: IncomingMessage, res: ServerResponse): void {
-  res.setHeader("access-control-allow-origin", req.headers.origin ?? "*");
-  res.setHeader("vary", "origin");
-  res.setHeader("access-control-allow-methods", "GET, HEAD, PUT, POST, OPTIONS");
-  res.setHeader("access-control-allow-headers", req.headers["access-control-request-headers"] ?? "*");
-  res.setHeader("access-control-expose-headers", "x-ut-range-start");
-  res.setHeader("access-control-max-age", "600");
-}
-
-function json(res: ServerResponse, status: number, body: unknown): void {
-  res.writeHead(status, { "content-type": "application/json" });
-  res.end(JSON.stringify(body));
-}
+export type { UploadthingFake, UploadthingFakeOptions } from "./types";
 
 /**
  * Start the upload-service fake: the ingest (presigned PUT/HEAD, `/route-metadata`,
@@ -100,17 +37,6 @@ export async function startUploadthingFake(options: UploadthingFakeOptions): Pro
 
   function requireApiKey(req: IncomingMessage): void {
     if (req.headers["x-uploadthing-api-key"] !== token.apiKey) throw new HttpError(401, "Invalid or missing x-uploadthing-api-key");
-  }
-
-  async function readJson(req: IncomingMessage): Promise<Record<string, unknown>> {
-    const buf = await readBody(req, 5_000_000);
-    try {
-      const v: unknown = JSON.parse(buf.toString("utf8"));
-      if (v && typeof v === "object" && !Array.isArray(v)) return v as Record<string, unknown>;
-    } catch {
-      /* below */
-    }
-    throw new HttpError(400, "Expected a JSON object body");
   }
 
   function publicFile(f: StoredFile) {
@@ -169,28 +95,7 @@ export async function startUploadthingFake(options: UploadthingFakeOptions): Pro
     if (method === "POST" && path.startsWith("/v6/")) {
       requireApiKey(req);
       const body = await readJson(req);
-      if (path === "/v6/deleteFiles") {
-        const keys = Array.isArray(body.fileKeys) ? body.fileKeys : null;
-        const customIds = Array.isArray(body.customIds) ? body.customIds : null;
-        if (!keys && !customIds) throw new HttpError(400, "Provide fileKeys or customIds");
-        const targets = keys
-          ? keys.filter((k): k is string => typeof k === "string" && FILE_KEY.test(k))
-          : files.list().filter((f) => f.customId !== null && customIds!.includes(f.customId)).map((f) => f.key);
-        let deleted = 0;
-        for (const k of targets) if (files.remove(k)) deleted += 1;
-        return json(res, 200, { success: true, deletedCount: deleted });
-      }
-      if (path === "/v6/listFiles") {
-        const all = files.list();
-        const offset = Number(body.offset ?? 0) || 0;
-        const limit = Number(body.limit ?? 500) || 500;
-        const page = all.slice(offset, offset + limit);
-        return json(res, 200, {
-          hasMore: offset + limit < all.length,
-          files: page.map((f) => ({ id: f.key, key: f.key, name: f.name, size: f.size, customId: f.customId, status: "Uploaded", uploadedAt: f.uploadedAt })),
-        });
-      }
-      throw new HttpError(404, `The upload fake does not implement ${path}`);
+      return handleV6(res, path, body, files);
     }
 
     const served = path.match(/^\/(?:f|a\/[^/]+)\/([^/]+)$/);
@@ -292,28 +197,7 @@ export async function startUploadthingFake(options: UploadthingFakeOptions): Pro
       if (reg.isDev && reg.stream) {
         reg.stream.write(`${JSON.stringify({ payload, signature, hook: "callback" })}\n`);
       } else {
-        const target = new URL(reg.callbackUrl);
-        if (reg.callbackSlug && !target.searchParams.has("slug")) target.searchParams.set("slug", reg.callbackSlug);
-        let lastError = "";
-        for (let attempt = 1; attempt <= 3; attempt += 1) {
-          try {
-            const res = await fetch(target, {
-              method: "POST",
-              headers: { "content-type": "application/json", "uploadthing-hook": "callback", "x-uploadthing-signature": signature },
-              body: payload,
-              signal: AbortSignal.timeout(15_000),
-            });
-            await res.text().catch(() => "");
-            if (res.ok) {
-              lastError = "";
-              break;
-            }
-            lastError = `callback answered ${res.status}`;
-          } catch (e) {
-            lastError = (e as Error).message;
-          }
-          await new Promise((r) => setTimeout(r, 200 * attempt));
-        }
+        const lastError = await deliverCallback(reg, payload, signature);
         if (lastError) {
           log(`callback for ${key} failed: ${lastError}`);
           return { error: `The app did not accept the upload: ${lastError}` };

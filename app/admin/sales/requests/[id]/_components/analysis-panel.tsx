@@ -2,12 +2,6 @@ import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
 import { Card } from "@/components/ui/card";
 import type { SalesRequest } from "@/db/queries/quotes";
-import type {
-  EstimateAlternative,
-  RemedyTried,
-  ReviewReason,
-  ShellPlanSummary,
-} from "@/lib/estimating/types";
 import { formatCents } from "@/lib/money";
 import { hoursText } from "@/components/admin/format";
 import { RetryAnalysisButton } from "./retry-analysis-button";
@@ -22,43 +16,25 @@ const mm = (v: unknown) =>
 /** The automatic analysis beside each part: size, fit, near-net volume, hours, flagged layers, warnings. */
 export function AnalysisPanel({ part, materialName }: { part: Part; materialName?: string }) {
   const a = part.analysis;
-  const r = (a?.status === "done" ? a.result : null) as Record<
-    string,
-    unknown
-  > | null;
-  const bbox = (r?.bboxMm as number[] | undefined) ?? [];
-  const fits =
-    (r?.fits as
-      | { cell: string; cellName: string; fits: boolean; marginMm: number }[]
-      | undefined) ?? [];
-  const warnings =
-    (r?.warnings as { code: string; message: string }[] | undefined) ?? [];
-  const cautions = (r?.cautions as string[] | undefined) ?? [];
-  const status = (r?.status as string | undefined) ?? "priced";
-  const reasons = (r?.reviewReasons as ReviewReason[] | undefined) ?? [];
-  const alternatives =
-    (r?.alternatives as EstimateAlternative[] | undefined) ?? [];
-  const remedies = (r?.remedies as RemedyTried[] | undefined) ?? [];
-  const shell = (r?.shell as ShellPlanSummary | null | undefined) ?? null;
-  const sched =
-    (r?.schedule as
-      | {
-          setupStart?: string;
-          printStart?: string;
-          printEnd?: string;
-          machiningEnd?: string;
-          timeZone?: string;
-        }
-      | undefined) ?? {};
-  const cellName =
-    fits.find((f) => f.cell === r?.cell)?.cellName ?? String(r?.cell ?? "—");
+  const r = a?.status === "done" ? a.result : null;
+  const bbox = r?.bboxMm ?? [];
+  const fits = r?.fits ?? [];
+  const warnings = r?.warnings ?? [];
+  const cautions = r?.cautions ?? [];
+  const status = r?.status ?? "priced";
+  const reasons = r?.reviewReasons ?? [];
+  const alternatives = r?.alternatives ?? [];
+  const remedies = r?.remedies ?? [];
+  const shell = r?.shell ?? null;
+  const sched: Partial<NonNullable<typeof r>["schedule"]> = r?.schedule ?? {};
+  const cellName = fits.find((f) => f.cell === r?.cell)?.cellName ?? String(r?.cell ?? "—");
   return (
     <Card className="space-y-3">
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <h3 className="font-semibold text-ink-800">{part.name}</h3>
         <span className="text-xs text-ink-500">
           {part.fileName ?? "no file"} · rev {part.revision ?? "—"} ·{" "}
-          {materialName ?? (r?.material as { name?: string } | undefined)?.name ?? part.materialKey} · ×{part.quantity} · allowance {part.allowanceMm}{" "}
+          {materialName ?? r?.material.name ?? part.materialKey} · ×{part.quantity} · allowance {part.allowanceMm}{" "}
           mm
         </span>
       </div>
@@ -162,7 +138,7 @@ export function AnalysisPanel({ part, materialName }: { part: Part; materialName
               shifts)
             </p>
           ) : null}
-          <BuildDetails r={r as Parameters<typeof BuildDetails>[0]["r"]} priceWithheld={false} staff />
+          <BuildDetails r={r!} priceWithheld={false} staff />
           {alternatives.length ? (
             <div tabIndex={0} className="focus-visible:outline-2 focus-visible:outline-ink-600 overflow-x-auto">
               <table
