@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, notInArray } from "drizzle-orm";
 import type { Db } from "../client";
 import { analyses, fileRevisions, parts } from "../schema";
 import type { Tx } from "./audit";
@@ -77,3 +77,8 @@ export async function listPartsWithAnalysis(db: Db | Tx, requestId: string) {
   });
 }
 export type PartWithAnalysis = Awaited<ReturnType<typeof listPartsWithAnalysis>>[number];
+
+/** Delete a request's parts that are not in `keepIds` (all of them when it is empty). */
+export async function deletePartsNotIn(db: Db | Tx, requestId: string, keepIds: string[]) {
+  await db.delete(parts).where(and(eq(parts.requestId, requestId), keepIds.length ? notInArray(parts.id, keepIds) : undefined));
+}

@@ -1,20 +1,17 @@
 "use server";
 
-import { and, eq, notInArray } from "drizzle-orm";
-import { getDb, type Db } from "@/db/client";
-import { parts } from "@/db/schema";
 import { writeAudit } from "@/db/queries/audit";
 import { markQuotesStale } from "@/db/queries/client-quotes";
-import { addFileRevision, getRevision, getUploadOwned } from "@/db/queries/files";
-import { createPart, getPart, latestAnalyses, listParts, updatePart } from "@/db/queries/parts";
-import { createDraftRequest, getRequest, updateDraftRequest } from "@/db/queries/requests";
+import { addFileRevision, getUploadOwned } from "@/db/queries/files";
+import { getPart, latestAnalyses, listParts, updatePart } from "@/db/queries/parts";
+import { getRequest,} from "@/db/queries/requests";
 import { transitionStage } from "@/lib/orders/transition";
-import { analysisOptionsFor, sameOptions } from "@/lib/analysis/options";
+import { analysisOptionsFor,} from "@/lib/analysis/options";
 import { MAX_MODEL_BYTES, startAnalysis } from "@/lib/analysis/run";
 import { currentRequestId } from "@/lib/observability/request-id";
 import { exportHint } from "@/lib/analysis/export-hints";
 import { checkModelUpload, SNIFF_HEAD_BYTES } from "@/lib/analysis/sniff";
-import { assertCanSee, type CurrentUser } from "@/lib/auth/guard";
+import { assertCanSee,} from "@/lib/auth/guard";
 import { hasPermission } from "@/lib/auth/policy";
 import { notifyRequestReceived } from "@/lib/email/notify";
 import { AppError } from "@/lib/errors";
@@ -22,23 +19,8 @@ import { rootLogger } from "@/lib/observability/log";
 import { defineAction } from "@/lib/server/define-action";
 import { readUploadedFileHead } from "@/lib/uploads/uploadthing";
 import { z } from "zod";
-import { draftSchema, partToRow, submitSchema, toDraftFields, type DraftValues } from "@/lib/validation/request";
-
-/** The request, if this user may edit it as a draft; otherwise the matching AppError. */
-async function editableDraft(user: CurrentUser, requestId: string) {
-  const db = getDb();
-  const req = await getRequest(db, requestId);
-  assertCanSee(user, req ? { orgId: req.orgId, createdById: req.createdById } : null, "request");
-  if (req!.stage !== "draft") throw new AppError("conflict:stage", "This request has been submitted; it can no longer be edited.");
-  return req!;
-}
-
-export interface SavedDraft {
-  requestId: string;
-  reference: string;
-  /** Per part: the analysis now running for it (new or re-run because options changed). */
-  analyses: Record<string, string>;
-}
+import { editableDraft, persistDraft,} from "@/lib/requests/draft";
+import { draftSchema, submitSchema,} from "@/lib/validation/request";
 
 /**
  * Save the whole draft (project fields and parts, by their ids). Creates the request on the first
@@ -52,95 +34,6 @@ export const saveDraft = defineAction(
   },
   async (v, { user, db }) => persistDraft(v, user, db),
 );
-
-async function persistDraft(v: DraftValues, user: CurrentUser, db: Db): Promise<SavedDraft> {
-  if (!user.orgId) throw new AppError("forbidden", "Your account is not part of a client firm.");
-  const fields = toDraftFields(v.project);
-  let requestId = v.requestId;
-  let reference: string;
-  if (!requestId) {
-    const created = await createDraftRequest(db, {
-      orgId: user.orgId,
-      createdById: user.id,
-      fields,
-    });
-    requestId = created.id;
-    reference = created.reference;
-    await writeAudit(db, {
-      actorId: user.id,
-      action: "request.create",
-      entityType: "request",
-      entityId: requestId,
-      orgId: user.orgId,
-    });
-  } else {
-    const req = await editableDraft(user, requestId);
-    reference = req.reference;
-    await updateDraftRequest(db, requestId, fields);
-  }
-  const rid = requestId;
-
-  const existing = await listParts(db, rid);
-  const ids = v.parts.map((p) => p.id);
-  await db.transaction(async (tx) => {
-    for (const [i, p] of v.parts.entries()) {
-      const row = { ...partToRow(p), sort: i };
-      if (existing.some((e) => e.id === p.id)) {
-        await updatePart(tx, rid, p.id, row);
-      } else {
-        // A client-made id must be new: never take over a part of another request.
-        const other = await getPart(tx, p.id);
-        if (other) throw new AppError("invalid_input", "A part id was reused; reload the page.");
-        await createPart(tx, { id: p.id, requestId: rid, ...row });
-      }
-    }
-    await tx.delete(parts).where(and(eq(parts.requestId, rid), ids.length ? notInArray(parts.id, ids) : undefined));
-  });
-
-  const analyses = await rerunChangedAnalyses(rid);
-  return { requestId: rid, reference, analyses };
-}
-
-/** Start a new analysis for every part whose current options differ from its latest analysis. */
-async function rerunChangedAnalyses(requestId: string): Promise<Record<string, string>> {
-  const db = getDb();
-  const req = await getRequest(db, requestId);
-  if (!req) return {};
-  const ps = await listParts(db, requestId);
-  const withRev = ps.filter((p) => p.currentRevisionId);
-  const latest = await latestAnalyses(
-    db,
-    withRev.map((p) => p.currentRevisionId!),
-  );
-  const out: Record<string, string> = {};
-  for (const p of withRev) {
-    const options = analysisOptionsFor(p, req);
-    const a = latest.get(p.currentRevisionId!);
-    // Confirming the units the engine guessed changes nothing: compare with the guess filled in.
-    const guessed = a?.result?.units;
-    const before = a
-      ? {
-          ...(guessed && a.options.units === undefined ? { units: guessed } : {}),
-          ...a.options,
-        }
-      : null;
-    if (a && sameOptions(before, options as Record<string, unknown>)) continue;
-    const rev = await getRevision(db, p.currentRevisionId!);
-    if (!rev) continue;
-    const { analysisId } = await startAnalysis(
-      db,
-      {
-        revisionId: rev.id,
-        fileKey: rev.fileKey,
-        fileName: rev.fileName,
-        options,
-      },
-      { requestId: await currentRequestId() },
-    );
-    out[p.id] = analysisId;
-  }
-  return out;
-}
 
 export interface AttachedFile {
   revisionId: string;
