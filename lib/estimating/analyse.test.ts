@@ -3,6 +3,8 @@ import { binaryStl, box, drillFixture, hullPlugInches, layupMold, objFile, openB
 import { analyse, type AnalyseOptions } from "./analyse";
 import { defaultCells, defaultMaterials, defaultRateCard } from "./defaults";
 import { isEstimateInputError } from "./errors";
+import { addWorkingHours } from "./schedule";
+import { plantOf } from "./stages/schedule";
 
 const catalogue = { cells: defaultCells, materials: defaultMaterials, rateCard: defaultRateCard };
 const now = new Date("2027-03-01T09:00:00Z");
@@ -111,6 +113,30 @@ describe("analyse", () => {
     const a = await run(bytes, "a.stl", { cellKey: "compact" });
     const b = await analyse({ bytes, fileName: "a.stl", options: { cellKey: "compact" }, catalogue, now, queue: { compact: 200 } });
     expect(b.shipDate > a.shipDate).toBe(true);
+  });
+
+  it("booked work on the chosen cell pushes the first set-up back by about its working hours; expedite is earlier or equal and dearer", async () => {
+    const bytes = binaryStl(box(1000, 500, 400));
+    const idle = await run(bytes, "a.stl", { cellKey: "compact" });
+    // 80 working hours booked on the compact cell from Monday 09:00 (five 16 h days), no slack
+    const start = now.getTime(), end = addWorkingHours(now, 80, defaultCells.find((c) => c.key === "compact")!.calendar, plantOf(defaultRateCard)).getTime();
+    const busy = await analyse({ bytes, fileName: "a.stl", options: { cellKey: "compact" }, catalogue, now, booked: { compact: [{ startMs: start, endMs: end, ref: "R-1" }] } });
+    expect(busy.schedule.queueHours).toBeCloseTo(80 + idle.schedule.queueHours, 0);
+    expect(busy.shipDate > idle.shipDate).toBe(true);
+    expect(busy.leadTimes[0]).toEqual({ key: "standard", shipDate: busy.shipDate, totalCents: busy.totalCents, adjustmentCents: 0 });
+    for (const r of [idle, busy]) {
+      const ex = r.leadTimes.find((l) => l.key === "expedite")!;
+      expect(ex.shipDate <= r.shipDate).toBe(true);
+      expect(ex.totalCents).toBeGreaterThan(r.totalCents);
+    }
+  });
+
+  it("a queue naming an unknown cell, or negative hours, is an input error", async () => {
+    const bytes = binaryStl(box(1000, 500, 400));
+    for (const queue of [{ nope: 4 }, { compact: -1 }, { router: Number.NaN }] as Record<string, number>[]) {
+      const e = await analyse({ bytes, fileName: "a.stl", options: {}, catalogue, now, queue }).catch((x: unknown) => x);
+      expect(isEstimateInputError(e)).toBe(true);
+    }
   });
 
   it("bad options are input errors", async () => {

@@ -7,6 +7,8 @@ import { measureStage } from "./stages/measure";
 import { cellPrintRate } from "./stages/price";
 import { bad, readStage, resolveOptions } from "./stages/read";
 import type { ReadModelResult } from "./read-model";
+import { leadTimeOptions } from "./lead-times";
+import { Ledger, ROUTER_KEY, type BookedSpan } from "./placement";
 import { plantOf } from "./stages/schedule";
 import { planPieces, type PiecesPlan } from "./stages/pieces";
 import type { BuildPlan } from "./stages/plan";
@@ -53,8 +55,13 @@ export interface AnalyseInput {
   options: AnalyseOptions;
   catalogue: { materials: MaterialParams[]; cells: CellParams[]; rateCard: RateCardParams };
   now: Date;
-  /** Working hours of jobs already queued on each cell, by cell key. */
+  /**
+   * Working hours of work not yet on the calendar, by cell key or `router` (taken first-fit from
+   * now, with no slack): accepted, unscheduled orders, or a what-if queue.
+   */
   queue?: Record<string, number>;
+  /** Booked jobs and maintenance blocks on each cell (by key) and the router (`router`). */
+  booked?: Record<string, BookedSpan[]>;
 }
 
 export type ProgressFn = (fraction: number, stage: string) => void;
@@ -101,11 +108,16 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
     bad("option:cell", `The ${cell.name} cell reaches ${cell.maxMeltTempC} °C; ${material.name} needs at least ${material.meltTempMinC} °C.`);
   }
   if (cells.length === 0) bad("option:material", `No printing cell reaches the ${material.meltTempMinC} °C ${material.name} needs.`);
+  for (const [key, hours] of Object.entries({ ...input.queue })) {
+    if (key !== ROUTER_KEY && !cat.cells.some((c) => c.key === key)) bad("option:queue", `The queue names "${key.slice(0, 40)}", which is neither a printing cell of the catalogue (${cat.cells.map((c) => c.key).join(", ")}) nor "${ROUTER_KEY}".`);
+    if (!Number.isFinite(hours) || hours < 0) bad("option:queue", `The queue's hours on ${key.slice(0, 40)} must be zero or more, not ${hours}.`);
+  }
+  const ledger = new Ledger({ booked: input.booked, hours: input.queue }, input.now.getTime(), plant);
   const orientation: Orientation | undefined = o.orientation ? (typeof o.orientation === "string" ? { up: o.orientation, swapped: false } : o.orientation) : undefined;
   onProgress(0.5, "slicing");
   const choice = chooseStage({
     mesh, ms, cells, material, card, rules, plant, allowanceMm: t, quantity, printMode, wallsOverride,
-    cellKey: o.cellKey, orientation, queue: input.queue ?? {}, now: input.now,
+    cellKey: o.cellKey, orientation, ledger, now: input.now,
     priceOptions: { sealingCoat: o.sealingCoat, vacuumTest: o.vacuumTest, freightZone: o.freightZone }, machiningAsked: { finishBedFace: o.finishBedFace, trimLines: o.trimLines },
   }, warnings);
   const c = choice.chosen, bp = c.bp, mach = c.bp.machining, cell = c.cell, plan = bp.layers, pr = c.pricing, sched = c.schedule;
@@ -123,7 +135,7 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
   }
   const { depositedKg, scrapKg, massKg, partMassKg, printHours, dwellHours, coolingHours } = bp;
   const allowanceVolume = bp.allowanceVolumeMm3;
-  const queueHours = input.queue?.[cell.key] ?? 0;
+  const queueHours = r2(sched.waitHours);
   const validUntil = new Date(input.now.getTime() + card.quoteValidityDays * 86_400_000).toISOString().slice(0, 10);
 
   // expansion in the chosen build: across the beads along the build direction, along them in the layers
@@ -147,7 +159,7 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
   const fineH = Math.min(...cells.flatMap((x) => [...x.layerHeightsMm, x.defaultLayerHeightMm]).filter((v) => v > 0));
   const searchInput = {
     mesh, ms, cells, material, card, rules, plant, allowanceMm: t, quantity, printMode, wallsOverride,
-    cellKey: o.cellKey, orientation, queue: input.queue ?? {}, now: input.now,
+    cellKey: o.cellKey, orientation, ledger, now: input.now,
     priceOptions: { sealingCoat: o.sealingCoat, vacuumTest: o.vacuumTest, freightZone: o.freightZone }, machiningAsked: { finishBedFace: o.finishBedFace, trimLines: o.trimLines },
   };
   const pieces = split && !o.orientation ? planPieces(searchInput, o.cellKey ? cells.filter((x) => x.key === o.cellKey) : cells, split, fineH, pr) : null;
@@ -236,6 +248,7 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
       timeZone: plant.timeZone,
     },
     shipDate: sched.shipDate,
+    leadTimes: c.status === "priced" ? leadTimeOptions(ledger, sched.spec, sched.placement, pr, card) : [{ key: "standard", shipDate: sched.shipDate, totalCents: pr.totalCents, adjustmentCents: 0 }],
     warnings,
     cautions,
     status: c.status,
@@ -257,13 +270,13 @@ export async function analyse(input: AnalyseInput, onProgress: ProgressFn = () =
   const pieceSpans = { acrossBeadMm: p0.ms.netSize[up0]!, alongBeadMm: Math.max(...p0.ms.netSize.filter((_, i) => i !== up0)), vertical: p0.chosen.vertical };
   const across = materialWarnings(material, { cureTempC: o.cureTempC, partCtePpmPerK: o.partCtePpmPerK }, pieceSpans).filter((w) => w.code === "material-cte-across");
   const piecewise = { ...result, warnings: [...result.warnings.filter((w) => w.code !== "material-cte-across"), ...across] };
-  return asPieces(piecewise, pieces, card, material, quantity);
+  return asPieces(piecewise, pieces, card, material, quantity, ledger);
 }
 
 const dryingOut = (d: BuildPlan["feed"]["drying"]) => (d ? { hours: d.hours, tempC: d.tempC, dryerKg: d.dryerKg, maxKgPerH: r2(d.maxKgPerH) } : null);
 
 /** The estimate of a part priced as pieces: each piece's own figures, the sums at the top, the joining in the lines and the dates. */
-function asPieces(r: EstimateResult, pp: PiecesPlan, card: RateCardParams, material: MaterialParams, quantity: number): EstimateResult {
+function asPieces(r: EstimateResult, pp: PiecesPlan, card: RateCardParams, material: MaterialParams, quantity: number, ledger: Ledger): EstimateResult {
   const out: PieceEstimate[] = pp.pieces.map((p) => {
     const c = p.chosen, bp = c.bp, sc = c.schedule;
     const own = c.pricing.lines.filter((l) => ["material", "print", "dwell", "machining", "engineering", "setup"].includes(l.key));
@@ -318,12 +331,13 @@ function asPieces(r: EstimateResult, pp: PiecesPlan, card: RateCardParams, mater
     lines: pr.lines, subtotalCents: pr.subtotalCents, marginCents: pr.marginCents, taxCents: pr.taxCents, totalCents: pr.totalCents,
     depositCents: pr.depositCents, balanceCents: pr.balanceCents,
     schedule: {
-      ...r.schedule, queueHours: r.schedule.queueHours,
+      ...r.schedule, queueHours: r2(pp.placement.waitHours),
       setupStart: iso(scs.map((x) => x.setupStart), "min"), dryingStart: iso(scs.map((x) => x.dryingStart), "min"),
       printStart: iso(scs.map((x) => x.printStart), "min"), printEnd: iso(scs.map((x) => x.printEnd), "max"), coolingEnd: iso(scs.map((x) => x.coolingEnd), "max"),
       machiningEnd: pp.joinEnd.toISOString(), shipDate: pp.shipDate,
     },
     shipDate: pp.shipDate,
+    leadTimes: reviewReasons.length ? [{ key: "standard", shipDate: pp.shipDate, totalCents: pr.totalCents, adjustmentCents: 0 }] : leadTimeOptions(ledger, pp.spec, pp.placement, pr, card),
     drying: dryingOut(first.bp.feed.drying),
     feed: { kgPerH: r2(first.bp.feed.kgPerH), limitedBy: first.bp.feed.limitedBy, extruderKgPerH: extruderOutputFor(first.cell, material), screwMm: first.cell.screwMm ?? null },
     printRateCentsPerH: cellPrintRate(first.cell, card),

@@ -92,6 +92,24 @@ export function addWorkingHours(from: Date, hours: number, cal: WorkingCalendar,
   throw new RangeError("the schedule runs past the calendar's horizon");
 }
 
+/** Working hours of the calendar between two instants (shifts in the plant's zone); 0 when `to` is not after `from`. */
+export function workingHoursBetween(from: Date, to: Date, cal: WorkingCalendar, plantOrStartHourUtc?: number | Plant): number {
+  const plant = asPlant(plantOrStartHourUtc);
+  let t = from.getTime();
+  const end = to.getTime();
+  let ms = 0;
+  for (let guard = 0; guard < 20_000 && t < end; guard++) {
+    const day = localDay(t, plant.timeZone);
+    if (isWorkingDay(day, cal, plant)) {
+      const [s, e] = dayWindow(day, cal, plant);
+      const a = Math.max(t, s), b = Math.min(e, end);
+      if (b > a) ms += b - a;
+    }
+    t = nextLocalMidnight(day, plant);
+  }
+  return ms / HOUR;
+}
+
 /** The end of the `days`-th working day after `from` (whole working days). */
 export function addWorkingDays(from: Date, days: number, cal: WorkingCalendar, plantOrStartHourUtc?: number | Plant): Date {
   let t = from;

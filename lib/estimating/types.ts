@@ -191,6 +191,17 @@ export interface RateCardParams {
   joinBandMm?: number;
   /** The router's (machining) own calendar; the printing cell's when absent. */
   routerCalendar?: WorkingCalendar;
+  /** Lifting a print off the bed and clearing the cell, working hours (the cell is held until then). */
+  removalHours?: number;
+  /** Expedited delivery: premium on set-up, machining and joining labour worked on extra shifts and weekends, basis points (5000 = time and a half). */
+  overtimePremiumBp?: number;
+  /** Expedited delivery: flat charge for finishing, inspection and packing on extra shifts and weekends. */
+  expediteFeeCents?: number;
+  /** Economy delivery: discount on the subtotal, basis points, for a date this many working days after standard. */
+  economyDiscountBp?: number;
+  economyExtraDays?: number;
+  /** Economy is offered only while the cells' booked share of working hours up to its date stays at or under this, basis points. */
+  economyMaxLoadBp?: number;
   /** Where the figures come from. */
   source: string;
 }
@@ -358,6 +369,8 @@ export interface EstimateResult {
     timeZone: string;
   };
   shipDate: string;
+  /** Delivery choices: `standard` (this estimate's own date and total), `expedite`, and `economy` where capacity allows. */
+  leadTimes: LeadTime[];
   warnings: EstimateWarning[];
   cautions: string[];
   /** "priced": a printable plan inside the cooling window; "needs-review": the bureau's engineer quotes it (the figures are staff's indicative ones). */
@@ -465,4 +478,17 @@ export interface EstimateAlternative {
   status: EstimateStatus;
   /** Why this one was not chosen ("" for the chosen one). */
   whyNot: string;
+}
+
+export type LeadTimeKey = "standard" | "expedite" | "economy";
+
+/** One delivery choice: its ship date (plant's calendar) and its total. */
+export interface LeadTime {
+  key: LeadTimeKey;
+  shipDate: string;
+  totalCents: number;
+  /** Added to (expedite) or taken from (economy, negative) the standard subtotal before margin and tax. */
+  adjustmentCents: number;
+  /** Expedite: booked jobs it goes ahead of (each still meets its own promised date). */
+  jumped?: number;
 }

@@ -3,7 +3,8 @@ import { steinerVolume } from "../grow";
 import { planMachining, type MachiningPlan } from "../machining";
 import { allowedOrientations, bestOrientation, clearance, fitCells, orientedSize, suggestSplit, verticalFit } from "../orient";
 import type { Pricing } from "../pricing";
-import type { ContinuousSchedule, Plant } from "../schedule";
+import type { Ledger } from "../placement";
+import type { Plant } from "../schedule";
 import type {
   Axis, BuildMode, CellFit, CellParams, EstimateAlternative, EstimateStatus, EstimateWarning, MaterialParams, Orientation,
   PrintMode, RateCardParams, RemedyTried, ReviewReason, SplitSuggestion,
@@ -11,7 +12,7 @@ import type {
 import type { Measured } from "./measure";
 import { planStage, wallsForAllowance, type BuildPlan, type ShellRules } from "./plan";
 import { priceStage } from "./price";
-import { scheduleStage } from "./schedule";
+import { scheduleStage, type PlacedSchedule } from "./schedule";
 import { sectionsAt, sliceStage, type GrownSections } from "./slice";
 
 const r2 = (v: number) => Math.round(v * 100) / 100;
@@ -40,7 +41,8 @@ export interface SearchInput {
   wallsOverride: number | null;
   cellKey?: string;
   orientation?: Orientation;
-  queue: Record<string, number>;
+  /** The booked work on the cells and the router (with `now`), which each candidate is placed around. */
+  ledger: Ledger;
   now: Date;
   priceOptions: { sealingCoat?: boolean; vacuumTest?: boolean; freightZone?: string | null };
   /** What the client asked machined beyond the net surface: the bed face (a flip), an open mold's trim line. */
@@ -63,7 +65,7 @@ export interface Candidate {
   sections: GrownSections;
   bp: BuildPlan;
   pricing: Pricing;
-  schedule: ContinuousSchedule;
+  schedule: PlacedSchedule;
   status: EstimateStatus;
   reasons: ReviewReason[];
   /** Built vertically: layers across the part's length along the cell's long axis (`cell` is then the vertical envelope). */
@@ -118,8 +120,6 @@ export interface PartContext {
   ms: Measured;
   /** Machining of this part in a candidate's build (its sections). */
   machiningFor: (sections: GrownSections, cell: CellParams) => MachiningPlan;
-  now: Date;
-  queueHours: (cell: CellParams) => number;
 }
 
 /** One candidate planned, priced and dated. */
@@ -131,7 +131,7 @@ export function evaluateCandidate(
   const ms = part.ms;
   const bp = planStage(ms, { cell, beadWidthMm, sections, printMode, wallsOverride: printMode === "shell" ? s.wallsOverride : null, partsPerBuild }, material, card, s.rules, s.allowanceMm, s.quantity, part.machiningFor(sections, cell));
   const pricing = priceStage(ms, bp, cell, material, card, s.quantity, s.priceOptions);
-  const schedule = scheduleStage(part.now, cell, card, bp, s.quantity, part.queueHours(cell), s.plant);
+  const schedule = scheduleStage(s.ledger, cell, card, bp, s.quantity);
   const reasons: ReviewReason[] = [];
   if (!fits) reasons.push({ code: "fits-no-cell", message: `The part does not fit the ${cell.name} cell in one piece.` });
   if (bp.flaggedLayers > 0) reasons.push({ code: "layers-outside-window", message: `${bp.flaggedLayers} of ${bp.layers.timeS.length * bp.builds} layers take longer than the ${material.maxLayerTimeS} s cooling window of ${material.name}.` });
@@ -199,7 +199,7 @@ export function chooseStage(s: SearchInput, warnings: EstimateWarning[]): Choice
     return sectionsAt(f, h);
   };
 
-  const part: PartContext = { ms, machiningFor: (sec) => machiningOf(s, ms, sec), now: s.now, queueHours: (c) => s.queue[c.key] ?? 0 };
+  const part: PartContext = { ms, machiningFor: (sec) => machiningOf(s, ms, sec) };
   const evaluate = (cell: CellParams, orientation: Orientation, fits: boolean, sections: GrownSections, beadWidthMm: number, printMode: PrintMode, partsPerBuild: number, vertical = false): Candidate =>
     evaluateCandidate(s, part, cell, orientation, fits, sections, beadWidthMm, printMode, partsPerBuild, vertical);
 

@@ -1,10 +1,11 @@
 import { stepoverForScallop } from "../machining";
 import { clearance, orientedSize, verticalCellOf } from "../orient";
 import { costLine, totalsOf, type Pricing } from "../pricing";
-import { addWorkingDays, addWorkingHours, nextOpenDay } from "../schedule";
+import { placeJob, type JobPlacement, type JobSpec } from "../placement";
 import type { Axis, CellParams, CostLine, Orientation, RateCardParams, SplitSuggestion } from "../types";
 import { compareCandidates, evaluateCandidate, machiningOf, presetsOf, type Candidate, type PartContext, type SearchInput } from "./choose";
 import type { Measured } from "./measure";
+import { jobTail, printsOf, scheduleOf } from "./schedule";
 import { sectionsAt, sliceStage, type GrownSections } from "./slice";
 
 const AXIS_INDEX: Record<Axis, number> = { x: 0, y: 1, z: 2 };
@@ -52,6 +53,9 @@ export interface PiecesPlan {
   /** When the joined part is machined across its joints, and its ship date. */
   joinEnd: Date;
   shipDate: string;
+  /** The pieces' prints, the joining and the days after, as placed on the calendar. */
+  spec: JobSpec;
+  placement: JobPlacement;
 }
 
 /**
@@ -94,7 +98,7 @@ export function planPieces(s: SearchInput, cells: CellParams[], split: SplitSugg
       m: { ...ms.m, areaMm2: area, volumeMm3: volume, bounds: { min, max } }, volumeMm3: volume, meanCurvatureMm: M,
       netSize, grownSize: netSize.map((v) => v + 2 * t) as [number, number, number],
     };
-    const part: PartContext = { ms: pms, machiningFor: (sec) => machiningOf(s, pms, sec), now: s.now, queueHours: (c) => s.queue[c.key] ?? 0 };
+    const part: PartContext = { ms: pms, machiningFor: (sec) => machiningOf(s, pms, sec) };
     const all: Candidate[] = [];
     for (const cell of cells) {
       for (const [c, vertical] of [[cell, false], [verticalCellOf(cell), true]] as [CellParams | null, boolean][]) {
@@ -116,31 +120,26 @@ export function planPieces(s: SearchInput, cells: CellParams[], split: SplitSugg
     pieces.push({ index: i, fromMm: from, toMm: to, ms: pms, chosen: all[0]!, machiningStart: s.now, machiningEnd: s.now, highCut: { area: sl.highAreaMm2, perimeter: sl.highPerimeterMm } });
   }
 
-  // Pieces on one cell print one after another (the next set-up once the last is cool and lifted);
-  // the router machines them one at a time in the order they are cool.
-  const freeAt = new Map<string, Date>();
-  for (const p of pieces) {
-    const c = p.chosen, cell = c.cell;
-    const free = freeAt.get(cell.key);
-    if (free) {
-      const part: PartContext = { ms: p.ms, machiningFor: () => c.bp.machining, now: free, queueHours: () => 0 };
-      p.chosen = { ...evaluateCandidate(s, part, cell, c.orientation, true, c.sections, c.bp.beadWidthMm, c.bp.printMode, 1, c.vertical), status: c.status, reasons: c.reasons };
-    }
-    freeAt.set(cell.key, p.chosen.schedule.coolingEnd);
-  }
-  const routerCal = card.routerCalendar ?? pieces[0]!.chosen.cell.calendar;
-  let router = s.now;
-  for (const p of [...pieces].sort((a, b) => a.chosen.schedule.coolingEnd.getTime() - b.chosen.schedule.coolingEnd.getTime())) {
-    p.machiningStart = new Date(Math.max(p.chosen.schedule.coolingEnd.getTime(), router.getTime()));
-    p.machiningEnd = addWorkingHours(p.machiningStart, p.chosen.bp.machining.totalHours * s.quantity, routerCal, s.plant);
-    router = p.machiningEnd;
-  }
-
+  // All the pieces' prints placed together: pieces on one cell print one after another (the next
+  // set-up once the last is cool and lifted); the router machines them one at a time in the order
+  // they leave their cells, then bonds and machines across the joints.
   const joint = jointOf(pieces, card, s.quantity);
-  const joinEnd = addWorkingHours(router, joint.hours, routerCal, s.plant);
-  const cal = pieces[0]!.chosen.cell.calendar;
-  const done = addWorkingDays(joinEnd, card.finishingDays + card.inspectionDays + card.packingDays, cal, s.plant);
-  const shipDate = nextOpenDay(done, cal, s.plant);
+  const first = pieces[0]!.chosen.cell;
+  const perPiece = pieces.map((p) => printsOf(p.chosen.cell, card, p.chosen.bp, s.quantity));
+  const spec: JobSpec = { prints: perPiece.flat(), joinHours: joint.hours, ...jobTail(first, card) };
+  const placement = placeJob(s.ledger.fork(), spec);
+  let k = 0;
+  for (const [i, p] of pieces.entries()) {
+    const own = placement.prints.slice(k, k + perPiece[i]!.length);
+    const ownSpec: JobSpec = { ...spec, prints: spec.prints.slice(k, k + own.length), joinHours: 0 };
+    k += own.length;
+    const end = Math.max(...own.map((x) => x.machiningEnd));
+    p.chosen = { ...p.chosen, schedule: scheduleOf({ ...placement, prints: own, machiningEnd: end }, ownSpec) };
+    p.machiningStart = new Date(Math.min(...own.map((x) => x.machiningStart)));
+    p.machiningEnd = new Date(end);
+  }
+  const joinEnd = new Date(placement.machiningEnd);
+  const shipDate = placement.shipDate;
 
   // Lines: each piece's own summed by key, the joining, then the joined part's finishing, crate and freight.
   const lines: CostLine[] = [];
@@ -154,7 +153,7 @@ export function planPieces(s: SearchInput, cells: CellParams[], split: SplitSugg
   lines.push(costLine("joining", `Joining ${n} pieces: bonding and machining across ${joint.cuts === 1 ? "the joint" : `${joint.cuts} joints`}`, joint.hours, "h", card.machiningRateCentsPerH));
   for (const l of wholePricing.lines) if (!PIECE_LINE_KEYS.includes(l.key)) lines.push(l);
   const pricing: Pricing = { ...totalsOf(lines, card), ...(wholePricing.crate ? { crate: wholePricing.crate } : {}) };
-  return { axis, pieces, joint, pricing, joinEnd, shipDate };
+  return { axis, pieces, joint, pricing, joinEnd, shipDate, spec, placement };
 }
 
 /** Bonding and machining across each joint: set-up, bond by face area, and a band each side of the joint contour finished at the card's stepover and feed. */
