@@ -7,6 +7,7 @@ import MemberInviteEmail from "./member-invite";
 import QuoteReadyEmail from "./quote-ready";
 import RequestReceivedEmail from "./request-received";
 import ScheduledEmail from "./scheduled";
+import ShipDateChangedEmail from "./ship-date-changed";
 import ShippedEmail from "./shipped";
 import StaffMessageEmail from "./staff-message";
 
@@ -19,6 +20,7 @@ describe("client e-mail templates render their preview props", () => {
     ["quote-ready", QuoteReadyEmail, ["Quote version 2", "$9,552.50", "Valid until 15 January 2027"]],
     ["deposit-received", DepositReceivedEmail, ["$9,552.50", "PO KA-PO-7781", "Receipt RC-2026-00042"]],
     ["scheduled", ScheduledEmail, ["Long Bed", "12 January 2027", "2 February 2027"]],
+    ["ship-date-changed", ShipDateChangedEmail, ["from 2 February 2027 to 5 February 2027", "moved later", "second print after a layer fault"]],
     ["shipped", ShippedEmail, ["HF-88213-04", "340 kg", "lifting procedures"]],
     ["balance-due", BalanceDueEmail, ["balance of $9,552.50"]],
     ["member-invite", MemberInviteEmail, ["Caldrith Aerostructures", "one-time link"]],

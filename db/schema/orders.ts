@@ -113,6 +113,45 @@ export const scheduleBlocks = sqliteTable(
 );
 export type ScheduleBlock = typeof scheduleBlocks.$inferSelect;
 
+/** Time production takes a cell or the router out of service (maintenance); estimates and bookings respect it. */
+export const maintenanceBlocks = sqliteTable(
+  "maintenance_blocks",
+  {
+    id: id(),
+    /** A printing cell's key, or "router". */
+    resourceKey: text("resource_key").notNull(),
+    startsAt: ts("starts_at").notNull(),
+    endsAt: ts("ends_at").notNull(),
+    reason: text("reason").notNull(),
+    createdById: text("created_by_id").references(() => users.id),
+    createdAt: createdAt(),
+  },
+  (t) => [index("maintenance_blocks_resource_idx").on(t.resourceKey, t.startsAt)],
+);
+export type MaintenanceBlock = typeof maintenanceBlocks.$inferSelect;
+
+/** An order's planned ship date moved (a job moved, delayed or finished early), with the reason staff gave. */
+export const shipDateChanges = sqliteTable(
+  "ship_date_changes",
+  {
+    id: id(),
+    orderId: text("order_id")
+      .notNull()
+      .references(() => orders.id, { onDelete: "cascade" }),
+    fromDate: ts("from_date"),
+    toDate: ts("to_date").notNull(),
+    reason: text("reason").notNull(),
+    /** Whether the client was e-mailed (a move of a working day or more). */
+    isNotified: integer("is_notified", { mode: "boolean" }).notNull().default(false),
+    actorId: text("actor_id").references(() => users.id),
+    at: ts("at")
+      .notNull()
+      .$defaultFn(() => new Date()),
+  },
+  (t) => [index("ship_date_changes_order_idx").on(t.orderId, t.at)],
+);
+export type ShipDateChange = typeof shipDateChanges.$inferSelect;
+
 /** Every stage transition, with who and when. */
 export const stageEvents = sqliteTable(
   "stage_events",

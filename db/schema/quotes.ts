@@ -2,7 +2,7 @@ import { index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-or
 import { users } from "./auth";
 import { rateCards } from "./catalogue";
 import { createdAt, id, ts } from "./common";
-import { parts, requests } from "./requests";
+import { LEAD_TIMES, parts, requests } from "./requests";
 
 export const QUOTE_STATUSES = ["draft", "issued", "accepted", "superseded", "expired", "declined"] as const;
 export type QuoteStatus = (typeof QUOTE_STATUSES)[number];
@@ -33,6 +33,8 @@ export const quotes = sqliteTable(
     termsVersion: integer("terms_version"),
     notes: text("notes").notNull().default(""),
     shipDate: ts("ship_date"),
+    /** The delivery quoted (its ship date is `shipDate`); the request's choice when drafted. */
+    leadTime: text("lead_time", { enum: LEAD_TIMES }).notNull().default("standard"),
     rateCardId: text("rate_card_id").references(() => rateCards.id),
     createdById: text("created_by_id").references(() => users.id),
     issuedById: text("issued_by_id").references(() => users.id),

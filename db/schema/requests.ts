@@ -5,6 +5,9 @@ import type { EstimateResult } from "../../lib/estimating/types";
 import { organisations } from "./organisations";
 
 export const CURE_PROCESSES = ["room", "oven", "autoclave"] as const;
+/** Delivery choices of an estimate (lib/estimating/lead-times.ts). */
+export const LEAD_TIMES = ["standard", "expedite", "economy"] as const;
+export type LeadTimeChoice = (typeof LEAD_TIMES)[number];
 export type CureProcess = (typeof CURE_PROCESSES)[number];
 
 /** A client's request; its stage is the order's whole life (DESIGN.md). */
@@ -26,6 +29,8 @@ export const requests = sqliteTable(
     /** Expansion of the part laid up on the tool (ppm/K), for the CTE mismatch warning. */
     partCtePpmPerK: real("part_cte_ppm_per_k"),
     isControlled: integer("is_controlled", { mode: "boolean" }).notNull().default(false),
+    /** The delivery the client asked for: standard, expedited, or economy. */
+    leadTime: text("lead_time", { enum: LEAD_TIMES }).notNull().default("standard"),
     notes: text("notes").notNull().default(""),
     stage: text("stage", { enum: STAGES }).notNull().default("draft"),
     /** Stage to return to when an on_hold request is released. */

@@ -2,6 +2,7 @@ import "server-only";
 import type { Db } from "../../db/client";
 import { firmFreightZone } from "./freight-zone";
 import { claimAnalysis, getAnalysisJob, listStrandedAnalyses, renewAnalysisLease, requeueAnalysis, resetFailedAnalysis, setRevisionSha256 } from "../../db/queries/analysis-jobs";
+import { loadCapacityQueue } from "../../db/queries/capacity";
 import { loadCatalogue } from "../../db/queries/catalogue";
 import { createAnalysis, getAnalysis, updateAnalysis } from "../../db/queries/parts";
 import type { AnalyseOptions } from "../estimating/analyse";
@@ -149,6 +150,10 @@ async function runOnce(db: Db, analysisId: string, deps: RunDeps): Promise<Outco
       pending = pending.then(() => updateAnalysis(db, analysisId, { progress: Math.min(0.99, 0.05 + 0.94 * fraction), stageLabel: stage })).catch(() => {});
     };
 
+    // The estimate's dates are placed around the work already on the calendar.
+    const at = now();
+    const queue = await loadCapacityQueue(db, at, cat.cells.map((c) => c.key));
+
     // While it waits its firm's turn, the row says where it stands (the browser polls it).
     const onPlace = ({ ahead, waitS }: QueuePlace) => {
       const label = ahead === 0 ? "Next in line for the estimator" : `In line for the estimator: ${ahead} ahead, about ${waitS < 60 ? `${Math.max(5, waitS)} s` : `${Math.round(waitS / 60)} min`}`;
@@ -160,7 +165,7 @@ async function runOnce(db: Db, analysisId: string, deps: RunDeps): Promise<Outco
     let result;
     for (let full = 0, yours = 0; ; ) {
       try {
-        result = await pool.run({ remote, fileName: job.fileName, options, catalogue: cat, now: now() }, onProgress, { lane: job.orgId, owner: job.ownerId ?? undefined, onPlace });
+        result = await pool.run({ remote, fileName: job.fileName, options, catalogue: cat, now: at, queue: queue.hours, booked: queue.booked }, onProgress, { lane: job.orgId, owner: job.ownerId ?? undefined, onPlace });
         break;
       } catch (e) {
         // The user's own jobs end within the pool's time limit each: look again every second.

@@ -15,7 +15,7 @@ const EXPECTED: Record<Role, Permission[]> = {
   client: ["request:create", "request:read_own", "request:edit_draft", "quote:accept", "payment:pay", "message:post"],
   client_admin: ["request:create", "request:read_own", "request:read_org", "request:edit_draft", "quote:accept", "payment:pay", "message:post", "members:manage", "billing:manage", "files:delete_early"],
   sales: ["admin:access", "request:read_any", "sales:inbox", "quote:manage", "message:post"],
-  production: ["admin:access", "request:read_any", "production:board", "production:schedule", "production:record"],
+  production: ["admin:access", "request:read_any", "production:board", "production:schedule", "production:record", "production:capacity"],
   accounts: ["admin:access", "request:read_any", "accounts:ledger", "accounts:refund", "accounts:terms"],
   admin: [...PERMISSIONS],
 };

@@ -23,6 +23,7 @@ export const PERMISSIONS = [
   "production:board",
   "production:schedule",
   "production:record",
+  "production:capacity",
   "accounts:ledger",
   "accounts:refund",
   "accounts:terms",
@@ -41,7 +42,7 @@ export const ROLE_PERMISSIONS: Record<Role, ReadonlySet<Permission>> = {
   client: new Set(CLIENT),
   client_admin: new Set<Permission>([...CLIENT, "request:read_org", "members:manage", "billing:manage", "files:delete_early"]),
   sales: new Set<Permission>([...STAFF_BASE, "sales:inbox", "quote:manage", "message:post"]),
-  production: new Set<Permission>([...STAFF_BASE, "production:board", "production:schedule", "production:record"]),
+  production: new Set<Permission>([...STAFF_BASE, "production:board", "production:schedule", "production:record", "production:capacity"]),
   accounts: new Set<Permission>([...STAFF_BASE, "accounts:ledger", "accounts:refund", "accounts:terms"]),
   admin: new Set<Permission>(PERMISSIONS),
 };

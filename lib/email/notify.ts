@@ -15,6 +15,7 @@ import DepositReceivedEmail from "@/emails/deposit-received";
 import QuoteReadyEmail from "@/emails/quote-ready";
 import RequestReceivedEmail from "@/emails/request-received";
 import ScheduledEmail from "@/emails/scheduled";
+import ShipDateChangedEmail from "@/emails/ship-date-changed";
 import ShippedEmail from "@/emails/shipped";
 import StaffMessageEmail from "@/emails/staff-message";
 import { env } from "@/lib/env";
@@ -167,6 +168,28 @@ export async function notifyScheduled(orderId: string, db: Db = getDb()) {
     tags: [{ name: "template", value: "scheduled" }],
     // A re-planned order gets a fresh notice with the new dates.
     idempotencyKey: `scheduled/${orderId}/${start?.getTime() ?? "none"}/${row.order.plannedShip?.getTime() ?? "none"}`,
+  }, db);
+}
+
+/** The client's planned ship date moved by a working day or more: both dates and the reason staff gave. */
+export async function notifyShipDateChanged(orderId: string, change: { id: string; fromDate: Date; toDate: Date; reason: string }, db: Db = getDb()) {
+  const row = await getOrderWithRequest(db, orderId);
+  if (!row) throw new Error(`notify: order ${orderId} not found`);
+  const c = await contactsOrThrow(db, row.request.id);
+  await queueEmail({
+    to: recipients(c.creatorEmail),
+    subject: `${c.reference}: planned ship date now ${formatDate(change.toDate)}`,
+    react: createElement(ShipDateChangedEmail, {
+      reference: c.reference,
+      projectName: c.projectName,
+      fromDate: formatDate(change.fromDate),
+      toDate: formatDate(change.toDate),
+      reason: change.reason,
+      isLater: change.toDate.getTime() > change.fromDate.getTime(),
+      url: requestUrl(c.id),
+    }),
+    tags: [{ name: "template", value: "ship-date-changed" }],
+    idempotencyKey: `ship-date-changed/${change.id}`,
   }, db);
 }
 

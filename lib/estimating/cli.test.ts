@@ -40,4 +40,23 @@ describe("estimate CLI", () => {
     expect(r.status).toBe(2);
     expect(r.stderr.trim()).toBe("--units must be mm or in.");
   }, 60_000);
+
+  it("--queue moves the ship date later; an unknown cell or negative hours exit 2 with a plain line", () => {
+    const f = path.join(dir, "fixture3.stl");
+    writeFileSync(f, binaryStl(drillFixture()));
+    const idle = JSON.parse(cli(f, "--json", "--cell", "compact").stdout);
+    const busy = cli(f, "--json", "--cell", "compact", "--queue", "compact=120", "--queue", "router=10");
+    expect(busy.status).toBe(0);
+    const b = JSON.parse(busy.stdout);
+    expect(b.shipDate > idle.shipDate).toBe(true);
+    expect(b.schedule.queueHours).toBeGreaterThanOrEqual(120);
+    expect(b.leadTimes.map((l: { key: string }) => l.key)).toContain("expedite");
+    for (const bad of [["--queue", "lathe=4"], ["--queue", "compact=-2"]]) {
+      const r = cli(f, "--json", ...bad);
+      expect(r.status).toBe(2);
+      expect(r.stdout).toBe("");
+      expect(r.stderr.trim().split("\n")).toHaveLength(1);
+      expect(r.stderr).toMatch(/--queue/);
+    }
+  }, 90_000);
 });

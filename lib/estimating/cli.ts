@@ -5,21 +5,37 @@ import { analyse } from "./analyse";
 import { defaultCells, defaultMaterials, defaultRateCard } from "./defaults";
 import { EstimateInputError, isEstimateInputError } from "./errors";
 import { readModelFile } from "./read-model-file";
+import type { CapacityQueue } from "./placement";
+import { forCells, parseQueueArgs, queueFromRows, unscheduledOf, type BookedRow, type UnscheduledRow } from "./queue";
 import type { CellParams, EstimateResult, MaterialParams, RateCardParams } from "./types";
 
 /**
  * npm run estimate -- FILE [--units mm|in] [--material KEY] [--allowance MM] [--cell KEY]
- *   [--shell-walls N] [--solid] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--finish-bed-face] [--trim-lines] [--tolerance MM] [--bodies 0,2,…] [--json]
+ *   [--shell-walls N] [--solid] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--finish-bed-face] [--trim-lines] [--tolerance MM] [--bodies 0,2,…]
+ *   [--queue CELL=HOURS …] [--json]
  *   (--tolerance and --bodies apply to STEP/IGES files)
+ * The work already booked comes from the database's calendar (jobs, maintenance blocks, accepted
+ * orders not yet scheduled); with no database, an empty queue. `--queue` (repeatable; `router`
+ * for the router) replaces it with booked hours, no slack, for what-if runs.
  * Exit 0 on success, 2 on a bad file or option (one plain line on stderr), 1 on anything else.
  */
-const USAGE = "usage: npm run estimate -- FILE [--units mm|in] [--material KEY] [--allowance MM] [--cell KEY] [--shell-walls N] [--solid] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--finish-bed-face] [--trim-lines] [--tolerance MM] [--bodies 0,2,…] [--json]";
+const USAGE = "usage: npm run estimate -- FILE [--units mm|in] [--material KEY] [--allowance MM] [--cell KEY] [--shell-walls N] [--solid] [--orientation x|y|z] [--quantity N] [--cure-temp C] [--finish-bed-face] [--trim-lines] [--tolerance MM] [--bodies 0,2,…] [--queue CELL=HOURS …] [--json]";
 
-interface Catalogue { materials: MaterialParams[]; cells: CellParams[]; rateCard: RateCardParams; source: string }
+interface Catalogue { materials: MaterialParams[]; cells: CellParams[]; rateCard: RateCardParams; source: string; queue: CapacityQueue }
+
+const OFF_THE_CELL = "('shipped','delivered','closed','cancelled')";
+/** The calendar's booked blocks and maintenance blocks ending after now, and accepted work not yet on it. */
+const BOOKED_SQL = `select b.cell_key, b.kind, b.starts_at, b.ends_at, r.reference, o.planned_ship, q.ship_date from schedule_blocks b
+  join orders o on o.id = b.order_id join requests r on r.id = o.request_id join quotes q on q.id = o.quote_id
+  where b.ends_at > ? and r.stage not in ${OFF_THE_CELL}`;
+const BLOCKS_SQL = "select resource_key, starts_at, ends_at, reason from maintenance_blocks where ends_at > ?";
+const UNSCHEDULED_SQL = `select a.result from orders o join requests r on r.id = o.request_id join parts p on p.request_id = r.id
+  join analyses a on a.revision_id = p.current_revision_id and a.status = 'done'
+  where r.stage in ('accepted','deposit_paid') and o.cell_key is null order by a.created_at desc`;
 
 /** Catalogue from the database when it exists and has rows, else the seed's defaults. */
 async function loadCatalogue(): Promise<Catalogue> {
-  const fallback: Catalogue = { materials: defaultMaterials, cells: defaultCells, rateCard: defaultRateCard, source: "defaults" };
+  const fallback: Catalogue = { materials: defaultMaterials, cells: defaultCells, rateCard: defaultRateCard, source: "defaults", queue: {} };
   const url = process.env.DATABASE_URL ?? "file:./data/layerwright.db";
   if (url.startsWith("file:") && !existsSync(url.slice(5))) return fallback;
   try {
@@ -31,13 +47,31 @@ async function loadCatalogue(): Promise<Catalogue> {
       const cells = (await rows("select params from cells where is_current = 1 and is_active = 1")) as CellParams[];
       const cards = (await rows("select params from rate_cards where is_current = 1 order by version desc limit 1")) as Partial<RateCardParams>[];
       if (materials.length === 0 || cells.length === 0 || cards.length === 0) return fallback;
-      return { materials, cells, rateCard: { ...defaultRateCard, ...cards[0] }, source: "database" };
+      return { materials, cells, rateCard: { ...defaultRateCard, ...cards[0] }, source: "database", queue: forCells(await loadQueue(db, Date.now()), cells.map((c) => c.key)) };
     } finally {
       db.close();
     }
   } catch {
     return fallback;
   }
+}
+
+type Exec = { execute: (q: string | { sql: string; args: (number | string)[] }) => Promise<{ rows: Record<string, unknown>[] }> };
+
+/** The booked work from the database (a database from before maintenance blocks simply has none). */
+async function loadQueue(db: Exec, nowMs: number): Promise<CapacityQueue> {
+  const n = (v: unknown) => (v == null ? null : Number(v));
+  const booked: BookedRow[] = (await db.execute({ sql: BOOKED_SQL, args: [nowMs] })).rows.map((r) => ({
+    cellKey: String(r.cell_key), kind: String(r.kind) as BookedRow["kind"], startsAt: Number(r.starts_at), endsAt: Number(r.ends_at),
+    ref: String(r.reference), plannedShipMs: n(r.planned_ship), promisedShipMs: n(r.ship_date),
+  }));
+  try {
+    for (const r of (await db.execute({ sql: BLOCKS_SQL, args: [nowMs] })).rows) {
+      booked.push({ cellKey: String(r.resource_key), kind: "maintenance", startsAt: Number(r.starts_at), endsAt: Number(r.ends_at), ref: String(r.reason) });
+    }
+  } catch { /* no maintenance table yet */ }
+  const unscheduled: UnscheduledRow[] = (await db.execute(UNSCHEDULED_SQL)).rows.map((r) => unscheduledOf(JSON.parse(String(r.result)) as Partial<EstimateResult>)).filter((u): u is UnscheduledRow => u !== null);
+  return queueFromRows(nowMs, booked, unscheduled);
 }
 
 function num(v: string | undefined, name: string): number | undefined {
@@ -51,6 +85,7 @@ function bodiesOf(v: string | undefined): number[] | undefined {
   return v === undefined ? undefined : v.split(",").map((b) => num(b.trim(), "bodies") ?? NaN);
 }
 
+const LEAD_LABEL = { standard: "standard", expedite: "expedited", economy: "economy" } as const;
 const money = (c: number) => `$${(c / 100).toLocaleString("en-US", { minimumFractionDigits: 2, maximumFractionDigits: 2 })}`;
 const f = (v: number, d = 1) => v.toLocaleString("en-US", { maximumFractionDigits: d });
 
@@ -83,7 +118,8 @@ function human(r: EstimateResult, source: string): string {
   L.push(`    ${"Total".padEnd(48)} ${money(r.totalCents).padStart(14)}`);
   L.push(`    ${"Deposit".padEnd(48)} ${money(r.depositCents).padStart(14)}`);
   L.push(`  schedule (${r.schedule.timeZone}): set-up from ${r.schedule.setupStart}, printing straight through ${r.schedule.printStart} → ${r.schedule.printEnd}, machined by ${r.schedule.machiningEnd}`);
-  L.push(`  earliest ship date ${r.shipDate}; estimate valid until ${r.validUntil}`);
+  L.push(`  earliest ship date ${r.shipDate} (${f(r.schedule.queueHours, 1)} working hours of booked work ahead on the cell); estimate valid until ${r.validUntil}`);
+  for (const l of r.leadTimes) L.push(`    ${LEAD_LABEL[l.key].padEnd(10)} ships ${l.shipDate}  ${money(l.totalCents).padStart(14)}${l.adjustmentCents ? ` (${l.adjustmentCents > 0 ? "+" : "−"}${money(Math.abs(l.adjustmentCents))} before margin and tax)` : ""}${l.jumped ? `, ahead of ${l.jumped} booked job(s) that still make their dates` : ""}`);
   L.push(`  candidates planned: ${r.candidatesPlanned}; best of each cell:`);
   for (const a of r.alternatives) L.push(`    ${a.cellName.padEnd(12)} ${f(a.printHours + a.dwellHours, 1).padStart(7)} h ${money(a.totalCents).padStart(14)}  ships ${a.shipDate}  ${a.status === "priced" ? "" : "(review) "}${a.whyNot || "chosen"}`);
   for (const x of r.remedies) L.push(`  tried: ${x.tried} → ${x.result}`);
@@ -101,7 +137,7 @@ async function main(): Promise<number> {
         units: { type: "string" }, material: { type: "string" }, allowance: { type: "string" }, cell: { type: "string" },
         "shell-walls": { type: "string" }, solid: { type: "boolean" }, orientation: { type: "string" }, quantity: { type: "string" }, "cure-temp": { type: "string" },
         tolerance: { type: "string" }, bodies: { type: "string" }, "finish-bed-face": { type: "boolean" }, "trim-lines": { type: "boolean" },
-        json: { type: "boolean" }, help: { type: "boolean" },
+        queue: { type: "string", multiple: true }, json: { type: "boolean" }, help: { type: "boolean" },
       },
     });
   } catch (e) {
@@ -117,6 +153,12 @@ async function main(): Promise<number> {
     if (v.units !== undefined && v.units !== "mm" && v.units !== "in") throw new EstimateInputError("option:units", "--units must be mm or in.");
     if (v.orientation !== undefined && !["x", "y", "z"].includes(v.orientation)) throw new EstimateInputError("option:orientation", "--orientation must be x, y or z (the file axis that points up).");
     const cat = await loadCatalogue();
+    let queue: Record<string, number> | undefined;
+    try {
+      if (v.queue?.length) queue = parseQueueArgs(v.queue, cat.cells.map((c) => c.key));
+    } catch (e) {
+      throw new EstimateInputError("option:queue", (e as Error).message);
+    }
     // read from disk in chunks (a binary STL never sits whole in memory), then analysed in place
     const read = await readModelFile(file, basename(file), { units: v.units, toleranceMm: num(v.tolerance, "tolerance"), bodies: bodiesOf(v.bodies) });
     const r = await analyse({
@@ -130,6 +172,8 @@ async function main(): Promise<number> {
         bodies: bodiesOf(v.bodies), finishBedFace: v["finish-bed-face"], trimLines: v["trim-lines"],
       },
       catalogue: cat, now: new Date(),
+      // --queue replaces the calendar's queue for a what-if run
+      ...(queue ? { queue } : { queue: cat.queue.hours, booked: cat.queue.booked }),
     });
     process.stdout.write(v.json ? `${JSON.stringify(r)}\n` : `${human(r, cat.source)}\n`);
     return 0;

@@ -25,6 +25,9 @@ import { zoneFor } from "@/lib/estimating/freight";
 import { DEMO_TERMS, seedDocuments } from "./documents";
 import { processorRecordsFor, type SeedProcessorRecord } from "./processor";
 import { FileStore } from "@/mocks/uploadthing/store";
+import { ROUTER_KEY } from "@/lib/estimating/placement";
+import { zonedToUtc } from "@/lib/estimating/schedule";
+import { plantDay } from "@/lib/scheduling/reschedule";
 
 const DAY = 86_400_000;
 
@@ -390,6 +393,7 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
     });
   }
 
+  await seedMaintenance(db, now, staffId("production@ostrevane.example"));
   await seedProcurement(db, orgIds, now, staffId("accounts@ostrevane.example"));
   await numberUnnumberedReceipts(db);
   const documentCount = await seedDocuments(db);
@@ -403,6 +407,22 @@ export async function seed(db: Db, opts: SeedOptions = {}): Promise<SeedResult> 
     console.log("Staff also type a code: `npm run demo:code -- EMAIL` prints the current one (or add the secret in lib/seed/data.ts to an authenticator app).");
   }
   return { users: DEMO_USERS.length, requests: DEMO_REQUESTS.length, processorRecords };
+}
+
+/**
+ * Two maintenance blocks in the week after next (plant time): the Long Bed's screw and barrel
+ * inspection all Tuesday, the router's spindle service Thursday morning. The demo's capacity view
+ * shows them and its estimates go around them.
+ */
+async function seedMaintenance(db: Db, now: Date, productionId: string) {
+  const tz = defaultRateCard.plantTimeZone ?? "UTC", start = defaultRateCard.shiftStartHour ?? 6;
+  const today = new Date(`${plantDay(now, tz)}T00:00:00Z`);
+  const monday = new Date(today.getTime() + (((8 - today.getUTCDay()) % 7 || 7) + 7) * DAY);
+  const at = (days: number, hour: number) => new Date(zonedToUtc(monday.getUTCFullYear(), monday.getUTCMonth(), monday.getUTCDate() + days, hour, tz));
+  await db.insert(s.maintenanceBlocks).values([
+    { resourceKey: "long-bed", startsAt: at(1, start), endsAt: at(1, start + 16), reason: "Screw and barrel inspection", createdById: productionId, createdAt: now },
+    { resourceKey: ROUTER_KEY, startsAt: at(3, start), endsAt: at(3, start + 8), reason: "Spindle bearing service", createdById: productionId, createdAt: now },
+  ]);
 }
 
 function optionsOf(r: DemoRequest) {

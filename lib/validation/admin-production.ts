@@ -71,3 +71,30 @@ export const calendarQuerySchema = z.object({
   from: z.iso.date().optional(),
   days: z.coerce.number().int().min(1).max(90).default(21),
 });
+
+/** A date-time from the form: the plant's wall-clock `datetime-local`, or an instant ending in "Z". */
+const plantDateTime = (what: string) =>
+  z
+    .string()
+    .min(1, `Pick ${what}.`)
+    .refine((s) => (s.endsWith("Z") ? !Number.isNaN(Date.parse(s)) : fromPlantInput(s) !== null), "Not a date and time.");
+export const instantOf = (s: string): Date => (s.endsWith("Z") ? new Date(s) : fromPlantInput(s)!);
+
+/** Moving a booked job: a new print start and the reason the client will read. */
+export const moveJobSchema = z.object({
+  orderId: z.string().min(1).max(64),
+  start: plantDateTime("a new start"),
+  reason: z.string().trim().min(3, "Say why the job moves; the client reads it if the ship date changes.").max(500),
+});
+
+/** Taking a cell or the router out of service for maintenance. */
+export const maintenanceBlockSchema = z
+  .object({
+    resourceKey: z.string().min(1).max(64),
+    start: plantDateTime("a start"),
+    end: plantDateTime("an end"),
+    reason: z.string().trim().min(3, "Say what the maintenance is.").max(200),
+  })
+  .refine((v) => instantOf(v.end).getTime() > instantOf(v.start).getTime(), { path: ["end"], message: "The end must be after the start." });
+
+export const removeBlockSchema = z.object({ id: z.string().min(1).max(64) });

@@ -15,7 +15,7 @@ export default async function ProductionPage() {
   const cells = await listCurrentCells(getDb());
   return (
     <>
-      <PageHeader title="Production" subtitle="Orders by stage, and each printing cell's calendar (UTC)." actions={<ButtonLink href="/admin/production/report" variant="secondary">Actual against estimate</ButtonLink>} />
+      <PageHeader title="Production" subtitle="Orders by stage, and each printing cell's calendar (UTC)." actions={<span className="flex flex-wrap gap-2"><ButtonLink href="/admin/production/capacity" variant="secondary">Capacity, 8 weeks</ButtonLink><ButtonLink href="/admin/production/report" variant="secondary">Actual against estimate</ButtonLink></span>} />
       <ProductionBoard />
       <div className="mt-8 space-y-4">
         <CardTitle>Cell calendars</CardTitle>

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { loadCapacityQueue } from "@/db/queries/capacity";
 import { loadCatalogue } from "@/db/queries/catalogue";
 import { getUpload } from "@/db/queries/files";
 import { withEstimator } from "@/lib/analysis/estimator";
@@ -54,6 +55,9 @@ export const POST = defineRoute({ access: "signed-in", body: bodySchema, headers
     // and checks its content, so this thread never holds the model's bytes.
     const url = await signedFileUrl(upload.fileKey, { expiresInS: 600 });
     const freightZone = await firmFreightZone(db, upload.orgId ?? user.orgId, catalogue.rateCard);
-    return run({ remote: { url, maxBytes: MAX_MODEL_BYTES }, fileName: upload.fileName, options: { ...body.options, freightZone }, catalogue, now: new Date() });
+    // dates placed around the calendar's booked work, maintenance blocks and accepted orders
+    const now = new Date();
+    const queue = await loadCapacityQueue(db, now, catalogue.cells.map((c) => c.key));
+    return run({ remote: { url, maxBytes: MAX_MODEL_BYTES }, fileName: upload.fileName, options: { ...body.options, freightZone }, catalogue, now, queue: queue.hours, booked: queue.booked });
   });
 });

@@ -27,6 +27,7 @@ import { StageBadge } from "@/components/stage-badge";
 import { ShipToBlock } from "@/components/ship-to";
 import { RevisionUpload } from "@/app/(portal)/portal/requests/[id]/_components/revision-upload";
 import { StageTimeline } from "@/app/(portal)/portal/requests/[id]/_components/timeline";
+import { listShipDateChanges } from "@/db/queries/ship-dates";
 import { IssuedDocumentsList } from "@/components/issued-documents";
 import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
@@ -84,7 +85,7 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
     listIssuedDocuments(db, req.id),
   ]);
   const issued = issuedAll.filter((d) => canReadDocument(user, d.kind, { orgId: req.orgId, createdById: req.createdById }));
-  const payments = order ? await listPaymentsForOrder(db, order.id) : [];
+  const [payments, dateChanges] = order ? await Promise.all([listPaymentsForOrder(db, order.id), listShipDateChanges(db, order.id)]) : [[], []];
   const isFinished = (FINISHED_STAGES as readonly string[]).includes(req.stage);
   const [retention, fileState] = isFinished ? await Promise.all([getBureauSettings(db), getFileRetention(db, req.id)]) : [null, null];
   const finishedAt = isFinished ? ([...events].reverse().find((e) => e.toStage === req.stage)?.at ?? null) : null;
@@ -252,7 +253,7 @@ export default async function RequestPage({ params, searchParams }: { params: Pr
               <StageTimeline stage={req.stage} events={[
                   ...(events.some((e) => e.toStage === "draft") ? [] : [{ toStage: "draft" as const, at: req.createdAt, note: "Draft started", actorName: null }]),
                   ...events.map((e) => ({ toStage: e.toStage, at: e.at, note: e.note, actorName: e.actorName })),
-                ]} planned={planned} />
+                ]} planned={planned} dateChanges={dateChanges} />
             </Card>
             <Card>
               <CardTitle className="mb-3">Documents</CardTitle>

@@ -3,6 +3,9 @@ import { ShipToBlock } from "@/components/ship-to";
 import { notFound } from "next/navigation";
 import { dateText, dateTimeText, hoursText, stageText } from "@/components/admin/format";
 import { ActualsForm, ScheduleForm, StageForm } from "@/app/admin/production/orders/[id]/_components/order-forms";
+import { listShipDateChanges } from "@/db/queries/ship-dates";
+import { moveBookedJob } from "./actions";
+import { MoveJobForm } from "./_components/move-job-form";
 import { StageBadge } from "@/components/stage-badge";
 import { Alert } from "@/components/ui/alert";
 import { OrderDocumentsCard } from "@/components/admin/order-documents";
@@ -27,7 +30,7 @@ export default async function ProductionOrderPage({ params }: { params: Promise<
   const db = getDb();
   const o = await getOrderForProduction(db, id);
   if (!o) notFound();
-  const [cells, reports] = await Promise.all([listCurrentCells(db), listInspectionReports(db, o.request.id)]);
+  const [cells, reports, dateChanges] = await Promise.all([listCurrentCells(db), listInspectionReports(db, o.request.id), listShipDateChanges(db, o.order.id)]);
   const stage = o.request.stage;
   const est = estimateTotals(o.parts);
   const options = orderMoves(
@@ -40,6 +43,7 @@ export default async function ProductionOrderPage({ params }: { params: Promise<
   const nextMonday = toPlantInput(nextPlantMonday(new Date()));
   const canSchedule = hasPermission(user, "production:schedule") && (stage === "deposit_paid" || stage === "scheduled");
   const canRecord = hasPermission(user, "production:record");
+  const canMove = hasPermission(user, "production:schedule") && o.blocks.length > 0 && ["scheduled", "printing", "cooling", "machining", "on_hold"].includes(stage);
   const moveContext = {
     from: stage,
     paidCents: o.payments.filter((p) => p.status === "paid" || p.status === "partially_refunded").reduce((sum, p) => sum + p.amountCents, 0),
@@ -75,6 +79,25 @@ export default async function ProductionOrderPage({ params }: { params: Promise<
                 <Alert tone="info" title="Waiting for the deposit">Only paid orders are laid on a cell.</Alert>
               ) : null}
             </div>
+            {canMove && stage !== "scheduled" ? (
+              <div className="mt-4 border-t border-paper-200 pt-4">
+                <MoveJobForm action={moveBookedJob} orderId={id} defaultStart={o.order.plannedStart ? toPlantInput(o.order.plannedStart) : nextMonday} />
+              </div>
+            ) : null}
+            {canMove && stage === "scheduled" ? (
+              <details className="mt-4 border-t border-paper-200 pt-4">
+                <summary className="cursor-pointer text-sm font-medium text-ink-700">Move the job and tell the clients affected</summary>
+                <div className="mt-3"><MoveJobForm action={moveBookedJob} orderId={id} defaultStart={o.order.plannedStart ? toPlantInput(o.order.plannedStart) : nextMonday} /></div>
+              </details>
+            ) : null}
+            {dateChanges.length ? (
+              <div className="mt-4 border-t border-paper-200 pt-3">
+                <p className="text-xs font-medium text-ink-500">Ship-date changes</p>
+                <ul className="mt-1 space-y-1 text-sm">
+                  {dateChanges.map((c) => <li key={c.id}><span className="figures">{dateText(c.fromDate)} → {dateText(c.toDate)}</span> · {c.reason} <span className="text-xs text-ink-500">({dateTimeText(c.at)})</span></li>)}
+                </ul>
+              </div>
+            ) : null}
           </Card>
           <Card>
             <CardTitle>Stage</CardTitle>

@@ -13,8 +13,17 @@ export interface TimelineEvent {
 
 const day = (d: Date) => formatDate(d);
 
-/** The order's life as a vertical timeline: actual dates where reached, planned dates ahead. */
-export function StageTimeline({ stage, events, planned }: { stage: Stage; events: TimelineEvent[]; planned: Partial<Record<Stage, Date | null>> }) {
+/** A planned ship date that moved, with the reason the bureau gave. */
+export interface ShipDateMove {
+  id: string;
+  fromDate: Date | null;
+  toDate: Date;
+  reason: string;
+  at: Date;
+}
+
+/** The order's life as a vertical timeline: actual dates where reached, planned dates ahead, and each move of the ship date. */
+export function StageTimeline({ stage, events, planned, dateChanges = [] }: { stage: Stage; events: TimelineEvent[]; planned: Partial<Record<Stage, Date | null>>; dateChanges?: ShipDateMove[] }) {
   const reached = new Map<Stage, TimelineEvent>();
   for (const e of events) reached.set(e.toStage, e);
   const current = FLOW.indexOf(stage === "on_hold" ? (events.at(-2)?.toStage ?? "draft") : stage);
@@ -45,6 +54,18 @@ export function StageTimeline({ stage, events, planned }: { stage: Stage; events
           </li>
         );
       })}
+      {dateChanges.length ? (
+        <li className="mt-2 rounded bg-paper-100 px-3 py-2">
+          <p className="text-xs font-medium text-ink-600">Ship date changes</p>
+          <ul className="mt-1 space-y-1 text-xs text-ink-700">
+            {dateChanges.map((c) => (
+              <li key={c.id}>
+                {day(c.at)}: planned ship moved from <span className="figures">{c.fromDate ? day(c.fromDate) : "—"}</span> to <span className="figures font-medium">{day(c.toDate)}</span>. {c.reason}
+              </li>
+            ))}
+          </ul>
+        </li>
+      ) : null}
       {off ? (
         <li className="mt-2 rounded bg-amber-50 px-3 py-2 text-amber-900">
           {STAGE_LABEL[stage]}

@@ -1,0 +1,51 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { useState, useTransition } from "react";
+import { Button } from "@/components/ui/button";
+import { Field, FormMessage, Input, Textarea } from "@/components/ui/input";
+import { zoneLabel } from "@/lib/dates";
+import type { ActionResult } from "@/lib/errors";
+
+type MoveInput = { orderId: string; start: string; reason: string };
+type Moved = { moved: { orderId: string; fromDate: string; toDate: string; clientTold: boolean }[] };
+
+/**
+ * Move a booked job (a delay, or earlier when the cell frees up): jobs it would overlap move back
+ * behind it, and each client whose ship date moves by a working day or more is e-mailed with the
+ * reason given here. The action comes from the page.
+ */
+export function MoveJobForm({ action, orderId, defaultStart }: { action: (input: MoveInput) => Promise<ActionResult<Moved>>; orderId: string; defaultStart: string }) {
+  const router = useRouter();
+  const [startAt, setStart] = useState(defaultStart);
+  const [reason, setReason] = useState("");
+  const [msg, setMsg] = useState<{ tone: "ok" | "error"; text: string } | null>(null);
+  const [errors, setErrors] = useState<Record<string, string[]>>({});
+  const [pending, start] = useTransition();
+  return (
+    <form
+      className="space-y-3"
+      onSubmit={(e) => {
+        e.preventDefault();
+        start(async () => {
+          const r = await action({ orderId, start: startAt, reason });
+          if (!r.ok) { setErrors(r.fieldErrors ?? {}); setMsg({ tone: "error", text: r.message }); return; }
+          const told = r.data.moved.filter((m) => m.clientTold).length;
+          const others = r.data.moved.filter((m) => m.orderId !== orderId).length;
+          setErrors({}); setReason("");
+          setMsg({ tone: "ok", text: `Moved.${others ? ` ${others} job${others === 1 ? "" : "s"} behind it moved back too.` : ""}${told ? ` ${told} client${told === 1 ? " was" : "s were"} e-mailed the new ship date.` : " No ship date moved by a working day."}` });
+          router.refresh();
+        });
+      }}
+    >
+      <Field label={`New print start (plant time, ${zoneLabel()})`} htmlFor="move-start" error={errors.start?.[0]}>
+        <Input id="move-start" type="datetime-local" value={startAt} onChange={(e) => setStart(e.target.value)} />
+      </Field>
+      <Field label="Reason (the client reads it if the ship date moves)" htmlFor="move-reason" error={errors.reason?.[0]}>
+        <Textarea id="move-reason" rows={2} value={reason} onChange={(e) => setReason(e.target.value)} />
+      </Field>
+      <FormMessage tone={msg?.tone}>{msg?.text}</FormMessage>
+      <Button type="submit" variant="secondary" disabled={pending}>{pending ? "Moving…" : "Move the job"}</Button>
+    </form>
+  );
+}

@@ -1,0 +1,46 @@
+import { describe, expect, it } from "vitest";
+import { planBlocks } from "./blocks";
+import { moveJob, workingDaysMoved } from "./reschedule";
+
+// Monday to Friday, two 8-hour shifts from 06:00 UTC.
+const cal = { workingWeekdays: [1, 2, 3, 4, 5], shiftsPerDay: 2, hoursPerShift: 8, holidays: [] };
+const plant = { timeZone: "UTC", dayStartHour: 6, holidays: [] };
+const d = (s: string) => new Date(`${s}:00Z`);
+const iso = (x: Date) => x.toISOString().slice(0, 16);
+// 8 working hours of print, 10 h cooling, 2 h machining, one finishing day
+const dur = { printHours: 8, coolingHours: 10, machiningHours: 2, finishingDays: 1 };
+const job = (orderId: string, start: string) => ({ orderId, blocks: planBlocks(d(start), dur, cal), durations: dur });
+
+describe("moving a job on a cell", () => {
+  it("pushes back the jobs it now overlaps, in order, and leaves clear ones alone", () => {
+    // A Mon 06:00: print to 14:00, cooling to 24:00. B Tue 06:00 (print to 14:00, cooling to
+    // Wed 00:00). C Thu 06:00. A delayed to Mon 20:00: print 20–22 and Tue 06–12, cooling to 22:00,
+    // so B (from Tue 06:00) clashes and goes to the first free start after A's cooling, Wed 06:00
+    // (print to 14:00, cooling to Thu 00:00); C on Thu 06:00 is clear and keeps its time.
+    const [a, b, c] = [job("A", "2027-03-01T06:00"), job("B", "2027-03-02T06:00"), job("C", "2027-03-04T06:00")];
+    const out = moveJob(a, d("2027-03-01T20:00"), [b, c], cal);
+    expect(out.map((o) => o.orderId)).toEqual(["A", "B"]);
+    expect(iso(out[0]!.blocks[1]!.endsAt)).toBe("2027-03-02T22:00");
+    expect(iso(out[1]!.blocks[0]!.startsAt)).toBe("2027-03-03T06:00");
+    expect(out[1]!.toShip.getTime()).toBeGreaterThan(out[1]!.fromShip.getTime());
+  });
+
+  it("moving a job earlier (it finishes early) pushes nobody", () => {
+    const [a, b] = [job("A", "2027-03-03T06:00"), job("B", "2027-03-05T06:00")];
+    const out = moveJob(a, d("2027-03-02T06:00"), [b], cal);
+    expect(out).toHaveLength(1);
+    expect(out[0]!.toShip.getTime()).toBeLessThan(out[0]!.fromShip.getTime());
+  });
+});
+
+describe("working days a ship date moved", () => {
+  it("counts open days between the two local dates, weekends and holidays not", () => {
+    expect(workingDaysMoved(d("2027-03-05T20:00"), d("2027-03-05T21:00"), cal, plant)).toBe(0);
+    // Friday → Monday: one working day (the Monday)
+    expect(workingDaysMoved(d("2027-03-05T20:00"), d("2027-03-08T08:00"), cal, plant)).toBe(1);
+    // Friday → Saturday: no working day in between
+    expect(workingDaysMoved(d("2027-03-05T20:00"), d("2027-03-06T08:00"), cal, plant)).toBe(0);
+    // earlier counts the same way; a plant holiday on the Monday is not a working day
+    expect(workingDaysMoved(d("2027-03-09T08:00"), d("2027-03-05T20:00"), cal, { ...plant, holidays: ["2027-03-08"] })).toBe(1);
+  });
+});
