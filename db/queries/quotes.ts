@@ -45,6 +45,7 @@ export async function getRequestForSales(db: Db | Tx, requestId: string) {
       cureTempC: requests.cureTempC,
       partCtePpmPerK: requests.partCtePpmPerK,
       isControlled: requests.isControlled,
+      leadTime: requests.leadTime,
       notes: requests.notes,
     })
     .from(requests)
@@ -117,6 +118,7 @@ export interface QuoteWrite {
   terms: string;
   notes: string;
   shipDate: Date | null;
+  leadTime: "standard" | "expedite" | "economy";
   rateCardId: string | null;
 }
 
@@ -149,6 +151,7 @@ function quoteColumns(w: QuoteWrite) {
     terms: w.terms,
     notes: w.notes,
     shipDate: w.shipDate,
+    leadTime: w.leadTime,
     rateCardId: w.rateCardId,
   };
 }

@@ -174,6 +174,7 @@ export interface DraftFields {
   cureTempC: number | null;
   partCtePpmPerK: number | null;
   isControlled: boolean;
+  leadTime: "standard" | "expedite" | "economy";
   notes: string;
 }
 

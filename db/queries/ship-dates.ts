@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, desc, eq, gt, isNotNull, notInArray, sql } from "drizzle-orm";
 import type { Db } from "../client";
-import { orders, organisations, quotes, requests, shipDateChanges } from "../schema";
+import { analyses, orders, organisations, parts, quotes, requests, shipDateChanges } from "../schema";
 import type { Tx } from "./audit";
 import { OFF_THE_CALENDAR } from "./capacity";
 
@@ -39,4 +39,26 @@ export async function listBrokenPromises(db: Db | Tx) {
       gt(orders.plannedShip, sql`${quotes.shipDate} + 86400000`),
     ))
     .orderBy(desc(orders.plannedShip));
+}
+
+/** Issued quotes still open, with their parts' latest finished estimates (for the check of their dates against today's calendar). */
+export async function listOpenQuotesWithEstimates(db: Db | Tx) {
+  const rows = await db
+    .select({ quoteId: quotes.id, requestId: requests.id, reference: requests.reference, projectName: requests.projectName, firmName: organisations.name, version: quotes.version, shipDate: quotes.shipDate, leadTime: quotes.leadTime, partId: parts.id, result: analyses.result })
+    .from(quotes)
+    .innerJoin(requests, eq(requests.id, quotes.requestId))
+    .innerJoin(organisations, eq(organisations.id, requests.orgId))
+    .innerJoin(parts, eq(parts.requestId, requests.id))
+    .innerJoin(analyses, and(eq(analyses.revisionId, parts.currentRevisionId), eq(analyses.status, "done")))
+    .where(and(eq(quotes.status, "issued"), isNotNull(quotes.shipDate)))
+    .orderBy(asc(quotes.shipDate), desc(analyses.createdAt));
+  const byQuote = new Map<string, { quoteId: string; requestId: string; reference: string; projectName: string; firmName: string; version: number; shipDate: Date; leadTime: string; results: NonNullable<(typeof rows)[number]["result"]>[]; seen: Set<string> }>();
+  for (const r of rows) {
+    const q = byQuote.get(r.quoteId) ?? { ...r, shipDate: r.shipDate!, results: [], seen: new Set<string>() };
+    byQuote.set(r.quoteId, q);
+    if (!r.result || q.seen.has(r.partId)) continue;
+    q.seen.add(r.partId);
+    q.results.push(r.result);
+  }
+  return [...byQuote.values()].map(({ seen: _s, ...q }) => q);
 }

@@ -104,6 +104,7 @@ export async function buildQuoteData(q: Q, quoteId: string, now: Date): Promise<
     version: quote.version,
     validUntil: quote.validUntil?.toISOString() ?? null,
     shipDate: quote.shipDate?.toISOString() ?? null,
+    leadTime: quote.leadTime ?? "standard",
     lines,
     totals: quoteTotals(quote),
     depositBp: quote.depositBp,

@@ -205,7 +205,7 @@ function Body({ d }: { d: DocumentData }) {
     case "quote":
       return (
         <>
-          <Meta items={[["Project", d.projectName], ["Request", d.reference], ["Quote version", String(d.version)], ["Valid until", day(d.validUntil)], ["Earliest ship date", day(d.shipDate)], ["Deposit", `${pct(d.depositBp)} on acceptance`]]} />
+          <Meta items={[["Project", d.projectName], ["Request", d.reference], ["Quote version", String(d.version)], ["Valid until", day(d.validUntil)], [d.leadTime && d.leadTime !== "standard" ? `Ship date (${d.leadTime === "expedite" ? "expedited" : "economy"} delivery)` : "Earliest ship date", day(d.shipDate)], ["Deposit", `${pct(d.depositBp)} on acceptance`]]} />
           <Lines lines={d.lines} marginCents={d.totals.marginCents} currency={d.currency} />
           <Totals totals={d.totals} currency={d.currency} grandLabel="Total" extra={[{ label: `Deposit due on acceptance (${pct(d.depositBp)})`, cents: d.depositCents }]} />
           {d.quoteTerms ? (

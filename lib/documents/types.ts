@@ -54,6 +54,8 @@ export interface QuoteData extends Base {
   version: number;
   validUntil: string | null;
   shipDate: string | null;
+  /** The delivery quoted: standard, expedited or economy (older documents: standard). */
+  leadTime?: "standard" | "expedite" | "economy";
   lines: DocumentLine[];
   totals: DocumentTotals;
   depositBp: number;

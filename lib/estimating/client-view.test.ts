@@ -29,4 +29,17 @@ describe("what a client is shown of an estimate", () => {
     expect(view.lines).toEqual([]);
     expect(view.alternatives.map((a) => a.totalCents)).toEqual([0]);
   });
+
+  it("shows each delivery choice's date and total, not the adjustment before margin nor the jobs gone ahead of", () => {
+    const r = { ...result("priced", []), leadTimes: [
+      { key: "standard", shipDate: "2027-03-09", totalCents: 664_800, adjustmentCents: 0 },
+      { key: "expedite", shipDate: "2027-03-04", totalCents: 760_000, adjustmentCents: 70_000, jumped: 2 },
+    ] } as EstimateResult;
+    expect(clientEstimate(r).leadTimes).toEqual([
+      { key: "standard", shipDate: "2027-03-09", totalCents: 664_800, adjustmentCents: 0 },
+      { key: "expedite", shipDate: "2027-03-04", totalCents: 760_000, adjustmentCents: 0 },
+    ]);
+    // withheld: standard only, no price
+    expect(clientEstimate({ ...r, status: "needs-review" }).leadTimes).toEqual([{ key: "standard", shipDate: "2027-03-09", totalCents: 0, adjustmentCents: 0 }]);
+  });
 });

@@ -15,7 +15,9 @@ export function clientEstimate(r: EstimateResult): EstimateResult & { priceWithh
   })) as unknown as EstimateResult["alternatives"];
   // a split part's pieces: their builds and hours, not their own lines (those are before margin)
   const pieces = r.pieces?.map((p) => ({ ...p, lines: [], subtotalCents: 0 }));
-  const base = { ...r, alternatives, remedies: [], priceWithheld: withheld, ...(pieces ? { pieces } : {}) };
+  // delivery choices: date and total only (the adjustment is before margin; the jobs gone ahead of are the bureau's)
+  const leadTimes = (r.leadTimes ?? []).map((l) => ({ key: l.key, shipDate: l.shipDate, totalCents: withheld ? 0 : l.totalCents, adjustmentCents: 0 }));
+  const base = { ...r, alternatives, remedies: [], leadTimes: withheld ? leadTimes.filter((l) => l.key === "standard") : leadTimes, priceWithheld: withheld, ...(pieces ? { pieces } : {}) };
   if (!withheld) return base;
   return { ...base, lines: [], subtotalCents: 0, marginCents: 0, taxCents: 0, totalCents: 0, depositCents: 0, balanceCents: 0, printRateCentsPerH: 0 };
 }

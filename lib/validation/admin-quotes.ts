@@ -28,6 +28,8 @@ export const saveQuoteSchema = z.object({
   terms: z.string().trim().max(5_000).default(""),
   notes: z.string().trim().max(5_000).default(""),
   shipDate: z.iso.date().nullable().optional(),
+  /** The delivery quoted (the client's choice on the request unless sales changes it). */
+  leadTime: z.enum(["standard", "expedite", "economy"]).default("standard"),
   issue: z.boolean().default(false),
 });
 export type SaveQuoteInput = z.input<typeof saveQuoteSchema>;

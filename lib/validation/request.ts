@@ -11,6 +11,8 @@ import { decodeListCursor } from "./list-cursor";
 
 export const CURE_PROCESSES = ["room", "oven", "autoclave"] as const;
 export const TEMP_UNITS = ["C", "F"] as const;
+/** Delivery choices an estimate offers (lib/estimating/lead-times.ts). */
+export const LEAD_TIME_KEYS = ["standard", "expedite", "economy"] as const;
 
 /** Highest cure temperature we accept as typed, °C (above any polymer tool's rating). */
 export const MAX_CURE_C = 450;
@@ -32,6 +34,8 @@ export const projectSchema = z
     cureTempUnit: z.enum(TEMP_UNITS),
     partCtePpmPerK: optionalNumber(z.number({ error: "Enter a number." }).min(-5, "Too low for a laminate.").max(100, "At most 100 ppm/K.")),
     isControlled: z.boolean(),
+    /** The delivery the client picks on the review step; standard until they do. */
+    leadTime: z.enum(LEAD_TIME_KEYS).default("standard"),
     notes: z.string().max(4000, "Use at most 4000 characters.").default(""),
   })
   .superRefine((v, ctx) => {
@@ -105,6 +109,7 @@ export function toDraftFields(p: ProjectValues) {
     cureTempC: p.cureTemp === undefined ? null : Math.round((p.cureTempUnit === "F" ? fToC(p.cureTemp) : p.cureTemp) * 10) / 10,
     partCtePpmPerK: p.partCtePpmPerK ?? null,
     isControlled: p.isControlled,
+    leadTime: p.leadTime,
     notes: p.notes ?? "",
   };
 }

@@ -119,6 +119,13 @@ describe("moving a booked job", () => {
     const text = norm(mail!.text);
     expect(text).toContain(`from ${formatDate(change!.fromDate)} to ${formatDate(change!.toDate)}`);
     expect(text).toContain("resin lot failed its moisture check");
+    // sales sees the order whose promised date no longer holds
+    const { listBrokenPromises } = await import("../../db/queries/ship-dates");
+    const broken = await listBrokenPromises(db);
+    expect(broken.map((b) => b.orderId)).toContain(o!.id);
+    // the client's timeline carries the change
+    const { listShipDateChanges } = await import("../../db/queries/ship-dates");
+    expect((await listShipDateChanges(db, o!.id)).map((c) => c.reason)).toEqual([change!.reason]);
   });
 });
 

@@ -73,6 +73,7 @@ export const saveQuote = defineAction({ access: "quote:manage", input: saveQuote
       terms: input.terms,
       notes: input.notes,
       shipDate: input.shipDate ? new Date(`${input.shipDate}T00:00:00Z`) : null,
+      leadTime: input.leadTime,
       rateCardId: draft?.rateCardId ?? rateCard?.id ?? null,
     };
 

@@ -1,3 +1,4 @@
+import { leadTimeLines, requestLeadTimes } from "@/lib/quoting/lead-times";
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { AnalysisPanel } from "@/app/admin/sales/requests/[id]/_components/analysis-panel";
@@ -40,16 +41,21 @@ export default async function SalesRequestPage({ params }: { params: Promise<{ i
   const previous = draft ? null : quotes.find((q) => q.status !== "draft" && !q.isStale);
   const basis = draft ?? previous;
   const basisAnalysisIds = parts.map((p) => p.analysis?.id).filter((x): x is string => Boolean(x));
-  const estimateLines = linesFromEstimates(
-    parts.filter((p) => p.analysis?.status === "done" && p.analysis.result).map((p) => ({ partId: p.id, partName: p.name, lines: p.analysis!.result!.lines ?? [] })),
-  );
+  const estimated = parts.filter((p) => p.analysis?.status === "done" && p.analysis.result).map((p) => ({ partId: p.id, partName: p.name, result: p.analysis!.result! }));
+  // the client's delivery choice, if every part's estimate still offers it; else standard
+  const choices = requestLeadTimes(estimated.map((e) => e.result));
+  const choice = choices.find((c) => c.key === request.leadTime) ?? choices[0] ?? null;
+  const estimateLines = [
+    ...linesFromEstimates(estimated.map((e) => ({ partId: e.partId, partName: e.partName, lines: e.result.lines ?? [] }))),
+    ...leadTimeLines(estimated.map((e) => ({ partId: e.partId, partName: e.partName, leadTimes: e.result.leadTimes })), choice?.key ?? "standard"),
+  ];
   const basisLines: DraftLine[] | null = basis
     ? (await listQuoteLines(db, basis.id)).map((l) => ({ partId: l.partId, kind: l.kind, description: l.description, quantity: l.quantity, unitCents: l.unitCents, amountCents: l.amountCents, estimatedCents: l.estimatedCents, editReason: l.editReason }))
     : null;
   const rc = card?.params;
   const canQuote = request.stage === "submitted" || request.stage === "quoted";
   const initial = basis
-    ? { lines: basisLines ?? [], marginBp: basis.marginBp, taxBp: basis.taxBp, depositBp: basis.depositBp, validityDays: basis.validityDays, terms: basis.terms, notes: basis.notes, shipDate: basis.shipDate?.toISOString().slice(0, 10) ?? null }
+    ? { lines: basisLines ?? [], marginBp: basis.marginBp, taxBp: basis.taxBp, depositBp: basis.depositBp, validityDays: basis.validityDays, terms: basis.terms, notes: basis.notes, shipDate: basis.shipDate?.toISOString().slice(0, 10) ?? null, leadTime: basis.leadTime }
     : {
         lines: estimateLines,
         marginBp: rc?.marginBp ?? 0,
@@ -58,7 +64,8 @@ export default async function SalesRequestPage({ params }: { params: Promise<{ i
         validityDays: rc?.quoteValidityDays ?? 30,
         terms: `Deposit due on acceptance; balance due on shipment. Prices exclude duties. Parts are made to the files supplied; the client's own engineering sign-off governs use. Model files are deleted ${retentionText(settings.modelRetentionDays)} after the order closes; documents are kept.`,
         notes: "",
-        shipDate: parts[0]?.analysis?.result?.shipDate ?? null,
+        shipDate: choice?.shipDate ?? parts[0]?.analysis?.result?.shipDate ?? null,
+        leadTime: choice?.key ?? "standard",
       };
 
   return (

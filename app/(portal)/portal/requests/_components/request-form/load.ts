@@ -21,7 +21,7 @@ export async function loadFormCatalogue(db: Db, unitsPref: "mm" | "in"): Promise
 
 export function blankDraft(unitsPref: "mm" | "in"): DraftInput {
   return {
-    project: { projectName: "", neededBy: "", cureProcess: "autoclave", cureTemp: "", cureTempUnit: unitsPref === "in" ? "F" : "C", partCtePpmPerK: "", isControlled: false, notes: "" },
+    project: { projectName: "", neededBy: "", cureProcess: "autoclave", cureTemp: "", cureTempUnit: unitsPref === "in" ? "F" : "C", partCtePpmPerK: "", isControlled: false, leadTime: "standard", notes: "" },
     parts: [],
   };
 }
@@ -40,6 +40,7 @@ export async function loadDraft(db: Db, req: Request, unitsPref: "mm" | "in"): P
       cureTempUnit: f ? "F" : "C",
       partCtePpmPerK: req.partCtePpmPerK ?? "",
       isControlled: req.isControlled,
+      leadTime: req.leadTime,
       notes: req.notes,
     },
     parts: rows.map(({ part: p }) => ({

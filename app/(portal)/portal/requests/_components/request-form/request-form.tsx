@@ -13,6 +13,7 @@ import { formatCents } from "@/lib/money";
 import { fToC } from "@/lib/units";
 import { draftSchema, type DraftInput } from "@/lib/validation/request";
 import { useAnalyses, useAnalysis } from "./analysis-status";
+import { LeadTimeChoice } from "./lead-time-choice";
 import { PartCard } from "./part-card";
 import { PartReview } from "./part-review";
 import { ProjectStep } from "./project-step";
@@ -310,6 +311,7 @@ function ReviewList({ catalogue, files, cureTempC, onReadiness }: { catalogue: C
           <span className="figures text-lg font-semibold">{isWithheld ? "after the engineer's review" : isComplete ? formatCents(totalCents) : "waiting for every part"}</span>
         </div>
       ) : null}
+      {isComplete && !isWithheld ? <LeadTimeChoice results={results.filter((r): r is NonNullable<typeof r> => r !== null)} /> : null}
     </>
   );
 }

@@ -14,7 +14,7 @@ export interface QuoteEditorProps {
   requestId: string;
   quoteId?: string;
   basisAnalysisIds: string[];
-  initial: { lines: DraftLine[]; marginBp: number; taxBp: number; depositBp: number; validityDays: number; terms: string; notes: string; shipDate: string | null };
+  initial: { lines: DraftLine[]; marginBp: number; taxBp: number; depositBp: number; validityDays: number; terms: string; notes: string; shipDate: string | null; leadTime: "standard" | "expedite" | "economy" };
   isStale: boolean;
   /** For a new version: the version its lines were copied from, 0 for the automatic estimate. */
   startedFrom?: number | null;
@@ -35,6 +35,7 @@ export function QuoteEditor({ requestId, quoteId, basisAnalysisIds, initial, isS
   const [terms, setTerms] = useState(initial.terms);
   const [notes, setNotes] = useState(initial.notes);
   const [shipDate, setShipDate] = useState(initial.shipDate ?? "");
+  const [leadTime, setLeadTime] = useState(initial.leadTime);
   const notice = useQuoteNotice();
   const [message, setMessage] = useState<QuoteMessage>(notice.last);
   const [errors, setErrors] = useState<Record<string, string[]>>({});
@@ -76,6 +77,7 @@ export function QuoteEditor({ requestId, quoteId, basisAnalysisIds, initial, isS
         terms,
         notes,
         shipDate: shipDate || null,
+        leadTime,
         issue,
       });
       if (!res.ok) {
@@ -167,6 +169,13 @@ export function QuoteEditor({ requestId, quoteId, basisAnalysisIds, initial, isS
         </Field>
         <Field label="Ship date" htmlFor="ship">
           <Input id="ship" type="date" value={shipDate} onChange={(e) => setShipDate(e.target.value)} />
+        </Field>
+        <Field label="Delivery" htmlFor="lead-time" hint="Prefilled with the client's choice and its line; change the line and the date with it.">
+          <Select id="lead-time" value={leadTime} onChange={(e) => setLeadTime(e.target.value as typeof leadTime)}>
+            <option value="standard">Standard</option>
+            <option value="expedite">Expedited</option>
+            <option value="economy">Economy</option>
+          </Select>
         </Field>
       </div>
       <div className="grid gap-3 sm:grid-cols-2">
