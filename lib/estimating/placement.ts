@@ -303,24 +303,26 @@ function holdsOf(spec: JobSpec, pl: JobPlacement): Map<string, [number, number][
 
 /**
  * Push the movable spans of one resource back behind the new job's windows, in order, each keeping
- * its length. Answers the first span that would then end after its `latestEndMs` (a broken
- * promise), and the spans that had to move.
+ * its length. Answers the spans that would then end after their `latestEndMs` (broken promises:
+ * each is kept where it is, and the rest pushed around it), and the spans that had to move.
  */
-function pushBack(key: string, spans: BookedSpan[], skipped: ReadonlySet<string>, holds: [number, number][], nowMs: number): { broken: string | null; moved: string[] } {
+function pushBack(key: string, spans: BookedSpan[], skipped: ReadonlySet<string>, holds: [number, number][], nowMs: number): { broken: string[]; moved: string[] } {
   const fixed = new Timeline();
   spans.forEach((b, i) => { if (!skipped.has(spanId(key, i)) && b.endMs > nowMs) fixed.add(b.startMs, b.endMs); });
   for (const [a, b] of holds) fixed.add(a, b);
   const moving = spans.map((b, i) => ({ b, id: spanId(key, i) })).filter((x) => skipped.has(x.id)).sort((x, y) => x.b.startMs - y.b.startMs);
-  const moved: string[] = [];
+  const moved: string[] = [], broken: string[] = [];
   for (const { b, id } of moving) {
     const len = b.endMs - b.startMs;
     let start = b.startMs;
     for (let hit = fixed.overlap(start, start + len); hit; hit = fixed.overlap(start, start + len)) start = hit[1];
-    if (start + len > Math.max(b.endMs, b.latestEndMs ?? b.endMs)) return { broken: id, moved };
-    if (start !== b.startMs) moved.push(b.ref ?? id);
+    if (start + len > Math.max(b.endMs, b.latestEndMs ?? b.endMs)) {
+      broken.push(id);
+      start = b.startMs;
+    } else if (start !== b.startMs) moved.push(b.ref ?? id);
     fixed.add(start, start + len);
   }
-  return { broken: null, moved };
+  return { broken, moved };
 }
 
 export interface ExpeditePlacement extends JobPlacement {
@@ -344,18 +346,19 @@ export function placeExpedited(base: Ledger, spec: JobSpec, standard: JobPlaceme
   for (let guard = 0; guard <= movable.size + 1; guard++) {
     const pl = placeJob(base.without(movable), spec, { overtime: true });
     const holds = holdsOf(spec, pl);
-    let broken: string | null = null;
+    const broken: string[] = [];
     const jumped: string[] = [];
     for (const [key, spans] of Object.entries(booked)) {
       const r = pushBack(key, spans, movable, holds.get(key) ?? [], base.nowMs);
       jumped.push(...r.moved);
-      if ((broken = r.broken)) break;
+      broken.push(...r.broken);
     }
-    if (!broken) {
+    if (broken.length === 0) {
       if (pl.doneMs > standard.doneMs) break;
       return { ...pl, jumped: [...new Set(jumped)] };
     }
-    movable.delete(broken);
+    // the spans whose promise would break stay where they are; place again around them
+    for (const id of broken) movable.delete(id);
   }
   // no better slot: the standard one, with overtime after it
   const pl = placeJob(base.fork(), spec, { overtime: true });

@@ -19,13 +19,17 @@ export interface Plant {
 export const UTC_PLANT: Plant = { timeZone: "UTC", dayStartHour: 6, holidays: [] };
 
 const formatters = new Map<string, Intl.DateTimeFormat>();
-const offsets = new Map<string, number>();
+/** Offsets by zone, then by hour since the epoch (numeric keys: placing work around a booked calendar asks this often). */
+const offsets = new Map<string, Map<number, number>>();
+let offsetCount = 0;
 
 /** The zone's offset from UTC at instant t, ms (local = t + offset). Cached per zone and hour. */
 export function zoneOffsetMs(t: number, timeZone: string): number {
   if (timeZone === "UTC") return 0;
-  const key = `${timeZone}|${Math.floor(t / HOUR)}`;
-  const hit = offsets.get(key);
+  const key = Math.floor(t / HOUR);
+  let zone = offsets.get(timeZone);
+  if (!zone) { zone = new Map(); offsets.set(timeZone, zone); }
+  const hit = zone.get(key);
   if (hit !== undefined) return hit;
   let f = formatters.get(timeZone);
   if (!f) {
@@ -36,8 +40,8 @@ export function zoneOffsetMs(t: number, timeZone: string): number {
   for (const p of f.formatToParts(new Date(Math.floor(t / 1000) * 1000))) if (p.type !== "literal") v[p.type] = Number(p.value);
   const local = Date.UTC(v.year!, v.month! - 1, v.day, v.hour, v.minute, v.second);
   const off = local - Math.floor(t / 1000) * 1000;
-  if (offsets.size > 50_000) offsets.clear();
-  offsets.set(key, off);
+  if (++offsetCount > 50_000) { offsets.clear(); offsetCount = 0; zone = new Map(); offsets.set(timeZone, zone); }
+  zone.set(key, off);
   return off;
 }
 
