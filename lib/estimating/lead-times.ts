@@ -1,16 +1,11 @@
+import { LEAD_TIME_FALLBACKS } from "./card-fallbacks";
 import { applyBp } from "./money";
 import { loadShare, placeExpedited, type JobPlacement, type JobSpec, type Ledger } from "./placement";
 import { costLine, totalsOf, type Pricing } from "./pricing";
 import { addWorkingDays, nextOpenDay } from "./schedule";
 import type { LeadTime, RateCardParams } from "./types";
 
-/**
- * Delivery choices for a card without its own figures. Overtime at time and a half (a 50 %
- * premium) is common practice for extra shifts and weekends; the flat fee for finishing,
- * inspection and packing on overtime, the economy discount (5 % for ten working days more) and
- * the load under which it is offered (60 % of working hours booked) are the bureau's own figures.
- */
-export const LEAD_TIME_FALLBACKS = { overtimePremiumBp: 5000, expediteFeeCents: 25_000, economyDiscountBp: 500, economyExtraDays: 10, economyMaxLoadBp: 6000 };
+export { LEAD_TIME_FALLBACKS };
 
 /** Lines worked on extra shifts when expedited: set-up, machining, joining. */
 const OVERTIME_LINES = new Set(["setup", "machining", "joining"]);

@@ -1,3 +1,4 @@
+import { LEAD_TIME_FALLBACKS, REMOVAL_FALLBACK_H } from "../estimating/card-fallbacks";
 import { z } from "zod";
 import type { CellParams, MaterialParams, RateCardParams } from "../estimating/types";
 
@@ -88,6 +89,12 @@ export const RATE_CARD_FIELDS: NumberField[] = [
   { name: "packingDays", label: "Packing", unit: "working days", int: true },
   { name: "liftingCautionKg", label: "Lifting caution above", unit: "kg" },
   { name: "printSetupHours", label: "Cell set-up before printing", unit: "h", max: 48 },
+  { name: "removalHours", label: "Lifting the print off the bed", unit: "h", max: 48 },
+  { name: "overtimePremiumBp", label: "Expedited: overtime premium on set-up and machining", unit: "bp", display: { unit: "%", divisor: 100 }, int: true, max: 30_000 },
+  { name: "expediteFeeCents", label: "Expedited: finishing, inspection and packing on overtime", unit: "¢", display: { unit: "$", divisor: 100 }, int: true, positive: true },
+  { name: "economyDiscountBp", label: "Economy: discount", unit: "bp", display: { unit: "%", divisor: 100 }, int: true, max: 5_000 },
+  { name: "economyExtraDays", label: "Economy: later than standard by", unit: "working days", int: true, min: 1, max: 60 },
+  { name: "economyMaxLoadBp", label: "Economy: offered while cells are booked at most", unit: "bp", display: { unit: "%", divisor: 100 }, int: true, max: 10_000 },
   { name: "shellNetWallMm", label: "Shell net wall after machining", unit: "mm", positive: true, max: 200 },
   { name: "ribSpacingMm", label: "Shell rib spacing", unit: "mm", positive: true, max: 5000 },
   { name: "ribBeads", label: "Rib width", unit: "beads", int: true, positive: true, max: 10 },
@@ -234,7 +241,8 @@ export function toCellParams(o: z.output<typeof cellSchema>): CellParams {
 
 /** Rate card → form values (the closed dates as one line). */
 export function rateCardFormValues(c: RateCardParams): Record<string, unknown> {
-  return { ...c, plantTimeZone: c.plantTimeZone ?? "UTC", holidays: (c.holidays ?? []).join(", ") };
+  // a card saved before removal and the delivery choices shows the figures the engine uses for it
+  return { removalHours: REMOVAL_FALLBACK_H, ...LEAD_TIME_FALLBACKS, ...c, plantTimeZone: c.plantTimeZone ?? "UTC", holidays: (c.holidays ?? []).join(", ") };
 }
 
 /** Typed params → flat form values (the inverse of the above), for prefilling the forms. */

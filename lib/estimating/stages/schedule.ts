@@ -1,3 +1,4 @@
+import { REMOVAL_FALLBACK_H } from "../card-fallbacks";
 import { placeJob, type JobPlacement, type JobSpec, type Ledger, type PrintSpec } from "../placement";
 import type { ContinuousSchedule, Plant } from "../schedule";
 import type { CellParams, RateCardParams } from "../types";
@@ -8,8 +9,7 @@ export function plantOf(card: RateCardParams): Plant {
   return { timeZone: card.plantTimeZone ?? "UTC", dayStartHour: card.shiftStartHour ?? 6, holidays: card.holidays ?? [] };
 }
 
-/** Lifting a large print off the bed and clearing the cell, working hours, for a card without its own figure (common practice: about an hour with the crane). */
-export const REMOVAL_FALLBACK_H = 1;
+export { REMOVAL_FALLBACK_H };
 
 /** A candidate's schedule: the dates of its first and last prints, and the placement behind them. */
 export interface PlacedSchedule extends ContinuousSchedule {

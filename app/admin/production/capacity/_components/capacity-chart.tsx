@@ -17,7 +17,7 @@ function WeekColumn({ w, scale }: { w: WeekBar; scale: number }) {
         {/* the week's shift hours as the frame's height; the stack fills from the bottom */}
         <div className="absolute inset-x-0 bottom-0 flex flex-col-reverse" style={{ height: "100%" }}>
           <div className="w-full bg-tide-500" style={{ height: px(w.bookedHours) }} />
-          <div className="w-full bg-tide-200" style={{ height: px(w.waitingHours) }} />
+          <div className="w-full bg-amber-300" style={{ height: px(w.waitingHours) }} />
           <div className="w-full bg-[repeating-linear-gradient(45deg,theme(colors.ink.400)_0_3px,theme(colors.paper.100)_3px_6px)]" style={{ height: px(w.blockedHours) }} />
         </div>
         <div className="absolute inset-x-0 border-t border-dashed border-ink-500" style={{ bottom: px(w.availableHours) }} aria-hidden="true" />
@@ -40,7 +40,7 @@ export function CapacityChart({ rows }: { rows: ResourceWeeks[] }) {
     <div className="space-y-4">
       <p className="flex flex-wrap items-center gap-x-4 gap-y-1 text-xs text-ink-600">
         <span className="inline-flex items-center gap-1"><span className="h-3 w-3 rounded-sm bg-tide-500" aria-hidden="true" />Booked</span>
-        <span className="inline-flex items-center gap-1"><span className="h-3 w-3 rounded-sm bg-tide-200" aria-hidden="true" />Accepted, waiting for a slot (in the week before its promised date)</span>
+        <span className="inline-flex items-center gap-1"><span className="h-3 w-3 rounded-sm bg-amber-300" aria-hidden="true" />Accepted, waiting for a slot (in the week before its promised date)</span>
         <span className="inline-flex items-center gap-1"><span className="h-3 w-3 rounded-sm bg-[repeating-linear-gradient(45deg,theme(colors.ink.400)_0_3px,theme(colors.paper.100)_3px_6px)]" aria-hidden="true" />Maintenance</span>
         <span className="inline-flex items-center gap-1"><span className="h-0 w-4 border-t border-dashed border-ink-500" aria-hidden="true" />Shift hours of the week</span>
       </p>
