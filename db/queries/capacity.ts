@@ -3,8 +3,6 @@ import { and, asc, desc, eq, gt, inArray, isNull, lt, notInArray } from "drizzle
 import type { Db } from "../client";
 import { analyses, maintenanceBlocks, orders, parts, quotes, requests, scheduleBlocks } from "../schema";
 import type { Tx } from "./audit";
-import type { CapacityQueue } from "../../lib/estimating/placement";
-import { forCells, queueFromRows, unscheduledOf, type BookedRow, type UnscheduledRow } from "../../lib/estimating/queue";
 import type { EstimateResult } from "../../lib/estimating/types";
 
 /** Stages whose job no longer holds a cell or the router, whatever its blocks say. */
@@ -70,22 +68,4 @@ export async function listUnscheduledEstimates(db: Db | Tx) {
     out.push({ orderId: r.orderId, reference: r.reference, promisedShip: r.promisedShip, estimate: r.result });
   }
   return out;
-}
-
-/**
- * The queue a new estimate is placed around (lib/estimating/placement.ts): live jobs' print,
- * cooling and machining blocks from now on (each with the slack its promised date leaves),
- * maintenance blocks, and accepted work not yet scheduled at its estimated hours; kept to the
- * catalogue's cells and the router.
- */
-export async function loadCapacityQueue(db: Db | Tx, now: Date, cellKeys: string[]): Promise<CapacityQueue> {
-  const far = new Date(now.getTime() + 400 * 86_400_000);
-  const [booked, blocks, unscheduled] = await Promise.all([listBookedBlocks(db, now, far), listMaintenanceBlocks(db, now, far), listUnscheduledEstimates(db)]);
-  const rows: BookedRow[] = booked.map((b) => ({
-    cellKey: b.cellKey, kind: b.kind, startsAt: b.startsAt.getTime(), endsAt: b.endsAt.getTime(), ref: b.reference,
-    plannedShipMs: b.plannedShip?.getTime() ?? null, promisedShipMs: b.promisedShip?.getTime() ?? null,
-  }));
-  for (const m of blocks) rows.push({ cellKey: m.resourceKey, kind: "maintenance", startsAt: m.startsAt.getTime(), endsAt: m.endsAt.getTime(), ref: m.reason });
-  const hours: UnscheduledRow[] = unscheduled.map((u) => unscheduledOf(u.estimate)).filter((u): u is UnscheduledRow => u !== null);
-  return forCells(queueFromRows(now.getTime(), rows, hours), cellKeys);
 }

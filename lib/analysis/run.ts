@@ -2,7 +2,7 @@ import "server-only";
 import type { Db } from "../../db/client";
 import { firmFreightZone } from "./freight-zone";
 import { claimAnalysis, getAnalysisJob, listStrandedAnalyses, renewAnalysisLease, requeueAnalysis, resetFailedAnalysis, setRevisionSha256 } from "../../db/queries/analysis-jobs";
-import { loadCapacityQueue } from "../../db/queries/capacity";
+import { loadCapacityQueue } from "./capacity-queue";
 import { loadCatalogue } from "../../db/queries/catalogue";
 import { createAnalysis, getAnalysis, updateAnalysis } from "../../db/queries/parts";
 import type { AnalyseOptions } from "../estimating/analyse";

@@ -1,7 +1,7 @@
 import { createClient, type Client } from "@libsql/client";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_PASSWORDS } from "../../db/seed-data";
+import { DEMO_PASSWORDS } from "@/lib/seed/data";
 import { launchBrowser, newPage, PHONE, shot, signIn, startStack, type TestStack } from "./harness";
 
 /** The capacity view (production) and the delivery choice on the client's review step. */

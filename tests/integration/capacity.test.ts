@@ -45,7 +45,7 @@ const norm = (s: string | null) => (s ?? "").replace(/\s+/g, " ");
 
 describe("the demo calendar in estimates", () => {
   it("a new estimate on a booked cell waits about the booked hours ahead of it; expedite is earlier or equal and dearer", async () => {
-    const { loadCapacityQueue } = await import("../../db/queries/capacity");
+    const { loadCapacityQueue } = await import("../../lib/analysis/capacity-queue");
     const { loadCatalogue } = await import("../../db/queries/catalogue");
     const cat = (await loadCatalogue(db))!;
     const queue = await loadCapacityQueue(db, now, cat.cells.map((c) => c.key));

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { loadCapacityQueue } from "@/db/queries/capacity";
+import { loadCapacityQueue } from "@/lib/analysis/capacity-queue";
 import { loadCatalogue } from "@/db/queries/catalogue";
 import { getUpload } from "@/db/queries/files";
 import { withEstimator } from "@/lib/analysis/estimator";

@@ -2,7 +2,7 @@ import Link from "next/link";
 import { Badge } from "@/components/ui/badge";
 import { Card, CardTitle } from "@/components/ui/card";
 import type { Db } from "@/db/client";
-import { loadCapacityQueue } from "@/db/queries/capacity";
+import { loadCapacityQueue } from "@/lib/analysis/capacity-queue";
 import { loadCatalogue } from "@/db/queries/catalogue";
 import { listBrokenPromises, listOpenQuotesWithEstimates } from "@/db/queries/ship-dates";
 import { formatDate } from "@/lib/dates";
