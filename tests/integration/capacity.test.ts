@@ -13,13 +13,12 @@ import { workingHoursBetween } from "../../lib/estimating/schedule";
 import { plantOf } from "../../lib/estimating/stages/schedule";
 import { createTestDb, type TestDb } from "../helpers/test-db";
 import { USER_BY_ROLE, userIdOf } from "./admin-setup";
+import { dbRef, session } from "../support/integration";
 
-const session = vi.hoisted(() => ({ current: null as null | { user: { id: string } } }));
-vi.mock("@/lib/auth/config", () => ({ auth: async () => session.current }));
-vi.mock("@/lib/auth/session", () => ({ currentSession: async () => (session.current?.user?.id ? { userId: session.current.user.id, sessionVersion: 0 } : null) }));
-const dbRef = vi.hoisted(() => ({ db: null as unknown }));
-vi.mock("@/db/client", async (importOriginal) => ({ ...(await importOriginal<object>()), getDb: () => dbRef.db }));
-vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
+vi.mock("@/lib/auth/config", async () => (await import("../support/integration")).authConfigMock);
+vi.mock("@/lib/auth/session", async () => (await import("../support/integration")).sessionMock);
+vi.mock("@/db/client", async (importOriginal) => (await import("../support/integration")).dbClientMock(importOriginal));
+vi.mock("next/cache", async () => (await import("../support/integration")).nextCacheMock);
 
 let t: TestDb;
 let db: Db;
