@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { planBlocks } from "./blocks";
-import { moveJob, workingDaysMoved } from "./reschedule";
+import { endBlockAt, moveJob, workingDaysMoved } from "./reschedule";
 
 // Monday to Friday, two 8-hour shifts from 06:00 UTC.
 const cal = { workingWeekdays: [1, 2, 3, 4, 5], shiftsPerDay: 2, hoursPerShift: 8, holidays: [] };
@@ -30,6 +30,27 @@ describe("moving a job on a cell", () => {
     const out = moveJob(a, d("2027-03-02T06:00"), [b], cal);
     expect(out).toHaveLength(1);
     expect(out[0]!.toShip.getTime()).toBeLessThan(out[0]!.fromShip.getTime());
+  });
+});
+
+describe("a block ending at another time", () => {
+  it("a print finished early brings its cooling, machining and finishing forward; one running late pushes the next job", () => {
+    // A: print Mon 06:00–14:00, cooling to 24:00, machining Tue 06–08, finishing a day to Wed 08:00.
+    // Its print ends at 12:00 instead: cooling to 22:00, machining Tue 06–08 (the next shift) as before.
+    const a = job("A", "2027-03-01T06:00");
+    const early = endBlockAt(a, "print", d("2027-03-01T12:00"), [], cal);
+    expect(early[0]!.blocks.map((b) => `${b.kind} ${iso(b.startsAt)} ${iso(b.endsAt)}`)).toEqual([
+      "print 2027-03-01T06:00 2027-03-01T12:00", "cooling 2027-03-01T12:00 2027-03-01T22:00",
+      "machining 2027-03-02T06:00 2027-03-02T08:00", "finishing 2027-03-02T08:00 2027-03-03T08:00",
+    ]);
+    // Its cooling runs to Tue 12:00 instead: B, booked from Tue 06:00, now overlaps and goes after it
+    // (its print at 12:00, on shift), and A's machining follows at 12:00.
+    const b = job("B", "2027-03-02T06:00");
+    const late = endBlockAt(a, "cooling", d("2027-03-02T12:00"), [b], cal);
+    expect(late.map((r) => r.orderId)).toEqual(["A", "B"]);
+    expect(iso(late[0]!.blocks[2]!.startsAt)).toBe("2027-03-02T12:00");
+    expect(iso(late[1]!.blocks[0]!.startsAt)).toBe("2027-03-02T12:00");
+    expect(() => endBlockAt(a, "print", d("2027-03-01T05:00"), [], cal)).toThrow(/before it started/);
   });
 });
 

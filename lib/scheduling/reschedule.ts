@@ -1,4 +1,4 @@
-import { isWorkingDay, workingHoursBetween, type Plant } from "../estimating/schedule";
+import { addWorkingDays, addWorkingHours, isWorkingDay, workingHoursBetween, type Plant } from "../estimating/schedule";
 import type { WorkingCalendar } from "../estimating/types";
 import { firstFreeStart, holdsCell, overlaps, planBlocks, type Block, type ExistingBlock, type JobDurations } from "./blocks";
 
@@ -27,7 +27,32 @@ const endOf = (blocks: Block[]) => blocks.reduce((m, b) => (b.endsAt > m ? b.end
  * answers the jobs whose blocks changed, the moved one first.
  */
 export function moveJob(moved: CalendarJob, start: Date, others: CalendarJob[], cal: WorkingCalendar): Replanned[] {
-  const blocks = planBlocks(start, moved.durations, cal);
+  return withPushed(moved, planBlocks(start, moved.durations, cal), others, cal);
+}
+
+/**
+ * A block of a booked job ends at another time than planned (the print finished early, the
+ * cooling ran long): the blocks after it follow from that end with their own durations (cooling
+ * in calendar hours, machining on shifts, finishing in working days), and jobs on the cell the
+ * job now overlaps are pushed back as in `moveJob`. Throws a RangeError when the end is before
+ * the block's start or the job has no such block.
+ */
+export function endBlockAt(job: CalendarJob, kind: "print" | "cooling" | "machining", endsAt: Date, others: CalendarJob[], cal: WorkingCalendar): Replanned[] {
+  const i = job.blocks.findIndex((b) => b.kind === kind);
+  const block = job.blocks[i];
+  if (!block) throw new RangeError(`the job has no ${kind} block`);
+  if (endsAt.getTime() <= block.startsAt.getTime()) throw new RangeError(`the ${kind} cannot end before it started`);
+  const d = job.durations;
+  const out: Block[] = job.blocks.slice(0, i).map((b) => ({ ...b }));
+  out.push({ ...block, endsAt });
+  let t = endsAt;
+  if (kind === "print") { const c = new Date(t.getTime() + d.coolingHours * 3_600_000); out.push({ kind: "cooling", startsAt: t, endsAt: c }); t = c; }
+  if (kind !== "machining") { const ms = addWorkingHours(t, 0, cal), me = addWorkingHours(ms, d.machiningHours, cal); out.push({ kind: "machining", startsAt: ms, endsAt: me }); t = me; }
+  out.push({ kind: "finishing", startsAt: t, endsAt: addWorkingDays(t, d.finishingDays, cal) });
+  return withPushed(job, out, others, cal);
+}
+
+function withPushed(moved: CalendarJob, blocks: Block[], others: CalendarJob[], cal: WorkingCalendar): Replanned[] {
   const placed: ExistingBlock[] = blocks.map((b) => ({ ...b, orderId: moved.orderId }));
   const out: Replanned[] = [{ orderId: moved.orderId, blocks, fromShip: endOf(moved.blocks), toShip: endOf(blocks) }];
   const rest = others.filter((o) => o.orderId !== moved.orderId && o.blocks.length > 0).sort((a, b) => a.blocks[0]!.startsAt.getTime() - b.blocks[0]!.startsAt.getTime());

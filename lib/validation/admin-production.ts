@@ -98,3 +98,11 @@ export const maintenanceBlockSchema = z
   .refine((v) => instantOf(v.end).getTime() > instantOf(v.start).getTime(), { path: ["end"], message: "The end must be after the start." });
 
 export const removeBlockSchema = z.object({ id: z.string().min(1).max(64) });
+
+/** A block of a booked job ends at another time than planned (finished early, running late). */
+export const blockEndSchema = z.object({
+  orderId: z.string().min(1).max(64),
+  kind: z.enum(["print", "cooling", "machining"]),
+  endsAt: plantDateTime("when it ends"),
+  reason: z.string().trim().min(3, "Say why; the client reads it if the ship date changes.").max(500),
+});

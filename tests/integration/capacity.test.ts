@@ -128,6 +128,28 @@ describe("moving a booked job", () => {
   });
 });
 
+describe("a step finishing early", () => {
+  it("a print that ends early brings the planned ship forward and records the change; an end before the start is refused", async () => {
+    const { recordBlockEnd } = await import("../../app/admin/production/orders/[id]/actions");
+    await as("production");
+    const [o] = await db.select({ id: orders.id }).from(orders).innerJoin(requests, eq(requests.id, orders.requestId)).where(eq(requests.stage, "printing"));
+    const [print] = await db.select().from(scheduleBlocks).where(and(eq(scheduleBlocks.orderId, o!.id), eq(scheduleBlocks.kind, "print")));
+    const before = await db.select().from(scheduleBlocks).where(eq(scheduleBlocks.orderId, o!.id));
+    const bad = await recordBlockEnd({ orderId: o!.id, kind: "print", endsAt: new Date(print!.startsAt.getTime() - 3_600_000).toISOString(), reason: "Typo in the time" });
+    expect(bad).toMatchObject({ ok: false, code: "invalid_input" });
+    expect(bad.ok ? "" : bad.message).toMatch(/before it started.*Nothing was changed/);
+    expect(await db.select().from(scheduleBlocks).where(eq(scheduleBlocks.orderId, o!.id))).toEqual(before);
+    // the print ends now, earlier than planned (it is half-way through in the demo)
+    const endsAt = new Date(Math.max(print!.startsAt.getTime() + 3_600_000, Date.now()));
+    const ok = await recordBlockEnd({ orderId: o!.id, kind: "print", endsAt: endsAt.toISOString(), reason: "The last layers went faster than planned." });
+    expect(ok.ok).toBe(true);
+    const [after] = await db.select().from(scheduleBlocks).where(and(eq(scheduleBlocks.orderId, o!.id), eq(scheduleBlocks.kind, "print")));
+    expect(after!.endsAt.getTime()).toBe(endsAt.getTime());
+    const [change] = await db.select().from(shipDateChanges).where(eq(shipDateChanges.orderId, o!.id));
+    expect(change!.toDate.getTime()).toBeLessThan(change!.fromDate!.getTime());
+  });
+});
+
 describe("maintenance blocks", () => {
   it("refuse a time a booked job holds the cell, an unknown cell, and an end in the past; a free time is blocked", async () => {
     const { blockResource } = await import("../../app/admin/production/capacity/actions");

@@ -4,8 +4,8 @@ import { notFound } from "next/navigation";
 import { dateText, dateTimeText, hoursText, stageText } from "@/components/admin/format";
 import { ActualsForm, ScheduleForm, StageForm } from "@/app/admin/production/orders/[id]/_components/order-forms";
 import { listShipDateChanges } from "@/db/queries/ship-dates";
-import { moveBookedJob } from "./actions";
-import { MoveJobForm } from "./_components/move-job-form";
+import { moveBookedJob, recordBlockEnd } from "./actions";
+import { BlockEndForm, MoveJobForm } from "./_components/move-job-form";
 import { StageBadge } from "@/components/stage-badge";
 import { Alert } from "@/components/ui/alert";
 import { OrderDocumentsCard } from "@/components/admin/order-documents";
@@ -83,6 +83,14 @@ export default async function ProductionOrderPage({ params }: { params: Promise<
               <div className="mt-4 border-t border-paper-200 pt-4">
                 <MoveJobForm action={moveBookedJob} orderId={id} defaultStart={o.order.plannedStart ? toPlantInput(o.order.plannedStart) : nextMonday} />
               </div>
+            ) : null}
+            {canMove && stage !== "scheduled" ? (
+              <details className="mt-4 border-t border-paper-200 pt-4">
+                <summary className="cursor-pointer text-sm font-medium text-ink-700">A step finished early or runs late</summary>
+                <div className="mt-3">
+                  <BlockEndForm action={recordBlockEnd} orderId={id} kinds={(["print", "cooling", "machining"] as const).filter((k) => o.blocks.some((b) => b.kind === k))} defaultEnd={toPlantInput(new Date())} />
+                </div>
+              </details>
             ) : null}
             {canMove && stage === "scheduled" ? (
               <details className="mt-4 border-t border-paper-200 pt-4">

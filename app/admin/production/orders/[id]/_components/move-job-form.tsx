@@ -3,7 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useState, useTransition } from "react";
 import { Button } from "@/components/ui/button";
-import { Field, FormMessage, Input, Textarea } from "@/components/ui/input";
+import { Field, FormMessage, Input, Select, Textarea } from "@/components/ui/input";
 import { zoneLabel } from "@/lib/dates";
 import type { ActionResult } from "@/lib/errors";
 
@@ -46,6 +46,52 @@ export function MoveJobForm({ action, orderId, defaultStart }: { action: (input:
       </Field>
       <FormMessage tone={msg?.tone}>{msg?.text}</FormMessage>
       <Button type="submit" variant="secondary" disabled={pending}>{pending ? "Moving…" : "Move the job"}</Button>
+    </form>
+  );
+}
+
+type EndInput = { orderId: string; kind: "print" | "cooling" | "machining"; endsAt: string; reason: string };
+const KIND_WORD = { print: "Printing", cooling: "Cooling", machining: "Machining" } as const;
+
+/** A block ends at another time than planned (finished early, running late); the action comes from the page. */
+export function BlockEndForm({ action, orderId, kinds, defaultEnd }: { action: (input: EndInput) => Promise<ActionResult<Moved>>; orderId: string; kinds: EndInput["kind"][]; defaultEnd: string }) {
+  const router = useRouter();
+  const [kind, setKind] = useState<EndInput["kind"]>(kinds[0] ?? "print");
+  const [endsAt, setEnd] = useState(defaultEnd);
+  const [reason, setReason] = useState("");
+  const [msg, setMsg] = useState<{ tone: "ok" | "error"; text: string } | null>(null);
+  const [errors, setErrors] = useState<Record<string, string[]>>({});
+  const [pending, start] = useTransition();
+  return (
+    <form
+      className="space-y-3"
+      onSubmit={(e) => {
+        e.preventDefault();
+        start(async () => {
+          const r = await action({ orderId, kind, endsAt, reason });
+          if (!r.ok) { setErrors(r.fieldErrors ?? {}); setMsg({ tone: "error", text: r.message }); return; }
+          const told = r.data.moved.filter((m) => m.clientTold).length;
+          setErrors({}); setReason("");
+          setMsg({ tone: "ok", text: `Replanned from the new end.${told ? ` ${told} client${told === 1 ? " was" : "s were"} e-mailed the new ship date.` : " No ship date moved by a working day."}` });
+          router.refresh();
+        });
+      }}
+    >
+      <div className="grid gap-3 sm:grid-cols-2">
+        <Field label="Which step" htmlFor="end-kind">
+          <Select id="end-kind" value={kind} onChange={(e) => setKind(e.target.value as EndInput["kind"])}>
+            {kinds.map((k) => <option key={k} value={k}>{KIND_WORD[k]}</option>)}
+          </Select>
+        </Field>
+        <Field label={`Ends (plant time, ${zoneLabel()})`} htmlFor="end-at" error={errors.endsAt?.[0]}>
+          <Input id="end-at" type="datetime-local" value={endsAt} onChange={(e) => setEnd(e.target.value)} />
+        </Field>
+      </div>
+      <Field label="Reason (the client reads it if the ship date moves)" htmlFor="end-reason" error={errors.reason?.[0]}>
+        <Textarea id="end-reason" rows={2} value={reason} onChange={(e) => setReason(e.target.value)} />
+      </Field>
+      <FormMessage tone={msg?.tone}>{msg?.text}</FormMessage>
+      <Button type="submit" variant="secondary" disabled={pending}>{pending ? "Replanning…" : "Replan from this end"}</Button>
     </form>
   );
 }
