@@ -68,4 +68,40 @@ describe("capacity and delivery", () => {
     await both(page, "lead-time-choice");
     await context.close();
   });
+
+  it("production delays the scheduled job by a week; the client's timeline shows the new date and sales sees the broken promise", async () => {
+    const orderId = String((await db.execute("select o.id from orders o join requests r on r.id = o.request_id where r.stage = 'scheduled'")).rows[0]?.id);
+    const print = Number((await db.execute({ sql: "select starts_at from schedule_blocks where order_id = ? and kind = 'print'", args: [orderId] })).rows[0]?.starts_at);
+    const staff = await newPage(browser, WIDE);
+    await signIn(staff.page, stack.baseUrl, "production@ostrevane.example", DEMO_PASSWORDS.production);
+    await staff.page.goto(`${stack.baseUrl}/admin/production/orders/${orderId}`);
+    await staff.page.getByText("Move the job and tell the clients affected").click();
+    // a week later, as the plant's wall clock shows it in the form
+    const later = new Date(print + 7 * 86_400_000);
+    const local = new Intl.DateTimeFormat("sv-SE", { timeZone: "CST6CDT", year: "numeric", month: "2-digit", day: "2-digit", hour: "2-digit", minute: "2-digit" }).format(later).replace(" ", "T");
+    await staff.page.getByLabel(/New print start/).fill(local);
+    await staff.page.getByLabel(/Reason \(the client reads it/).first().fill("The resin lot failed its moisture check; a new lot arrives next week.");
+    await staff.page.getByRole("button", { name: "Move the job" }).click();
+    await expect(staff.page.getByText(/was e-mailed the new ship date/).textContent({ timeout: 30_000 })).resolves.toMatch(/Moved/);
+    await staff.page.getByText("Ship-date changes").waitFor({ timeout: 30_000 });
+    await both(staff.page, "move-job-order");
+    await staff.context.close();
+
+    const sales = await newPage(browser, WIDE);
+    await signIn(sales.page, stack.baseUrl, "sales@ostrevane.example", DEMO_PASSWORDS.sales);
+    await sales.page.goto(`${stack.baseUrl}/admin/sales`);
+    await expect(sales.page.getByTestId("promised-dates").textContent({ timeout: 30_000 })).resolves.toMatch(/now planned/);
+    await sales.page.getByTestId("promised-dates").scrollIntoViewIfNeeded();
+    await both(sales.page, "promised-dates-sales");
+    await sales.context.close();
+
+    const client = await newPage(browser, WIDE);
+    await signIn(client.page, stack.baseUrl, "engineer@caldrith.example", DEMO_PASSWORDS.client);
+    const requestIdOf = String((await db.execute({ sql: "select request_id from orders where id = ?", args: [orderId] })).rows[0]?.request_id);
+    await client.page.goto(`${stack.baseUrl}/portal/requests/${requestIdOf}`);
+    await client.page.getByText("Ship date changes").waitFor({ timeout: 30_000 });
+    await expect(client.page.getByRole("list", { name: "Order timeline" }).textContent()).resolves.toMatch(/resin lot failed its moisture check/);
+    await both(client.page, "ship-date-change-timeline");
+    await client.context.close();
+  });
 });

@@ -13,6 +13,8 @@ import { shipDateNow, specFromEstimates } from "@/lib/scheduling/promises";
 import type { LeadTimeKey } from "@/lib/estimating/types";
 
 const dayOf = (d: Date) => d.toISOString().slice(0, 10);
+/** A quoted ship date is stored as its calendar day (UTC midnight): shown as that day, not shifted into the plant's zone. */
+const quotedDay = (d: Date | null) => (d ? formatDate(`${dayOf(d)}T12:00:00Z`) : "—");
 
 /**
  * Promised dates that no longer hold: orders whose planned ship is past the date their quote gave,
@@ -39,13 +41,13 @@ export async function PromisedDates({ db, now }: { db: Db; now: Date }) {
           {orders.map((o) => (
             <li key={o.orderId} className="flex flex-wrap items-baseline justify-between gap-2 py-2">
               <span><Link className="font-medium underline" href={`/admin/sales/requests/${o.requestId}`}>{o.reference}</Link> · {o.projectName} · {o.firmName}</span>
-              <span className="figures">promised {formatDate(o.promised)}, now planned {formatDate(o.planned)} <Badge tone="danger">order</Badge></span>
+              <span className="figures">promised {quotedDay(o.promised)}, now planned {formatDate(o.planned)} <Badge tone="danger">order</Badge></span>
             </li>
           ))}
           {quotes.map((q) => (
             <li key={q.quoteId} className="flex flex-wrap items-baseline justify-between gap-2 py-2">
               <span><Link className="font-medium underline" href={`/admin/sales/requests/${q.requestId}`}>{q.reference}</Link> · quote {q.version} · {q.firmName}{q.leadTime !== "standard" ? ` · ${LEAD_TIME_LABEL[q.leadTime as LeadTimeKey]}` : ""}</span>
-              <span className="figures">quoted {formatDate(q.shipDate)}, calendar gives {formatDate(`${q.calendarDate}T12:00:00Z`)} <Badge tone="warn">issued quote</Badge></span>
+              <span className="figures">quoted {quotedDay(q.shipDate)}, calendar gives {formatDate(`${q.calendarDate}T12:00:00Z`)} <Badge tone="warn">issued quote</Badge></span>
             </li>
           ))}
         </ul>
