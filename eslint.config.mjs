@@ -13,7 +13,9 @@ const config = [
   {
     rules: {
       "@typescript-eslint/no-unused-vars": ["error", { argsIgnorePattern: "^_", varsIgnorePattern: "^_" }],
-      "@typescript-eslint/consistent-type-imports": ["error", { fixStyle: "inline-type-imports" }],
+      "@typescript-eslint/consistent-type-imports": ["error", { fixStyle: "separate-type-imports" }],
+      // Under verbatimModuleSyntax an import whose names are all types must say so whole (`import type`), or the module still loads.
+      "@typescript-eslint/no-import-type-side-effects": "error",
       // TanStack Table v8 returns fresh functions by design; the compiler's notice is not a defect.
       "react-hooks/incompatible-library": "off",
     },
