@@ -25,6 +25,17 @@ const config = [
     rules: { "@typescript-eslint/no-restricted-imports": ["error", { patterns: [NO_APP] }] },
   },
   {
+    // Queries live only in db/queries/ (the seed and the scripts set data up directly; tests check it).
+    files: ["components/**", "lib/**"],
+    ignores: ["lib/seed/**", "lib/scripts/**", "**/*.test.ts", "**/*.test.tsx"],
+    rules: {
+      "@typescript-eslint/no-restricted-imports": [
+        "error",
+        { patterns: [NO_APP], paths: [{ name: "drizzle-orm", message: "Build queries in db/queries/ and call them from lib/." }] },
+      ],
+    },
+  },
+  {
     files: ["db/**"],
     rules: {
       "@typescript-eslint/no-restricted-imports": [

@@ -202,3 +202,19 @@ export async function setProcessorFee(db: Db | Tx, paymentId: string, fee: { cha
   await db.update(payments).set({ chargeId: fee.chargeId, feeCents: fee.feeCents }).where(and(eq(payments.id, paymentId), isNull(payments.feeCents)));
 }
 
+/** An order's deposit payments that money came in for (paid, or refunded since). */
+export async function listReceivedDeposits(db: Db | Tx, orderId: string) {
+  return db.select().from(payments).where(and(eq(payments.orderId, orderId), eq(payments.kind, "deposit"), inArray(payments.status, ["paid", "partially_refunded", "refunded"])));
+}
+
+/** The newest bank transfer opened for an order's balance (its reference and account details), if any. */
+export async function getLatestBalanceTransfer(db: Db | Tx, orderId: string) {
+  const [row] = await db
+    .select()
+    .from(payments)
+    .where(and(eq(payments.orderId, orderId), eq(payments.kind, "balance"), eq(payments.method, "bank_transfer"), isNotNull(payments.transferReference)))
+    .orderBy(desc(payments.createdAt))
+    .limit(1);
+  return row ?? null;
+}
+

@@ -1,4 +1,3 @@
-import { and, asc, desc, eq, inArray, isNotNull } from "drizzle-orm";
 import { PAYMENT_METHOD_LABEL, PAYMENT_TERMS_LABEL } from "../labels";
 import { formatDate } from "../dates";
 import { NET_DAYS } from "../payments/terms";
@@ -6,7 +5,10 @@ import type { Db } from "../../db/client";
 import type { Tx } from "../../db/queries/audit";
 import { getIssuedDocumentBySource, getTermsVersion } from "../../db/queries/issued-documents";
 import { listPartsWithAnalysis } from "../../db/queries/parts";
-import { orders, organisations, payments, quoteLines, quotes, refunds, requests } from "../../db/schema";
+import { getLatestBalanceTransfer, getOrder, getPayment, listReceivedDeposits } from "../../db/queries/payments";
+import { getQuote, listQuoteLines } from "../../db/queries/quotes";
+import { getRefundWithPayment } from "../../db/queries/refunds";
+import { getRequestWithFirm } from "../../db/queries/requests";
 import { zoneFor } from "../estimating/freight";
 import { addressLines } from "../validation/address";
 import { getBillingAddress, getDefaultShipTo } from "../../db/queries/addresses";
@@ -21,11 +23,7 @@ export const GENERAL_CAUTION =
   "Large printed tools are heavy and may be hot after printing or machining: use lifting equipment rated for the load, gloves and eye protection, and follow local codes, licensed rigging practice and your own engineering sign-off.";
 
 async function requestAndFirm(q: Q, requestId: string) {
-  const [row] = await q
-    .select({ request: requests, firm: { name: organisations.name, billingContact: organisations.billingContact, billingEmail: organisations.billingEmail } })
-    .from(requests)
-    .innerJoin(organisations, eq(organisations.id, requests.orgId))
-    .where(eq(requests.id, requestId));
+  const row = await getRequestWithFirm(q, requestId);
   if (!row) throw new Error(`documents: request ${requestId} not found`);
   const billing = await getBillingAddress(q, row.request.orgId);
   return { ...row, firm: { ...row.firm, billing } };
@@ -64,9 +62,9 @@ async function cautionsFor(q: Q, requestId: string): Promise<{ cautions: string[
 }
 
 async function quoteWithLines(q: Q, quoteId: string) {
-  const [quote] = await q.select().from(quotes).where(eq(quotes.id, quoteId));
+  const quote = await getQuote(q, quoteId);
   if (!quote) throw new Error(`documents: quote ${quoteId} not found`);
-  const lines = await q.select().from(quoteLines).where(eq(quoteLines.quoteId, quoteId)).orderBy(asc(quoteLines.sort));
+  const lines = await listQuoteLines(q, quoteId);
   return { quote, lines: lines.map((l): DocumentLine => ({ description: l.description, quantity: l.quantity, unitCents: l.unitCents, amountCents: l.amountCents })) };
 }
 
@@ -116,7 +114,7 @@ export async function buildQuoteData(q: Q, quoteId: string, now: Date): Promise<
 }
 
 async function orderContext(q: Q, orderId: string) {
-  const [order] = await q.select().from(orders).where(eq(orders.id, orderId));
+  const order = await getOrder(q, orderId);
   if (!order) throw new Error(`documents: order ${orderId} not found`);
   const { request, firm } = await requestAndFirm(q, order.requestId);
   const { quote, lines } = await quoteWithLines(q, order.quoteId);
@@ -132,7 +130,7 @@ async function orderContext(q: Q, orderId: string) {
 }
 
 export async function buildDepositInvoiceData(q: Q, paymentId: string, now: Date): Promise<DepositInvoiceData> {
-  const [payment] = await q.select().from(payments).where(eq(payments.id, paymentId));
+  const payment = await getPayment(q, paymentId);
   if (!payment || payment.kind !== "deposit") throw new Error(`documents: deposit payment ${paymentId} not found`);
   const { order, request, quote, quoteNumber, totals: orderTotals, shipTo, taxNote, client } = await orderContext(q, payment.orderId);
   const { cautions } = await cautionsFor(q, request.id);
@@ -168,15 +166,10 @@ export async function buildDepositInvoiceData(q: Q, paymentId: string, now: Date
 export async function buildBalanceInvoiceData(q: Q, orderId: string, now: Date): Promise<BalanceInvoiceData> {
   const { order, request, quote, lines, quoteNumber, totals, shipTo, taxNote, client } = await orderContext(q, orderId);
   const { cautions } = await cautionsFor(q, request.id);
-  const deposits = await q.select().from(payments).where(and(eq(payments.orderId, orderId), eq(payments.kind, "deposit"), inArray(payments.status, ["paid", "partially_refunded", "refunded"])));
+  const deposits = await listReceivedDeposits(q, orderId);
   const depositPayment = deposits[0] ?? null;
   const depositDoc = depositPayment ? await getIssuedDocumentBySource(q, "deposit_invoice", depositPayment.id) : null;
-  const [transferPay] = await q
-    .select()
-    .from(payments)
-    .where(and(eq(payments.orderId, orderId), eq(payments.kind, "balance"), eq(payments.method, "bank_transfer"), isNotNull(payments.transferReference)))
-    .orderBy(desc(payments.createdAt))
-    .limit(1);
+  const transferPay = await getLatestBalanceTransfer(q, orderId);
   const transfer = transferPay?.transferReference && transferPay.transferDetails ? { reference: transferPay.transferReference, ...transferPay.transferDetails } : null;
   const onAccount = order.paymentTerms !== "prepay";
   const termsLabel = PAYMENT_TERMS_LABEL[order.paymentTerms];
@@ -212,10 +205,9 @@ export async function buildBalanceInvoiceData(q: Q, orderId: string, now: Date):
 }
 
 export async function buildCreditNoteData(q: Q, refundId: string, now: Date): Promise<CreditNoteData> {
-  const [refund] = await q.select().from(refunds).where(eq(refunds.id, refundId));
-  if (!refund) throw new Error(`documents: refund ${refundId} not found`);
-  const [payment] = await q.select().from(payments).where(eq(payments.id, refund.paymentId));
-  if (!payment) throw new Error(`documents: payment ${refund.paymentId} not found`);
+  const found = await getRefundWithPayment(q, refundId);
+  if (!found) throw new Error(`documents: refund ${refundId} not found`);
+  const { refund, payment } = found;
   const { order, request, totals: orderTotals, client, taxNote } = await orderContext(q, payment.orderId);
   const invoice = payment.kind === "deposit" ? await getIssuedDocumentBySource(q, "deposit_invoice", payment.id) : await getIssuedDocumentBySource(q, "invoice", order.id);
   const tax = taxIncluded(refund.amountCents, order.totalCents, orderTotals.taxCents);
