@@ -1,4 +1,5 @@
 import type { IndexedMesh } from "../indexed";
+import { r2, r4 } from "../round";
 import { steinerVolume } from "../grow";
 import { planMachining, type MachiningPlan } from "../machining";
 import { allowedOrientations, bestOrientation, clearance, fitCells, orientedSize, suggestSplit, verticalFit } from "../orient";
@@ -15,8 +16,6 @@ import { priceStage } from "./price";
 import { scheduleStage, type PlacedSchedule } from "./schedule";
 import { sectionsAt, sliceStage, type GrownSections } from "./slice";
 
-const r2 = (v: number) => Math.round(v * 100) / 100;
-const r4 = (v: number) => Math.round(v * 1e4) / 1e4;
 const money = (c: number) => `$${(c / 100).toLocaleString("en-US", { maximumFractionDigits: 0 })}`;
 
 /** Layer height between a quarter and a half of the bead width (common practice, checks.md). */
