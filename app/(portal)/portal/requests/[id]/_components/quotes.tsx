@@ -14,6 +14,7 @@ import { FigureKind } from "@/app/(portal)/portal/requests/_components/estimate-
 import { day, instantDay, quoteChanges, type QuoteView } from "./quote-changes";
 import { PayByPicker, ShipToPicker, type AcceptanceView, type PayBy, type ShipToChoice } from "./accept-choices";
 import { spreadMargin } from "@/lib/quoting/client-lines";
+import { LEAD_TIME_LABEL } from "@/lib/quoting/lead-times";
 
 /** Lines priced by the hour: the hours are the bureau's own planning figure, not shown to the client. */
 const HOURS_KINDS = new Set(["print", "machining", "engineering"]);
@@ -167,7 +168,12 @@ export function QuotesSection({ quotes, canAccept, defaultPo, now, acceptance = 
                 { label: "Deposit on acceptance", cents: q.depositCents, tone: "muted" },
               ]}
             />
-            {q.shipDate ? <p className="text-sm text-ink-600">Quoted ship date: {day(q.shipDate)}</p> : null}
+            {q.shipDate ? (
+              <p className="text-sm text-ink-600">
+                Quoted ship date: {day(q.shipDate)}
+                {q.leadTime && q.leadTime !== "standard" ? ` (${LEAD_TIME_LABEL[q.leadTime].toLowerCase()} delivery)` : ""}
+              </p>
+            ) : null}
             {q.notes ? <p className="text-sm text-ink-600">{q.notes}</p> : null}
             {canAccept && q === latestIssued && !expired && !q.isStale ? <AcceptForm quote={q} defaultPo={defaultPo} acceptance={acceptance} /> : null}
             {canAccept && q === latestIssued && expired ? (
