@@ -1,6 +1,6 @@
 import { and, asc, desc, eq, isNull, sql } from "drizzle-orm";
 import type { Db } from "../client";
-import { documentSeries, issuedDocuments, requests, termsOfSale, type IssuedDocumentKind } from "../schema";
+import { documentSeries, issuedDocuments, organisations, quoteLines, quotes, requests, termsOfSale, type IssuedDocumentKind } from "../schema";
 import { formatDocumentNumber, SERIES_BY_KIND, seriesYear } from "../document-number";
 import type { Tx } from "./audit";
 
@@ -109,3 +109,22 @@ export async function publishTerms(tx: Tx, input: { title: string; body: string;
   await tx.insert(termsOfSale).values({ version, title: input.title, body: input.body, createdById: input.createdById, isCurrent: true });
   return version;
 }
+
+/** A request with its firm's name and billing contact (for the documents printed for it). */
+export async function getRequestWithFirm(db: Db | Tx, requestId: string) {
+  const [row] = await db
+    .select({ request: requests, firm: { name: organisations.name, billingContact: organisations.billingContact, billingEmail: organisations.billingEmail } })
+    .from(requests)
+    .innerJoin(organisations, eq(organisations.id, requests.orgId))
+    .where(eq(requests.id, requestId));
+  return row ?? null;
+}
+
+/** A quote with its lines in order (for the documents printed from it). */
+export async function getQuoteWithLines(db: Db | Tx, quoteId: string) {
+  const [quote] = await db.select().from(quotes).where(eq(quotes.id, quoteId));
+  if (!quote) return null;
+  const lines = await db.select().from(quoteLines).where(eq(quoteLines.quoteId, quoteId)).orderBy(asc(quoteLines.sort));
+  return { quote, lines };
+}
+

@@ -1,4 +1,4 @@
-import "server-only";
+/* No server-only marker: the seed issues credit notes under plain Node (lib/documents/build.ts reads refunds here). */
 import { and, eq, inArray, sql } from "drizzle-orm";
 import type { Db } from "../client";
 import { payments, refunds } from "../schema";

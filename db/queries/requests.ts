@@ -253,14 +253,3 @@ export async function listStageEvents(db: Db | Tx, requestId: string) {
     .where(eq(stageEvents.requestId, requestId))
     .orderBy(asc(stageEvents.at));
 }
-
-/** A request with its firm's name and billing contact (for the documents printed for it). */
-export async function getRequestWithFirm(db: Db | Tx, requestId: string) {
-  const [row] = await db
-    .select({ request: requests, firm: { name: organisations.name, billingContact: organisations.billingContact, billingEmail: organisations.billingEmail } })
-    .from(requests)
-    .innerJoin(organisations, eq(organisations.id, requests.orgId))
-    .where(eq(requests.id, requestId));
-  return row ?? null;
-}
-

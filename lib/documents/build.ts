@@ -3,12 +3,10 @@ import { formatDate } from "../dates";
 import { NET_DAYS } from "../payments/terms";
 import type { Db } from "../../db/client";
 import type { Tx } from "../../db/queries/audit";
-import { getIssuedDocumentBySource, getTermsVersion } from "../../db/queries/issued-documents";
+import { getIssuedDocumentBySource, getQuoteWithLines, getRequestWithFirm, getTermsVersion } from "../../db/queries/issued-documents";
 import { listPartsWithAnalysis } from "../../db/queries/parts";
 import { getLatestBalanceTransfer, getOrder, getPayment, listReceivedDeposits } from "../../db/queries/payments";
-import { getQuote, listQuoteLines } from "../../db/queries/quotes";
 import { getRefundWithPayment } from "../../db/queries/refunds";
-import { getRequestWithFirm } from "../../db/queries/requests";
 import { zoneFor } from "../estimating/freight";
 import { addressLines } from "../validation/address";
 import { getBillingAddress, getDefaultShipTo } from "../../db/queries/addresses";
@@ -62,9 +60,9 @@ async function cautionsFor(q: Q, requestId: string): Promise<{ cautions: string[
 }
 
 async function quoteWithLines(q: Q, quoteId: string) {
-  const quote = await getQuote(q, quoteId);
-  if (!quote) throw new Error(`documents: quote ${quoteId} not found`);
-  const lines = await listQuoteLines(q, quoteId);
+  const found = await getQuoteWithLines(q, quoteId);
+  if (!found) throw new Error(`documents: quote ${quoteId} not found`);
+  const { quote, lines } = found;
   return { quote, lines: lines.map((l): DocumentLine => ({ description: l.description, quantity: l.quantity, unitCents: l.unitCents, amountCents: l.amountCents })) };
 }
 
