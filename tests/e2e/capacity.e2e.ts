@@ -1,42 +1,17 @@
-import { createClient, type Client } from "@libsql/client";
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { DEMO_PASSWORDS } from "@/lib/seed/data";
-import { launchBrowser, newPage, PHONE, shot, signIn, startStack, type TestStack } from "./harness";
+import { newPage, signIn } from "./harness";
+import { journeySetup, WIDE } from "./journey";
 
 /** The capacity view (production) and the delivery choice on the client's review step. */
-let stack: TestStack;
-let browser: Browser;
-let db: Client;
-const WIDE = { width: 1440, height: 900 };
-
-beforeAll(async () => {
-  stack = await startStack();
-  browser = await launchBrowser();
-  db = createClient({ url: stack.dbUrl, timeout: 10_000 });
-}, 180_000);
-
-afterAll(async () => {
-  db?.close();
-  await browser?.close();
-  await stack?.stop();
-});
-
-const requestId = async (project: string) => String((await db.execute({ sql: "select id from requests where project_name like ?", args: [`${project}%`] })).rows[0]?.id);
-
-async function both(page: Page, name: string) {
-  await page.mouse.move(0, 0);
-  await shot(page, `${name}-1440`);
-  await page.setViewportSize(PHONE);
-  await shot(page, `${name}-390`);
-  await page.setViewportSize(WIDE);
-}
+const j = journeySetup();
+const { requestId, both } = j;
 
 describe("capacity and delivery", () => {
   it("production sees eight weeks per cell and the router, the demo's booked work and its maintenance blocks", async () => {
-    const { context, page } = await newPage(browser, WIDE);
-    await signIn(page, stack.baseUrl, "production@ostrevane.example", DEMO_PASSWORDS.production);
-    await page.goto(`${stack.baseUrl}/admin/production`);
+    const { context, page } = await newPage(j.browser, WIDE);
+    await signIn(page, j.stack.baseUrl, "production@ostrevane.example", DEMO_PASSWORDS.production);
+    await page.goto(`${j.stack.baseUrl}/admin/production`);
     await page.getByRole("link", { name: "Capacity, 8 weeks" }).click();
     await page.waitForURL(/\/admin\/production\/capacity$/);
     await page.getByRole("heading", { name: "Capacity", level: 1 }).waitFor();
@@ -54,9 +29,9 @@ describe("capacity and delivery", () => {
   });
 
   it("the client picks expedited delivery on the review step, with its date and total", async () => {
-    const { context, page } = await newPage(browser, WIDE);
-    await signIn(page, stack.baseUrl, "engineer@caldrith.example", DEMO_PASSWORDS.client);
-    await page.goto(`${stack.baseUrl}/portal/requests/${await requestId("Spar cap tool")}`);
+    const { context, page } = await newPage(j.browser, WIDE);
+    await signIn(page, j.stack.baseUrl, "engineer@caldrith.example", DEMO_PASSWORDS.client);
+    await page.goto(`${j.stack.baseUrl}/portal/requests/${await requestId("Spar cap tool")}`);
     await page.getByRole("button", { name: "Continue" }).click();
     await page.getByLabel(/Confirm millimetres|Units confirmed/).first().check();
     await page.getByRole("button", { name: "3. Review & submit" }).click();
@@ -70,11 +45,11 @@ describe("capacity and delivery", () => {
   });
 
   it("production delays the scheduled job by a week; the client's timeline shows the new date and sales sees the broken promise", async () => {
-    const orderId = String((await db.execute("select o.id from orders o join requests r on r.id = o.request_id where r.stage = 'scheduled'")).rows[0]?.id);
-    const print = Number((await db.execute({ sql: "select starts_at from schedule_blocks where order_id = ? and kind = 'print'", args: [orderId] })).rows[0]?.starts_at);
-    const staff = await newPage(browser, WIDE);
-    await signIn(staff.page, stack.baseUrl, "production@ostrevane.example", DEMO_PASSWORDS.production);
-    await staff.page.goto(`${stack.baseUrl}/admin/production/orders/${orderId}`);
+    const orderId = String((await j.db.execute("select o.id from orders o join requests r on r.id = o.request_id where r.stage = 'scheduled'")).rows[0]?.id);
+    const print = Number((await j.db.execute({ sql: "select starts_at from schedule_blocks where order_id = ? and kind = 'print'", args: [orderId] })).rows[0]?.starts_at);
+    const staff = await newPage(j.browser, WIDE);
+    await signIn(staff.page, j.stack.baseUrl, "production@ostrevane.example", DEMO_PASSWORDS.production);
+    await staff.page.goto(`${j.stack.baseUrl}/admin/production/orders/${orderId}`);
     await staff.page.getByText("Move the job and tell the clients affected").click();
     // a week later, as the plant's wall clock shows it in the form
     const later = new Date(print + 7 * 86_400_000);
@@ -87,18 +62,18 @@ describe("capacity and delivery", () => {
     await both(staff.page, "move-job-order");
     await staff.context.close();
 
-    const sales = await newPage(browser, WIDE);
-    await signIn(sales.page, stack.baseUrl, "sales@ostrevane.example", DEMO_PASSWORDS.sales);
-    await sales.page.goto(`${stack.baseUrl}/admin/sales`);
+    const sales = await newPage(j.browser, WIDE);
+    await signIn(sales.page, j.stack.baseUrl, "sales@ostrevane.example", DEMO_PASSWORDS.sales);
+    await sales.page.goto(`${j.stack.baseUrl}/admin/sales`);
     await expect(sales.page.getByTestId("promised-dates").textContent({ timeout: 30_000 })).resolves.toMatch(/now planned/);
     await sales.page.getByTestId("promised-dates").scrollIntoViewIfNeeded();
     await both(sales.page, "promised-dates-sales");
     await sales.context.close();
 
-    const client = await newPage(browser, WIDE);
-    await signIn(client.page, stack.baseUrl, "engineer@caldrith.example", DEMO_PASSWORDS.client);
-    const requestIdOf = String((await db.execute({ sql: "select request_id from orders where id = ?", args: [orderId] })).rows[0]?.request_id);
-    await client.page.goto(`${stack.baseUrl}/portal/requests/${requestIdOf}`);
+    const client = await newPage(j.browser, WIDE);
+    await signIn(client.page, j.stack.baseUrl, "engineer@caldrith.example", DEMO_PASSWORDS.client);
+    const requestIdOf = String((await j.db.execute({ sql: "select request_id from orders where id = ?", args: [orderId] })).rows[0]?.request_id);
+    await client.page.goto(`${j.stack.baseUrl}/portal/requests/${requestIdOf}`);
     await client.page.getByText("Ship date changes").waitFor({ timeout: 30_000 });
     await expect(client.page.getByRole("list", { name: "Order timeline" }).textContent()).resolves.toMatch(/resin lot failed its moisture check/);
     await both(client.page, "ship-date-change-timeline");

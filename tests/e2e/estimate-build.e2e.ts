@@ -1,42 +1,17 @@
-import { createClient, type Client } from "@libsql/client";
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { DEMO_PASSWORDS } from "@/lib/seed/data";
-import { launchBrowser, newPage, PHONE, shot, signIn, startStack, type TestStack } from "./harness";
+import { newPage, signIn } from "./harness";
+import { journeySetup, WIDE } from "./journey";
 
 /** The estimate's build on the client's and the staff's screens: drying, vertical builds, pieces. */
-let stack: TestStack;
-let browser: Browser;
-let db: Client;
-const WIDE = { width: 1440, height: 900 };
-
-beforeAll(async () => {
-  stack = await startStack();
-  browser = await launchBrowser();
-  db = createClient({ url: stack.dbUrl, timeout: 10_000 });
-}, 180_000);
-
-afterAll(async () => {
-  db?.close();
-  await browser?.close();
-  await stack?.stop();
-});
-
-const requestId = async (project: string) => String((await db.execute({ sql: "select id from requests where project_name like ?", args: [`${project}%`] })).rows[0]?.id);
-
-async function both(page: Page, name: string) {
-  await page.mouse.move(0, 0);
-  await shot(page, `${name}-1440`);
-  await page.setViewportSize(PHONE);
-  await shot(page, `${name}-390`);
-  await page.setViewportSize(WIDE);
-}
+const j = journeySetup();
+const { requestId, both } = j;
 
 describe("how the part is built, on the estimate screens", () => {
   it("the client's draft of a 12 m spar shows it priced as two pieces with the joining, and the drying before the first layer", async () => {
-    const { context, page } = await newPage(browser, WIDE);
-    await signIn(page, stack.baseUrl, "engineer@caldrith.example", DEMO_PASSWORDS.client);
-    await page.goto(`${stack.baseUrl}/portal/requests/${await requestId("Spar cap tool")}`);
+    const { context, page } = await newPage(j.browser, WIDE);
+    await signIn(page, j.stack.baseUrl, "engineer@caldrith.example", DEMO_PASSWORDS.client);
+    await page.goto(`${j.stack.baseUrl}/portal/requests/${await requestId("Spar cap tool")}`);
     await page.getByRole("button", { name: "Continue" }).click();
     // the seeded spar's units were guessed: the client confirms them before the review
     await page.getByLabel(/Confirm millimetres|Units confirmed/).first().check();
@@ -51,12 +26,12 @@ describe("how the part is built, on the estimate screens", () => {
   });
 
   it("staff see the pieces, the drying and the dryer's cap on a PA/CF fixture", async () => {
-    const { context, page } = await newPage(browser, WIDE);
-    await signIn(page, stack.baseUrl, "sales@ostrevane.example", DEMO_PASSWORDS.sales);
-    await page.goto(`${stack.baseUrl}/admin/sales/requests/${await requestId("Spar cap tool")}`);
+    const { context, page } = await newPage(j.browser, WIDE);
+    await signIn(page, j.stack.baseUrl, "sales@ostrevane.example", DEMO_PASSWORDS.sales);
+    await page.goto(`${j.stack.baseUrl}/admin/sales/requests/${await requestId("Spar cap tool")}`);
     await expect(page.getByTestId("build-pieces").textContent({ timeout: 30_000 })).resolves.toMatch(/Long Axis/);
     await both(page, "estimate-build-staff-spar");
-    await page.goto(`${stack.baseUrl}/admin/sales/requests/${await requestId("Sandwich panel press fixture")}`);
+    await page.goto(`${j.stack.baseUrl}/admin/sales/requests/${await requestId("Sandwich panel press fixture")}`);
     await expect(page.getByTestId("build-drying").textContent({ timeout: 30_000 })).resolves.toMatch(/dried 8 h at 80 °C before the first layer.*dryer keeps/);
     await expect(page.getByTestId("build-machining").textContent()).resolves.toMatch(/left as printed/);
     await both(page, "estimate-build-staff-pa-cf");

@@ -10,31 +10,41 @@ import type { ActionResult } from "@/lib/errors";
 type MoveInput = { orderId: string; start: string; reason: string };
 type Moved = { moved: { orderId: string; fromDate: string; toDate: string; clientTold: boolean }[] };
 
+/** What the two forms share: the answer shown, the field errors, the pending state, and the page refreshed after a replan. */
+function useReplan(onDone: () => void) {
+  const router = useRouter();
+  const [msg, setMsg] = useState<{ tone: "ok" | "error"; text: string } | null>(null);
+  const [errors, setErrors] = useState<Record<string, string[]>>({});
+  const [pending, start] = useTransition();
+  const submit = (call: () => Promise<ActionResult<Moved>>, said: (moved: Moved["moved"]) => string) =>
+    start(async () => {
+      const r = await call();
+      if (!r.ok) { setErrors(r.fieldErrors ?? {}); setMsg({ tone: "error", text: r.message }); return; }
+      const told = r.data.moved.filter((m) => m.clientTold).length;
+      setErrors({}); onDone();
+      setMsg({ tone: "ok", text: `${said(r.data.moved)}${told ? ` ${told} client${told === 1 ? " was" : "s were"} e-mailed the new ship date.` : " No ship date moved by a working day."}` });
+      router.refresh();
+    });
+  return { msg, errors, pending, submit };
+}
+
 /**
  * Move a booked job (a delay, or earlier when the cell frees up): jobs it would overlap move back
  * behind it, and each client whose ship date moves by a working day or more is e-mailed with the
  * reason given here. The action comes from the page.
  */
 export function MoveJobForm({ action, orderId, defaultStart }: { action: (input: MoveInput) => Promise<ActionResult<Moved>>; orderId: string; defaultStart: string }) {
-  const router = useRouter();
   const [startAt, setStart] = useState(defaultStart);
   const [reason, setReason] = useState("");
-  const [msg, setMsg] = useState<{ tone: "ok" | "error"; text: string } | null>(null);
-  const [errors, setErrors] = useState<Record<string, string[]>>({});
-  const [pending, start] = useTransition();
+  const { msg, errors, pending, submit } = useReplan(() => setReason(""));
   return (
     <form
       className="space-y-3"
       onSubmit={(e) => {
         e.preventDefault();
-        start(async () => {
-          const r = await action({ orderId, start: startAt, reason });
-          if (!r.ok) { setErrors(r.fieldErrors ?? {}); setMsg({ tone: "error", text: r.message }); return; }
-          const told = r.data.moved.filter((m) => m.clientTold).length;
-          const others = r.data.moved.filter((m) => m.orderId !== orderId).length;
-          setErrors({}); setReason("");
-          setMsg({ tone: "ok", text: `Moved.${others ? ` ${others} job${others === 1 ? "" : "s"} behind it moved back too.` : ""}${told ? ` ${told} client${told === 1 ? " was" : "s were"} e-mailed the new ship date.` : " No ship date moved by a working day."}` });
-          router.refresh();
+        submit(() => action({ orderId, start: startAt, reason }), (moved) => {
+          const others = moved.filter((m) => m.orderId !== orderId).length;
+          return `Moved.${others ? ` ${others} job${others === 1 ? "" : "s"} behind it moved back too.` : ""}`;
         });
       }}
     >
@@ -55,26 +65,16 @@ const KIND_WORD = { print: "Printing", cooling: "Cooling", machining: "Machining
 
 /** A block ends at another time than planned (finished early, running late); the action comes from the page. */
 export function BlockEndForm({ action, orderId, kinds, defaultEnd }: { action: (input: EndInput) => Promise<ActionResult<Moved>>; orderId: string; kinds: EndInput["kind"][]; defaultEnd: string }) {
-  const router = useRouter();
   const [kind, setKind] = useState<EndInput["kind"]>(kinds[0] ?? "print");
   const [endsAt, setEnd] = useState(defaultEnd);
   const [reason, setReason] = useState("");
-  const [msg, setMsg] = useState<{ tone: "ok" | "error"; text: string } | null>(null);
-  const [errors, setErrors] = useState<Record<string, string[]>>({});
-  const [pending, start] = useTransition();
+  const { msg, errors, pending, submit } = useReplan(() => setReason(""));
   return (
     <form
       className="space-y-3"
       onSubmit={(e) => {
         e.preventDefault();
-        start(async () => {
-          const r = await action({ orderId, kind, endsAt, reason });
-          if (!r.ok) { setErrors(r.fieldErrors ?? {}); setMsg({ tone: "error", text: r.message }); return; }
-          const told = r.data.moved.filter((m) => m.clientTold).length;
-          setErrors({}); setReason("");
-          setMsg({ tone: "ok", text: `Replanned from the new end.${told ? ` ${told} client${told === 1 ? " was" : "s were"} e-mailed the new ship date.` : " No ship date moved by a working day."}` });
-          router.refresh();
-        });
+        submit(() => action({ orderId, kind, endsAt, reason }), () => "Replanned from the new end.");
       }}
     >
       <div className="grid gap-3 sm:grid-cols-2">
