@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { ROLES, type Role } from "../../db/schema/common";
-import { can, canOpenFiles, canOpenStoredFile, canReadDocument, canSee, hasPermission, homePathFor, isStaff, PERMISSIONS, type Permission, type PolicyUser } from "./policy";
+import { can, canOpenFiles, canOpenStoredFile, canReadDocument, canUseUpload, canSee, hasPermission, homePathFor, isStaff, PERMISSIONS, type Permission, type PolicyUser } from "./policy";
 
 const user = (role: Role, over: Partial<PolicyUser> = {}): PolicyUser => ({
   id: `${role}-1`,
@@ -90,6 +90,18 @@ describe("stored files", () => {
           expect(canOpenStoredFile({ ...u, orgId: u.orgId ? "org-b" : null }, { ...file }), `${kind} ${role} other firm`).toBe(isStaff(role) ? !isControlled : false);
         }
       }
+    }
+  });
+});
+
+describe("estimating from an upload", () => {
+  it("its uploader and staff; a client lead for the firm's uploads; a client engineer only their own; another firm never", () => {
+    const upload = { userId: "client-other", orgId: "org-a" };
+    const expected: Record<Role, boolean> = { client: false, client_admin: true, sales: true, production: true, accounts: true, admin: true };
+    for (const role of ROLES) {
+      expect(canUseUpload(user(role), upload), role).toBe(expected[role]);
+      expect(canUseUpload({ ...user(role), id: "client-other" }, upload), `${role} as uploader`).toBe(true);
+      expect(canUseUpload(user(role, { orgId: role.startsWith("client") ? "org-b" : null }), upload), `${role} of another firm`).toBe(!role.startsWith("client"));
     }
   });
 });

@@ -97,6 +97,15 @@ export function canOpenStoredFile(
   return canOpenFiles(user, { orgId: file.orgId, createdById: file.createdById, isControlled: file.isControlled });
 }
 
+/**
+ * May this user estimate from this upload? Its uploader; staff; or, for a firm's upload, whoever
+ * the firm's scope lets see it (a client lead: any colleague's; a client engineer: only their own).
+ */
+export function canUseUpload(user: PolicyUser, upload: { userId: string; orgId: string | null }): boolean {
+  if (upload.userId === user.id || isStaff(user.role)) return true;
+  return upload.orgId !== null && canSee(user, { orgId: upload.orgId, createdById: user.role === "client" ? upload.userId : undefined });
+}
+
 /** The permission check, with the resource's scope when one is given. */
 export function can(user: PolicyUser, permission: Permission, resource?: PolicyResource): boolean {
   if (!hasPermission(user, permission)) return false;

@@ -5,7 +5,7 @@ import { getUpload } from "@/db/queries/files";
 import { withEstimator } from "@/lib/analysis/estimator";
 import { firmFreightZone } from "@/lib/analysis/freight-zone";
 import { MAX_MODEL_BYTES } from "@/lib/analysis/run";
-import { canSee, isStaff } from "@/lib/auth/policy";
+import { canUseUpload } from "@/lib/auth/policy";
 import { AppError } from "@/lib/errors";
 import { defineRoute } from "@/lib/server/define-route";
 import { signedFileUrl } from "@/lib/uploads/uploadthing";
@@ -44,10 +44,7 @@ const bodySchema = z.object({
  */
 export const POST = defineRoute({ access: "signed-in", body: bodySchema, headers: { "cache-control": "no-store" } }, async ({ user, db, body }) => {
   const upload = await getUpload(db, body.uploadId);
-  const visible =
-    upload &&
-    (upload.userId === user.id || isStaff(user.role) || (upload.orgId !== null && canSee(user, { orgId: upload.orgId, createdById: user.role === "client" ? upload.userId : undefined })));
-  if (!upload || !visible) throw new AppError("not_found:file", "That file was not found.");
+  if (!upload || !canUseUpload(user, upload)) throw new AppError("not_found:file", "That file was not found.");
   return withEstimator(user, async (run) => {
     const catalogue = await loadCatalogue(db);
     if (!catalogue) throw new AppError("unavailable", "The catalogue is not set up yet.");
