@@ -25,6 +25,7 @@ const quoteColumns = {
   termsVersion: quotes.termsVersion,
   notes: quotes.notes,
   shipDate: quotes.shipDate,
+  leadTime: quotes.leadTime,
   issuedAt: quotes.issuedAt,
   validUntil: quotes.validUntil,
   acceptedAt: quotes.acceptedAt,

@@ -203,7 +203,8 @@ async function runOnce(db: Db, analysisId: string, deps: RunDeps): Promise<Outco
  */
 function outcomeOfError(e: unknown, analysisId: string): Outcome {
   const mapped = estimatorError(e);
-  if (!isAppError(mapped)) {
+  // anything the table does not name (estimatorError hands it back as it came) is ours to look at
+  if (mapped === e || !isAppError(mapped)) {
     logFor({ analysisId }).error({ ...errorFields(e), event: "analysis.error" }, "analysis failed");
     return { kind: "retry", code: "internal", message: "The analysis could not run; please try again, or ask us to look at the file." };
   }

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { PAYMENT_STATE_LABEL, QUOTE_STATE_LABEL } from "@/lib/labels";
-import { keysOf, listAnswer, pagedAnswer, wireDate } from "./wire";
+import { keysOf, pagedAnswer, wireDate } from "./wire";
 
 /**
  * The back office's list routes, as sent (app/api/admin/**): one schema each, used by the route
@@ -103,4 +103,3 @@ export const staffAnswer = z.object({
 export type StaffRow = z.infer<typeof staffRow>;
 export type StaffAnswer = z.infer<typeof staffAnswer>;
 
-export { listAnswer };

@@ -20,7 +20,7 @@ export interface QuoteView {
   notes: string;
   shipDate: string | null;
   /** The delivery quoted (the client's choice on the request, or sales'): standard, expedited or economy. */
-  leadTime?: "standard" | "expedite" | "economy";
+  leadTime: "standard" | "expedite" | "economy";
   issuedAt: string | null;
   validUntil: string | null;
   lines: { id: string; kind: string; description: string; quantity: number; unitCents: number; amountCents: number }[];

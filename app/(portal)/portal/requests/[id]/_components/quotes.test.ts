@@ -6,6 +6,7 @@ const base: QuoteView = {
   version: 1,
   status: "superseded",
   isStale: false,
+  leadTime: "standard",
   subtotalCents: 0,
   marginCents: 0,
   taxCents: 0,
