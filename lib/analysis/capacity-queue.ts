@@ -2,7 +2,7 @@ import "server-only";
 import type { Db } from "@/db/client";
 import { listBookedBlocks, listMaintenanceBlocks, listUnscheduledEstimates } from "@/db/queries/capacity";
 import type { Tx } from "@/db/queries/audit";
-import type { CapacityQueue } from "@/lib/estimating/placement";
+import type { CapacityQueue } from "@/lib/estimating/ledger";
 import { forCells, queueFromRows, unscheduledOf, type BookedRow, type UnscheduledRow } from "@/lib/estimating/queue";
 
 /**

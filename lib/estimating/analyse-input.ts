@@ -1,5 +1,5 @@
 import type { IndexedMesh } from "./indexed";
-import type { BookedSpan } from "./placement";
+import type { BookedSpan } from "./ledger";
 import type { ReadModelResult } from "./read-model";
 import type { Axis, CellParams, LengthUnit, MaterialParams, Mesh, Orientation, PrintMode, RateCardParams } from "./types";
 

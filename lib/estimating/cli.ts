@@ -5,7 +5,7 @@ import { analyse } from "./analyse";
 import { defaultCells, defaultMaterials, defaultRateCard } from "./defaults";
 import { EstimateInputError, isEstimateInputError } from "./errors";
 import { readModelFile } from "./read-model-file";
-import type { CapacityQueue } from "./placement";
+import type { CapacityQueue } from "./ledger";
 import { forCells, parseQueueArgs, queueFromRows, unscheduledOf, type BookedRow, type UnscheduledRow } from "./queue";
 import type { CellParams, EstimateResult, MaterialParams, RateCardParams } from "./types";
 

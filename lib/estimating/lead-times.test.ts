@@ -1,7 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { defaultRateCard } from "./defaults";
 import { expeditePremiumCents, leadTimeOptions } from "./lead-times";
-import { Ledger, placeJob, type CapacityQueue, type JobSpec } from "./placement";
+import { Ledger, type CapacityQueue } from "./ledger";
+import { placeJob, type JobSpec } from "./placement";
 import { costLine, totalsOf } from "./pricing";
 import { UTC_PLANT } from "./schedule";
 import type { WorkingCalendar } from "./types";

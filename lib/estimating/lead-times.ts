@@ -1,6 +1,8 @@
 import { LEAD_TIME_FALLBACKS } from "./card-fallbacks";
 import { applyBp } from "./money";
-import { loadShare, placeExpedited, type JobPlacement, type JobSpec, type Ledger } from "./placement";
+import { loadShare, type Ledger } from "./ledger";
+import { placeExpedited } from "./expedite";
+import type { JobPlacement, JobSpec } from "./placement";
 import { costLine, totalsOf, type Pricing } from "./pricing";
 import { addWorkingDays, nextOpenDay } from "./schedule";
 import type { LeadTime, RateCardParams } from "./types";

@@ -1,5 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { Ledger, placeExpedited, placeJob, Timeline, type BookedSpan, type CapacityQueue, type JobSpec, type PrintSpec } from "./placement";
+import { Ledger, Timeline, type BookedSpan, type CapacityQueue } from "./ledger";
+import { placeExpedited } from "./expedite";
+import { placeJob, type JobSpec, type PrintSpec } from "./placement";
 import { UTC_PLANT } from "./schedule";
 import type { WorkingCalendar } from "./types";
 

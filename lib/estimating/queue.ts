@@ -1,4 +1,4 @@
-import { ROUTER_KEY, type BookedSpan, type CapacityQueue } from "./placement";
+import { ROUTER_KEY, type BookedSpan, type CapacityQueue } from "./ledger";
 import type { EstimateResult } from "./types";
 
 /** A booked block as the calendar stores it: a job's print, cooling or machining, or a maintenance block. */

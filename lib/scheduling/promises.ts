@@ -1,4 +1,5 @@
-import { placeJob, type JobSpec, type Ledger } from "../estimating/placement";
+import { placeJob, type JobSpec } from "../estimating/placement";
+import type { Ledger } from "../estimating/ledger";
 import { jobTail, REMOVAL_FALLBACK_H } from "../estimating/stages/schedule";
 import type { CellParams, EstimateResult, RateCardParams } from "../estimating/types";
 

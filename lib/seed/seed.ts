@@ -8,7 +8,7 @@ import path from "node:path";
 import { sql } from "drizzle-orm";
 import { analyse } from "@/lib/estimating/analyse";
 import { defaultCells, defaultMaterials, defaultRateCard } from "@/lib/estimating/defaults";
-import { ROUTER_KEY } from "@/lib/estimating/placement";
+import { ROUTER_KEY } from "@/lib/estimating/ledger";
 import { zonedToUtc } from "@/lib/estimating/schedule";
 import { plantDay } from "@/lib/scheduling/reschedule";
 import { binaryStl, drillFixture, hullPlugInches, layupMold, tooLongBeam, extrude, type IndexedMesh } from "@/mocks/fixtures/meshes";

@@ -8,7 +8,7 @@ import { resetEnvCache } from "../../lib/env";
 import { resetResendClient } from "../../lib/email/send";
 import { formatDate } from "../../lib/dates";
 import { analyse } from "../../lib/estimating/analyse";
-import { Ledger } from "../../lib/estimating/placement";
+import { Ledger } from "../../lib/estimating/ledger";
 import { workingHoursBetween } from "../../lib/estimating/schedule";
 import { plantOf } from "../../lib/estimating/stages/schedule";
 import { createTestDb, type TestDb } from "../helpers/test-db";

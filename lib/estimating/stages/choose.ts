@@ -4,7 +4,7 @@ import { steinerVolume } from "../grow";
 import { planMachining, type MachiningPlan } from "../machining";
 import { allowedOrientations, bestOrientation, clearance, fitCells, orientedSize, suggestSplit, verticalFit } from "../orient";
 import type { Pricing } from "../pricing";
-import type { Ledger } from "../placement";
+import type { Ledger } from "../ledger";
 import type { Plant } from "../schedule";
 import type {
   Axis, BuildMode, CellFit, CellParams, EstimateAlternative, EstimateStatus, EstimateWarning, MaterialParams, Orientation,

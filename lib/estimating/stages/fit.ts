@@ -1,5 +1,5 @@
 import { canMelt } from "../extruder";
-import { Ledger, ROUTER_KEY } from "../placement";
+import { Ledger, ROUTER_KEY } from "../ledger";
 import type { AnalyseInput } from "../analyse-input";
 import type { MaterialParams, Orientation } from "../types";
 import { bad } from "./read";

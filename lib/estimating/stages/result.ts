@@ -1,6 +1,6 @@
 import { extruderOutputFor } from "../extruder";
 import { leadTimeOptions } from "../lead-times";
-import type { Ledger } from "../placement";
+import type { Ledger } from "../ledger";
 import { downsampleLayers } from "../plan";
 import type { ReadModelResult } from "../read-model";
 import { r2, r4 } from "../round";

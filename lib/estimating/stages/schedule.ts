@@ -1,5 +1,6 @@
 import { REMOVAL_FALLBACK_H } from "../card-fallbacks";
-import { placeJob, type JobPlacement, type JobSpec, type Ledger, type PrintSpec } from "../placement";
+import { placeJob, type JobPlacement, type JobSpec, type PrintSpec } from "../placement";
+import type { Ledger } from "../ledger";
 import type { ContinuousSchedule, Plant } from "../schedule";
 import type { CellParams, RateCardParams } from "../types";
 import type { BuildPlan } from "./plan";

@@ -5,7 +5,7 @@ import { writeAudit } from "@/db/queries/audit";
 import { createMaintenanceBlock, deleteMaintenanceBlock, getMaintenanceBlock, listBookedBlocks, listMaintenanceBlocks } from "@/db/queries/capacity";
 import { listCurrentCells } from "@/db/queries/catalogue";
 import { formatDateTime } from "@/lib/dates";
-import { ROUTER_KEY } from "@/lib/estimating/placement";
+import { ROUTER_KEY } from "@/lib/estimating/ledger";
 import { AppError } from "@/lib/errors";
 import { defineAction } from "@/lib/server/define-action";
 import { instantOf, maintenanceBlockSchema, removeBlockSchema } from "@/lib/validation/admin-production";

@@ -6,7 +6,7 @@ import { listBookedBlocks, listMaintenanceBlocks, listUnscheduledEstimates } fro
 import { getCurrentRateCard, listCurrentCells } from "@/db/queries/catalogue";
 import { pagePermission } from "@/lib/auth/page-guard";
 import { formatDate, formatDateTime, zoneLabel } from "@/lib/dates";
-import { ROUTER_KEY } from "@/lib/estimating/placement";
+import { ROUTER_KEY } from "@/lib/estimating/ledger";
 import { unscheduledOf } from "@/lib/estimating/queue";
 import { plantOf } from "@/lib/estimating/stages/schedule";
 import { capacityWeeks, plantMonday } from "@/lib/scheduling/capacity";

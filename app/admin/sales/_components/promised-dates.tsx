@@ -6,7 +6,7 @@ import { loadCapacityQueue } from "@/lib/analysis/capacity-queue";
 import { loadCatalogue } from "@/db/queries/catalogue";
 import { listBrokenPromises, listOpenQuotesWithEstimates } from "@/db/queries/ship-dates";
 import { formatDate } from "@/lib/dates";
-import { Ledger } from "@/lib/estimating/placement";
+import { Ledger } from "@/lib/estimating/ledger";
 import { plantOf } from "@/lib/estimating/stages/schedule";
 import { LEAD_TIME_LABEL } from "@/lib/quoting/lead-times";
 import { shipDateNow, specFromEstimates } from "@/lib/scheduling/promises";
