@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { linesAsBilled } from "./pdf";
+import { linesAsBilled } from "./pdf-blocks";
 
 describe("the lines as billed", () => {
   it("carry the margin inside their amounts, add up to the total before tax, and drop lines that do not apply", () => {

@@ -1,7 +1,8 @@
 import { renderToBuffer } from "@react-pdf/renderer";
 import { createHash } from "node:crypto";
 import { createElement } from "react";
-import { IssuedDocumentPdf, registerFonts } from "./pdf";
+import { IssuedDocumentPdf } from "./pdf";
+import { registerFonts } from "./pdf-theme";
 import type { DocumentData } from "./types";
 
 /** Render a document's snapshot to PDF bytes, with the SHA-256 stored beside them. */
