@@ -2,21 +2,18 @@
 
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
-import { useCallback, useEffect, useRef, useState } from "react";
+import { useCallback, useState } from "react";
 import { FormProvider, useFieldArray, useForm, useWatch } from "react-hook-form";
-import { attachPartFile, saveDraft, submitRequest } from "@/app/(portal)/portal/requests/actions";
+import { attachPartFile, submitRequest } from "@/app/(portal)/portal/requests/actions";
 import { Button } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/card";
 import { FormMessage } from "@/components/ui/input";
-import { exportHint } from "@/lib/analysis/export-hints";
-import { formatCents } from "@/lib/money";
 import { fToC } from "@/lib/units";
 import { draftSchema, type DraftInput } from "@/lib/validation/request";
-import { useAnalyses, useAnalysis } from "./analysis-status";
-import { LeadTimeChoice } from "./lead-time-choice";
 import { PartCard } from "./part-card";
-import { PartReview } from "./part-review";
 import { ProjectStep } from "./project-step";
+import { ReviewList } from "./review-list";
+import { useDraftAutosave } from "./use-draft-autosave";
 import { emptyFileState, type CatalogueForForm, type PartFileState } from "./types";
 import { formatTime, zoneLabel } from "@/lib/dates";
 
@@ -29,8 +26,6 @@ function defaultMaterial(catalogue: CatalogueForForm, project: DraftInput["proje
   const ok = c === null ? undefined : catalogue.materials.find((m) => m.maxServiceTempC >= c);
   return (ok ?? catalogue.materials[0])?.key ?? "";
 }
-
-type SaveState = { kind: "idle" } | { kind: "saving" } | { kind: "saved"; at: Date } | { kind: "error"; message: string };
 
 export interface RequestFormProps {
   initial: DraftInput;
@@ -47,57 +42,14 @@ export function RequestForm({ initial, initialFiles, reference: initialRef, cata
   const parts = useFieldArray({ control, name: "parts", keyName: "_key" });
   const [step, setStep] = useState(0);
   const [files, setFiles] = useState<Record<string, PartFileState>>(initialFiles);
-  const [reference, setReference] = useState(initialRef);
-  const [save, setSave] = useState<SaveState>({ kind: "idle" });
   const [formError, setFormError] = useState<string | null>(null);
   const [partErrors, setPartErrors] = useState<Record<number, string>>({});
   const [submitting, setSubmitting] = useState(false);
   /** Why Submit is off on the review step (a part with no file, a failed or running analysis), or null. */
   const [notReady, setNotReady] = useState<string | null>(null);
-  const inflight = useRef<Promise<string | null>>(Promise.resolve(initial.requestId ?? null));
 
   const setFile = useCallback((partId: string, patch: Partial<PartFileState>) => setFiles((f) => ({ ...f, [partId]: { ...(f[partId] ?? emptyFileState), ...patch } })), []);
-
-  /** Save the draft now (after any save in flight); resolves to the request id. */
-  const flush = useCallback(async (): Promise<string | null> => {
-    const run = inflight.current.then(async () => {
-      const values = getValues();
-      const parsed = draftSchema.safeParse(values);
-      if (!parsed.success) {
-        setSave({ kind: "error", message: "Not saved yet: some fields need attention." });
-        return values.requestId ?? null;
-      }
-      setSave({ kind: "saving" });
-      const res = await saveDraft(values);
-      if (!res.ok) {
-        setSave({ kind: "error", message: res.message });
-        return values.requestId ?? null;
-      }
-      if (!values.requestId) {
-        setValue("requestId", res.data.requestId);
-        setReference(res.data.reference);
-        // Keep the address of the saved draft so a reload finds it.
-        window.history.replaceState(null, "", `/portal/requests/${res.data.requestId}`);
-      }
-      for (const [partId, analysisId] of Object.entries(res.data.analyses)) setFile(partId, { analysisId });
-      setSave({ kind: "saved", at: new Date() });
-      return res.data.requestId;
-    });
-    inflight.current = run.catch(() => null);
-    return run;
-  }, [getValues, setValue, setFile]);
-
-  // Autosave a moment after the last change.
-  const watched = useWatch({ control });
-  const first = useRef(true);
-  useEffect(() => {
-    if (first.current) {
-      first.current = false;
-      return;
-    }
-    const t = setTimeout(() => void flush(), 1200);
-    return () => clearTimeout(t);
-  }, [watched, flush]);
+  const { reference, save, flush, settled } = useDraftAutosave(form, initialRef, setFile);
 
   function addPart() {
     const id = crypto.randomUUID();
@@ -173,7 +125,7 @@ export function RequestForm({ initial, initialFiles, reference: initialRef, cata
     setPartErrors({});
     setSubmitting(true);
     try {
-      await inflight.current;
+      await settled();
       const res = await submitRequest({ ...values, requestId: values.requestId ?? "" }); // a draft never saved has no id: refused as invalid
       if (!res.ok) {
         setFormError(res.message);
@@ -278,65 +230,5 @@ export function RequestForm({ initial, initialFiles, reference: initialRef, cata
         </div>
       </form>
     </FormProvider>
-  );
-}
-
-function ReviewList({ catalogue, files, cureTempC, onReadiness }: { catalogue: CatalogueForForm; files: Record<string, PartFileState>; cureTempC: number | null; onReadiness: (why: string | null) => void }) {
-  const parts = useWatch<DraftInput, "parts">({ name: "parts" });
-  const analyses = useAnalyses(parts.map((p) => files[p.id]?.analysisId ?? null));
-  const states = parts.map((p, i) => {
-    const f = files[p.id];
-    const a = analyses[i]?.data;
-    if (!f?.revisionId) return `“${p.name}” has no usable file yet.`;
-    if (a?.status === "failed") return `“${p.name}”'s file could not be analysed; upload a corrected file.`;
-    if (a?.status !== "done" || !a.result) return `“${p.name}” is still being analysed.`;
-    return null;
-  });
-  const why = parts.length === 0 ? "Add at least one part before submitting." : (states.find((s) => s !== null) ?? null);
-  useEffect(() => onReadiness(why), [why, onReadiness]);
-  if (parts.length === 0) return <EmptyState title="Add at least one part before submitting" />;
-  const results = analyses.map((q) => (q.data?.status === "done" ? q.data.result : null));
-  const isComplete = results.every((r) => r !== null);
-  // A part sent to the bureau's engineer has no price yet: the request has no total until it does.
-  const isWithheld = results.some((r) => r?.status === "needs-review" && (r as { priceWithheld?: boolean }).priceWithheld !== false);
-  const totalCents = results.reduce((sum, r) => sum + (r?.totalCents ?? 0), 0);
-  return (
-    <>
-      {parts.map((p) => (
-        <ReviewItem key={p.id} part={p} file={files[p.id] ?? emptyFileState} catalogue={catalogue} cureTempC={cureTempC} isPreviewOnDemand={parts.length > 1} />
-      ))}
-      {parts.length > 1 ? (
-        <div className="flex flex-wrap items-baseline justify-between gap-2 rounded bg-ink-800 px-4 py-3 text-white" data-testid="request-total">
-          <span className="text-sm">Automatic estimate for the whole request ({parts.length} parts)</span>
-          <span className="figures text-lg font-semibold">{isWithheld ? "after the engineer's review" : isComplete ? formatCents(totalCents) : "waiting for every part"}</span>
-        </div>
-      ) : null}
-      {isComplete && !isWithheld ? <LeadTimeChoice results={results.filter((r): r is NonNullable<typeof r> => r !== null)} /> : null}
-    </>
-  );
-}
-
-function ReviewItem({ part, file, catalogue, cureTempC, isPreviewOnDemand }: { part: DraftInput["parts"][number]; file: PartFileState; catalogue: CatalogueForForm; cureTempC: number | null; isPreviewOnDemand: boolean }) {
-  const a = useAnalysis(file.analysisId);
-  if (!file.revisionId) {
-    return file.error ? (
-      <EmptyState title={`${part.name}: the file was refused`}>{file.error} Go back to Parts and upload a corrected file.</EmptyState>
-    ) : (
-      <EmptyState title={`${part.name}: no file yet`}>Go back to Parts and upload its model.</EmptyState>
-    );
-  }
-  if (a.data?.status === "failed") return <EmptyState title={`${part.name}: the file could not be analysed`}>{a.data.error?.message} {exportHint(a.data.error?.code)}</EmptyState>;
-  if (!a.data?.result) return <EmptyState title={`${part.name}: analysing…`}>The estimate appears here when the analysis finishes.</EmptyState>;
-  return (
-    <PartReview
-      title={`${part.name} · ${file.fileName ?? ""}`}
-      revisionId={file.revisionId}
-      result={a.data.result}
-      fileUnits={part.units}
-      displayUnits={catalogue.unitsPref}
-      cells={catalogue.cells}
-      cureTempC={cureTempC}
-      isPreviewOnDemand={isPreviewOnDemand}
-    />
   );
 }
