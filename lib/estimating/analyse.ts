@@ -1,5 +1,5 @@
 import { steinerVolume } from "./grow";
-import { toIndexed,} from "./indexed";
+import { toIndexed } from "./indexed";
 import { chooseStage } from "./stages/choose";
 import { measureStage } from "./stages/measure";
 import { readStage, resolveOptions } from "./stages/read";
@@ -9,7 +9,7 @@ import { estimateResult } from "./stages/result";
 import { fitStage } from "./stages/fit";
 import { noticesFor } from "./stages/notices";
 import { materialWarnings } from "./warnings";
-import type { EstimateResult, EstimateWarning,} from "./types";
+import type { EstimateResult, EstimateWarning } from "./types";
 
 import type { AnalyseInput, ProgressFn } from "./analyse-input";
 
