@@ -6,7 +6,7 @@
  * during uploads (a small tmpfs mounted over it: as root, chmod alone does not stop writes).
  */
 import { createClient, type Client } from "@libsql/client";
-import { existsSync, readdirSync,} from "node:fs";
+import { existsSync, readdirSync } from "node:fs";
 import path from "node:path";
 import { growOrders } from "./grow-orders";
 import type { HardStack } from "./hard-stack";

@@ -4,14 +4,14 @@ import { writeAudit } from "@/db/queries/audit";
 import { markQuotesStale } from "@/db/queries/client-quotes";
 import { addFileRevision, getUploadOwned } from "@/db/queries/files";
 import { getPart, latestAnalyses, listParts, updatePart } from "@/db/queries/parts";
-import { getRequest,} from "@/db/queries/requests";
+import { getRequest } from "@/db/queries/requests";
 import { transitionStage } from "@/lib/orders/transition";
-import { analysisOptionsFor,} from "@/lib/analysis/options";
+import { analysisOptionsFor } from "@/lib/analysis/options";
 import { MAX_MODEL_BYTES, startAnalysis } from "@/lib/analysis/run";
 import { currentRequestId } from "@/lib/observability/request-id";
 import { exportHint } from "@/lib/analysis/export-hints";
 import { checkModelUpload, SNIFF_HEAD_BYTES } from "@/lib/analysis/sniff";
-import { assertCanSee,} from "@/lib/auth/guard";
+import { assertCanSee } from "@/lib/auth/guard";
 import { hasPermission } from "@/lib/auth/policy";
 import { notifyRequestReceived } from "@/lib/email/notify";
 import { AppError } from "@/lib/errors";
@@ -19,8 +19,8 @@ import { rootLogger } from "@/lib/observability/log";
 import { defineAction } from "@/lib/server/define-action";
 import { readUploadedFileHead } from "@/lib/uploads/uploadthing";
 import { z } from "zod";
-import { editableDraft, persistDraft,} from "@/lib/requests/draft";
-import { draftSchema, submitSchema,} from "@/lib/validation/request";
+import { editableDraft, persistDraft } from "@/lib/requests/draft";
+import { draftSchema, submitSchema } from "@/lib/validation/request";
 
 /**
  * Save the whole draft (project fields and parts, by their ids). Creates the request on the first
