@@ -5,7 +5,7 @@ import { useState, useTransition } from "react";
 import { saveCell, saveMaterial, saveRateCard } from "@/app/admin/catalogue/actions";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input, Textarea } from "@/components/ui/input";
-import { CELL_FIELDS, MATERIAL_FIELDS, RATE_CARD_FIELDS, fromShown, shownUnit, toShown, type NumberField } from "@/lib/validation/admin-catalogue";
+import { CELL_FIELDS, MATERIAL_FIELDS, RATE_CARD_FIELDS, fromShown, shownUnit, toShown, type NumberField } from "@/lib/validation/catalogue-fields";
 
 const ACTIONS = { material: saveMaterial, cell: saveCell, rateCard: saveRateCard } as const;
 const NUMBERS: Record<keyof typeof ACTIONS, NumberField[]> = { material: MATERIAL_FIELDS, cell: CELL_FIELDS, rateCard: RATE_CARD_FIELDS };
