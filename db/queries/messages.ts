@@ -1,6 +1,7 @@
 import "server-only";
 import { and, asc, eq, inArray, isNull, or } from "drizzle-orm";
 import type { Db } from "../client";
+import type { Tx } from "./audit";
 import { documents, memberships, messages, requests, users } from "../schema";
 
 export async function listMessages(db: Db, requestId: string) {
@@ -52,4 +53,10 @@ export async function listThreadClientEmails(db: Db, requestId: string): Promise
     .innerJoin(memberships, and(eq(memberships.userId, users.id), eq(memberships.orgId, req.orgId)))
     .where(and(isNull(users.disabledAt), or(eq(users.id, req.createdById), inArray(users.id, posters))));
   return [...new Set(rows.map((r) => r.email.toLowerCase()))].sort();
+}
+
+/** A message from the bureau on a request's thread. */
+export async function createStaffMessage(tx: Tx, input: { requestId: string; orgId: string; authorId: string; body: string }) {
+  const [m] = await tx.insert(messages).values({ ...input, isFromStaff: true }).returning({ id: messages.id });
+  return m!;
 }

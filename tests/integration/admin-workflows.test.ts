@@ -74,7 +74,7 @@ const count = async (table: typeof auditLog | typeof refunds | typeof scheduleBl
 describe("quotes", () => {
   it("issues a version from the estimate, supersedes nothing the first time, moves the request to quoted and e-mails", async () => {
     const { saveQuote } = await import("@/app/admin/sales/actions");
-    const { getRequestForSales } = await import("@/db/queries/quotes");
+    const { getRequestForSales } = await import("@/db/queries/sales-requests");
     const { linesFromEstimates } = await import("@/lib/quoting/lines");
     as("sales");
     const requestId = await requestIn("submitted");
@@ -99,7 +99,7 @@ describe("quotes", () => {
 
   it("refuses to issue on a stale analysis and writes nothing", async () => {
     const { saveQuote } = await import("@/app/admin/sales/actions");
-    const { getRequestForSales } = await import("@/db/queries/quotes");
+    const { getRequestForSales } = await import("@/db/queries/sales-requests");
     as("sales");
     const [r] = await db.select({ id: requests.id }).from(requests).where(eq(requests.stage, "quoted"));
     const s = (await getRequestForSales(db, r!.id))!;

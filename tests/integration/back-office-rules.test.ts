@@ -80,7 +80,7 @@ describe("quote editor", () => {
   it("leaves estimate lines priced at nothing out of the prefill, so the prefilled quote issues as it is", async () => {
     const { linesFromEstimates } = await import("@/lib/quoting/lines");
     const { saveQuote } = await import("@/app/admin/sales/actions");
-    const { getRequestForSales } = await import("@/db/queries/quotes");
+    const { getRequestForSales } = await import("@/db/queries/sales-requests");
     as("sales");
     const [r] = await db.select({ id: requests.id }).from(requests).where(eq(requests.stage, "submitted"));
     const s = (await getRequestForSales(db, r!.id))!;

@@ -3,7 +3,9 @@
 import { revalidatePath } from "next/cache";
 import { writeAudit } from "@/db/queries/audit";
 import { getCurrentRateCard } from "@/db/queries/catalogue";
-import { createDraftQuote, createStaffMessage, getQuote, getRequestForSales, hasOrder, markIssued, updateDraftQuote } from "@/db/queries/quotes";
+import { createDraftQuote, getQuote, hasOrder, markIssued, updateDraftQuote } from "@/db/queries/quotes";
+import { createStaffMessage } from "@/db/queries/messages";
+import { getRequestForSales } from "@/db/queries/sales-requests";
 import { transitionStage } from "@/lib/orders/transition";
 import { label } from "@/lib/orders/stages";
 import { retryAnalysis } from "@/lib/analysis/run";

@@ -1,4 +1,4 @@
-import { listInbox } from "@/db/queries/quotes";
+import { listInbox } from "@/db/queries/sales-requests";
 import { inboxOrder } from "@/lib/quoting/stats";
 import { inboxAnswer } from "@/lib/contracts/admin";
 import { defineRoute } from "@/lib/server/define-route";

@@ -1,7 +1,7 @@
 import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
 import { Card } from "@/components/ui/card";
-import type { SalesRequest } from "@/db/queries/quotes";
+import type { SalesRequest } from "@/db/queries/sales-requests";
 import { formatCents } from "@/lib/money";
 import { hoursText } from "@/components/admin/format";
 import { RetryAnalysisButton } from "./retry-analysis-button";
