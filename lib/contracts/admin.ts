@@ -103,3 +103,32 @@ export const staffAnswer = z.object({
 export type StaffRow = z.infer<typeof staffRow>;
 export type StaffAnswer = z.infer<typeof staffAnswer>;
 
+
+/** GET /api/admin/reconciliation: the ledger against the processor for a period, each finding with its notes. */
+const findingKind = z.enum(["matched", "missing_ours", "missing_theirs", "amount_mismatch"]);
+export const reconciliationFinding = z.object({
+  kind: findingKind,
+  subject: z.enum(["payment", "refund"]),
+  paymentId: z.string().nullable(),
+  orderId: z.string().nullable(),
+  refundId: z.string().nullable(),
+  processorId: z.string().nullable(),
+  oursCents: z.number().int().nullable(),
+  theirsCents: z.number().int().nullable(),
+  differences: z.array(z.object({ field: z.enum(["amount", "fee", "refunded"]), oursCents: z.number().int().nullable(), theirsCents: z.number().int().nullable() })),
+  note: z.string(),
+  reference: z.string().optional(),
+  firmName: z.string().optional(),
+  paymentKind: z.string().optional(),
+  findingKey: z.string(),
+  isResolved: z.boolean(),
+  notes: z.array(z.object({ note: z.string(), isResolved: z.boolean(), at: wireDate, author: z.string().nullable() })),
+});
+export const reconciliationAnswer = z.object({
+  period: z.object({ from: z.string(), to: z.string() }),
+  summary: z.record(findingKind, z.number().int()),
+  findings: z.array(reconciliationFinding),
+});
+export type FindingKind = z.infer<typeof findingKind>;
+export type ReconciliationFinding = z.infer<typeof reconciliationFinding>;
+export type ReconciliationAnswer = z.infer<typeof reconciliationAnswer>;

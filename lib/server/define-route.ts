@@ -62,6 +62,15 @@ function checkContract(schema: z.ZodType, out: unknown): void {
   if (!r.success) throw new Error(`the answer does not match its contract: ${r.error.issues.slice(0, 3).map((i) => `${i.path.join(".")}: ${i.message}`).join("; ")}`);
 }
 
+/**
+ * For a route that builds its JSON itself (a cached answer): the answer typed by its contract and,
+ * outside production, checked against it like `response:` does.
+ */
+export function checkedAnswer<S extends z.ZodType>(schema: S, out: AsSent<z.output<S>>): AsSent<z.output<S>> {
+  if (CHECK_CONTRACTS) checkContract(schema, out);
+  return out;
+}
+
 async function readBody(req: Request): Promise<unknown> {
   return req.json().catch(() => {
     throw new AppError("invalid_input", "Send a JSON body.");

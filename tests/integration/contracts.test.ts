@@ -1,8 +1,9 @@
 import { eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { ne } from "drizzle-orm";
-import { analyses, fileRevisions, memberships, parts, requests } from "../../db/schema";
+import { analyses, fileRevisions, memberships, parts, requests, users } from "../../db/schema";
 import { analysisPoll, requestStatus } from "../../lib/contracts/portal";
+import { actualsAnswer, boardAnswer, calendarAnswer } from "../../lib/contracts/production";
 import { createTestDb, type TestDb } from "../helpers/test-db";
 import { dbRef, session } from "../support/integration";
 
@@ -54,5 +55,32 @@ describe("the portal's polled answers keep their contracts (lib/contracts/portal
     session.current = { user: { id: stranger!.id } };
     const other = await GET(new Request(`http://x/api/portal/requests/${a.requestId}`), { params: Promise.resolve({ id: a.requestId }) });
     expect(other.status).toBe(404);
+  });
+});
+
+describe("production's answers keep their contracts (lib/contracts/production.ts)", () => {
+  async function asProduction() {
+    const [p] = await t.db.select({ id: users.id }).from(users).where(eq(users.role, "production")).limit(1);
+    session.current = { user: { id: p!.id } };
+  }
+
+  it("the board: every column with its count and cards, each card's stage one the screens name", async () => {
+    await asProduction();
+    const { GET } = await import("@/app/api/admin/board/route");
+    const res = await GET(new Request("http://x/api/admin/board"));
+    expect(res.status).toBe(200);
+    const body = boardAnswer.parse(await res.json());
+    expect(body.columns.length).toBeGreaterThan(3);
+    expect(body.columns.reduce((n, c) => n + c.cards.length, 0)).toBeGreaterThan(0);
+  });
+
+  it("a cell's calendar and the actuals report", async () => {
+    await asProduction();
+    const cal = await (await import("@/app/api/admin/calendar/route")).GET(new Request("http://x/api/admin/calendar?cell=long-bed&from=2026-11-01&days=60"));
+    expect(cal.status).toBe(200);
+    expect(calendarAnswer.parse(await cal.json()).cell.key).toBe("long-bed");
+    const act = await (await import("@/app/api/admin/reports/actuals/route")).GET(new Request("http://x/api/admin/reports/actuals"));
+    expect(act.status).toBe(200);
+    expect(actualsAnswer.parse(await act.json()).perOrder.length).toBeGreaterThan(0);
   });
 });

@@ -8,13 +8,7 @@ import { cn } from "@/components/ui/cn";
 import { addPlantDays, formatDay, fromPlantInput, plantToday } from "@/lib/dates";
 import { dateTimeText, stageText } from "@/components/admin/format";
 import { useApi } from "@/components/admin/use-api";
-
-interface CalendarAnswer {
-  cell: { key: string; name: string; calendar: { workingWeekdays: number[] } };
-  from: string;
-  to: string;
-  blocks: { id: string; orderId: string; kind: string; startsAt: string; endsAt: string; reference: string; stage: string }[];
-}
+import type { CalendarAnswer } from "@/lib/contracts/production";
 
 const KIND_CLASS: Record<string, string> = {
   print: "bg-kiln-500 text-white",

@@ -7,32 +7,13 @@ import { Button } from "@/components/ui/button";
 import { EmptyState, Skeleton } from "@/components/ui/card";
 import { BOARD_COLUMNS, BOARD_PAGE } from "@/lib/orders/board";
 import { StageBadge } from "@/components/stage-badge";
-import type { Stage } from "@/db/schema/common";
 import { dateText } from "@/components/admin/format";
 import { useApi } from "@/components/admin/use-api";
-
-interface BoardCard {
-  orderId: string;
-  reference: string;
-  projectName: string;
-  firmName: string;
-  stage: Stage;
-  heldFromStage: Stage | null;
-  isControlled: boolean;
-  plannedShip: string | null;
-}
-
-interface BoardColumn {
-  key: string;
-  title: string;
-  total: number;
-  offset: number;
-  cards: BoardCard[];
-}
+import type { BoardAnswer, BoardCard, BoardColumn } from "@/lib/contracts/production";
 
 /** Orders by stage, in columns, nearest work first; a column shows 20 cards and loads more on asking. */
 export function ProductionBoard() {
-  const { data, error, isLoading } = useApi<{ columns: BoardColumn[] }>("/api/admin/board");
+  const { data, error, isLoading } = useApi<BoardAnswer>("/api/admin/board");
   if (error) return <p role="alert" className="text-sm text-signal-danger">{error}</p>;
   if (isLoading && !data)
     return (

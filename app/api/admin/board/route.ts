@@ -4,7 +4,8 @@ import type { Db } from "@/db/client";
 import { boardVersion, countOrdersByStage, listBoardColumn } from "@/db/queries/orders";
 import { BOARD_COLUMNS, BOARD_PAGE, BOARD_PAGE_MAX, boardColumn } from "@/lib/orders/board";
 import { VersionedCache } from "@/lib/orders/board-cache";
-import { defineRoute } from "@/lib/server/define-route";
+import { boardAnswer } from "@/lib/contracts/production";
+import { checkedAnswer, defineRoute } from "@/lib/server/define-route";
 
 export const dynamic = "force-dynamic";
 
@@ -20,7 +21,7 @@ const querySchema = z
  * GET /api/admin/board → every column with its count and first `limit` cards (default 20).
  * GET /api/admin/board?column=shipped&offset=20&limit=20 → the next cards of one column.
  * The permission is checked on every request; only the built answer is reused, while the
- * database says nothing on the board has changed.
+ * database says nothing on the board has changed. The answer's contract: lib/contracts/production.ts.
  */
 export const GET = defineRoute({ access: "production:board", query: querySchema }, async ({ query: q, db }) => {
   // Read first: a change landing while the answer is built raises it, and the next request rebuilds.
@@ -43,7 +44,7 @@ async function buildBoard(db: Db, q: z.infer<typeof querySchema>): Promise<strin
     countOrdersByStage(db, columns.flatMap((c) => c.stages)),
     Promise.all(columns.map((c) => listBoardColumn(db, c.stages, { limit: q.limit, offset: q.offset }))),
   ]);
-  return JSON.stringify({
+  return JSON.stringify(checkedAnswer(boardAnswer, {
     columns: columns.map((c, i) => ({
       key: c.key,
       title: c.title,
@@ -51,5 +52,5 @@ async function buildBoard(db: Db, q: z.infer<typeof querySchema>): Promise<strin
       offset: q.offset,
       cards: cards[i]!,
     })),
-  });
+  }));
 }

@@ -5,6 +5,7 @@ import { listProcessorRecords } from "@/lib/payments/stripe";
 import { findingKey } from "@/lib/reconciliation/finding-key";
 import { fromProcessor } from "@/lib/reconciliation/from-processor";
 import { reconcile, summarise } from "@/lib/reconciliation/match";
+import { reconciliationAnswer } from "@/lib/contracts/admin";
 import { defineRoute } from "@/lib/server/define-route";
 import { periodBounds, periodSchema } from "@/lib/validation/admin-accounts";
 
@@ -14,7 +15,7 @@ export const dynamic = "force-dynamic";
  * Our ledger for a period against the processor's charges, payment intents, balance
  * transactions and refunds for the same period: matched, missing either side, amount mismatches.
  */
-export const GET = defineRoute({ access: "accounts:ledger", query: periodSchema }, async ({ query: period, db }) => {
+export const GET = defineRoute({ access: "accounts:ledger", query: periodSchema, response: reconciliationAnswer }, async ({ query: period, db }) => {
   const range = periodBounds(period);
   const ledger = await ledgerForPeriod(db, range.from, range.to);
   const refunds = await listRefundsForPayments(db, ledger.payments.map((p) => p.id));
@@ -40,7 +41,7 @@ export const GET = defineRoute({ access: "accounts:ledger", query: periodSchema 
       return {
         ...f,
         ...(f.paymentId ? (refs.get(f.paymentId) ?? {}) : {}),
-        findingKey: keys[i],
+        findingKey: keys[i]!,
         // The last note decides: a note without "resolved" after a resolution reopens it.
         isResolved: f.kind !== "matched" && Boolean(mine.at(-1)?.isResolved),
         notes: mine.map((n) => ({ note: n.note, isResolved: n.isResolved, at: n.createdAt.toISOString(), author: n.author })),

@@ -10,27 +10,8 @@ import { Field, Input, Textarea } from "@/components/ui/input";
 import { formatDateTime } from "@/lib/dates";
 import { formatCents } from "@/lib/money";
 import { useApi } from "@/components/admin/use-api";
+import type { ReconciliationAnswer as Answer, ReconciliationFinding as Finding } from "@/lib/contracts/admin";
 
-interface Finding {
-  kind: "matched" | "missing_ours" | "missing_theirs" | "amount_mismatch";
-  subject: "payment" | "refund";
-  paymentId: string | null;
-  refundId: string | null;
-  processorId: string | null;
-  oursCents: number | null;
-  theirsCents: number | null;
-  note: string;
-  reference?: string;
-  firmName?: string;
-  kindOfPayment?: string;
-  findingKey: string;
-  isResolved: boolean;
-  notes: { note: string; isResolved: boolean; at: string; author: string | null }[];
-}
-interface Answer {
-  summary: Record<Finding["kind"], number>;
-  findings: Finding[];
-}
 
 const KIND: Record<Finding["kind"], { label: string; tone: BadgeTone }> = {
   amount_mismatch: { label: "amount mismatch", tone: "danger" },

@@ -3,12 +3,8 @@
 import { EmptyState, Skeleton } from "@/components/ui/card";
 import { pctText } from "@/components/admin/format";
 import { useApi } from "@/components/admin/use-api";
+import type { ActualsAnswer as Answer } from "@/lib/contracts/production";
 
-type Stats = { count: number; meanPct: number | null; spreadPct: number | null };
-interface Answer {
-  perOrder: { orderId: string; reference: string; projectName: string; material: string; actualPrintHours: number | null; actualMaterialKg: number | null; actualMachiningHours: number | null; estimate: { printHours: number; massKg: number; machiningHours: number } }[];
-  perMaterial: { material: string; print: Stats; kg: Stats; machining: Stats }[];
-}
 
 const err = (est: number, act: number | null) => (act === null || est <= 0 ? null : ((act - est) / est) * 100);
 const f1 = (v: number | null) => (v === null ? "—" : v.toFixed(1));
