@@ -3,6 +3,7 @@
 import { useActionState } from "react";
 import { acceptInvitationAction } from "@/app/(auth)/invite/actions";
 import { keepFieldsOnSubmit } from "@/components/auth/use-kept-form";
+import { NewPasswordFields } from "@/components/auth/new-password-fields";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input } from "@/components/ui/input";
 
@@ -21,12 +22,7 @@ export function AcceptInvitationForm({ token, email }: { token: string; email: s
       <Field label="Your name" htmlFor="name" error={errors?.name?.[0]} hint="Shown to clients beside your messages.">
         <Input id="name" name="name" autoComplete="name" aria-invalid={Boolean(errors?.name)} />
       </Field>
-      <Field label="Password" htmlFor="password" error={errors?.password?.[0]} hint="At least 10 characters, with a digit.">
-        <Input id="password" name="password" type="password" autoComplete="new-password" aria-invalid={Boolean(errors?.password)} />
-      </Field>
-      <Field label="Password again" htmlFor="confirm" error={errors?.confirm?.[0]}>
-        <Input id="confirm" name="confirm" type="password" autoComplete="new-password" aria-invalid={Boolean(errors?.confirm)} />
-      </Field>
+      <NewPasswordFields label="Password" errors={errors} />
       <FormMessage>{state && !state.ok && !errors ? state.message : undefined}</FormMessage>
       <Button type="submit" className="w-full" disabled={pending}>
         {pending ? "Saving…" : "Accept and set password"}
