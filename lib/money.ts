@@ -1,12 +1,11 @@
-/** Money is integer cents everywhere; this is the one rounding rule (half away from zero). */
-export function roundCents(value: number): number {
-  if (!Number.isFinite(value)) throw new RangeError(`Not a finite amount: ${value}`);
-  return Math.sign(value) * Math.round(Math.abs(value));
-}
+import { applyBp } from "./estimating/money";
+
+/** Money is integer cents everywhere, with one rounding rule, the estimator's (half away from zero, no −0). */
+export { roundCents } from "./estimating/money";
 
 /** A share in basis points of an amount in cents (5000 bp = half). */
 export function shareOfCents(amountCents: number, bp: number): number {
-  return roundCents((amountCents * bp) / 10_000);
+  return applyBp(amountCents, bp);
 }
 
 /** Format for display only. */
