@@ -237,10 +237,13 @@ export class EstimatePool {
   }
 }
 
-let shared: EstimatePool | null = null;
-
-/** One pool per process; size from $ESTIMATE_WORKERS (default 1). */
+/**
+ * One pool per process; size from $ESTIMATE_WORKERS (default 1). Kept on globalThis: the built app
+ * bundles this module into several chunks (the estimate route, analysis runs, health, the
+ * background pass), and a module-level variable would give each chunk a pool of its own.
+ */
+const holder = globalThis as unknown as { layerwrightEstimatePool?: EstimatePool };
 export function getEstimatePool(): EstimatePool {
-  shared ??= new EstimatePool({ size: Number(process.env.ESTIMATE_WORKERS ?? 1) || 1 });
-  return shared;
+  holder.layerwrightEstimatePool ??= new EstimatePool({ size: Number(process.env.ESTIMATE_WORKERS ?? 1) || 1 });
+  return holder.layerwrightEstimatePool;
 }
