@@ -190,7 +190,7 @@ export function scaleIndexed(m: IndexedMesh, s: number): IndexedMesh {
  * One block of memory for the work arrays of the stages that follow each other on a mesh
  * (weld, topology, then slicing along each axis): each stage takes its arrays from the block
  * and is done with them before the next stage starts, so the same pages serve them all instead
- * of fresh memory for each. Sized up front for the largest stage (about 5 words a triangle);
+ * of fresh memory for each. Sized up front for the largest stage (topology, about 4 words a triangle);
  * pages never written are never mapped. Held while the mesh lives (a WeakMap).
  */
 export class WorkArena {
@@ -214,9 +214,9 @@ export class WorkArena {
 
 const arenas = new WeakMap<IndexedMesh, WorkArena>();
 
-/** The mesh's work arena (topology: 3 words a triangle + 2 a vertex; slicing: 5 a triangle). */
+/** The mesh's work arena (topology: 3 words a triangle + 2 a vertex; weld: fewer; slicing: 1 a triangle). */
 export function workArena(m: IndexedMesh): WorkArena {
   let a = arenas.get(m);
-  if (!a) { a = new WorkArena(Math.max(5 * m.triangleCount, 3 * m.triangleCount + 2 * m.vertexCount) + 1024); arenas.set(m, a); }
+  if (!a) { a = new WorkArena(3 * m.triangleCount + 2 * m.vertexCount + 1024); arenas.set(m, a); }
   return a;
 }

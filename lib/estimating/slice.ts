@@ -29,6 +29,8 @@ export interface Sections {
  * triangles is needed.
  */
 const AXIS_OFFSETS = { z: [0, 1, 2], y: [2, 0, 1], x: [1, 2, 0] } as const;
+/** Words of an active-list entry. */
+const ENTRY = 6;
 
 export function slice(mesh: Mesh | IndexedMesh, z0: number, h: number, count: number, up: "x" | "y" | "z" = "z"): Sections {
   const m = toIndexed(mesh);
@@ -37,57 +39,80 @@ export function slice(mesh: Mesh | IndexedMesh, z0: number, h: number, count: nu
   const area = new Float64Array(count);
   const perimeter = new Float64Array(count);
   const segments = new Uint32Array(count);
-  // work arrays from the mesh's arena, so a second and third axis reuse the first's memory
-  // (the active list holds places in `order`, whose last planes `lastAt` keeps in the same
-  // order, so the sweep reads them from a few nearby runs rather than all over `last`)
-  const [first, last, order, lastAt, active] = workArena(m).int32(n, n, n, n, n) as [Int32Array, Int32Array, Int32Array, Int32Array, Int32Array];
+  // the sweep order of the triangles, from the mesh's arena (a word a triangle), so a second and
+  // third axis reuse the first's memory
+  const [order] = workArena(m).int32(n) as [Int32Array];
   const bucket = new Uint32Array(count + 1);
   // x–y origin for the shoelace sums (precision): the first corner
   let ox = 0, oy = 0;
   if (n > 0) { ox = p[ix[0]! * 3 + ia]!; oy = p[ix[0]! * 3 + ib]!; }
+  // Two passes over the triangles: count each first plane, then place each triangle in its
+  // plane's run (in file order within a run). A corner on a plane counts as above it (d >= 0
+  // below), so the triangle is cut by the planes with lo < z_k <= hi; one plane of slack each
+  // side absorbs rounding of the index, the exact side test below decides.
   for (let t = 0, i = 0; t < n; t++, i += 3) {
     const za = p[ix[i]! * 3 + ic]!, zb = p[ix[i + 1]! * 3 + ic]!, zc = p[ix[i + 2]! * 3 + ic]!;
     const lo = za < zb ? (za < zc ? za : zc) : (zb < zc ? zb : zc);
     const hi = za > zb ? (za > zc ? za : zc) : (zb > zc ? zb : zc);
-    // A corner on a plane counts as above it (d >= 0 below), so the triangle is cut by the
-    // planes with lo < z_k <= hi; one plane of slack each side absorbs rounding of the index,
-    // the exact side test below decides.
     let k0 = Math.floor((lo - z0) / h - 0.5);
     let k1 = Math.floor((hi - z0) / h - 0.5) + 1;
     if (k0 < 0) k0 = 0;
     if (k1 > count - 1) k1 = count - 1;
-    if (k1 < k0) { first[t] = -1; continue; }
-    first[t] = k0; last[t] = k1;
-    bucket[k0 + 1]!++;
+    if (k1 >= k0) bucket[k0 + 1]!++;
   }
   for (let k = 0; k < count; k++) bucket[k + 1] = bucket[k + 1]! + bucket[k]!;
   const fill = bucket.slice(0, count);
-  for (let t = 0; t < n; t++) { const k = first[t]!; if (k >= 0) { const at = fill[k]!++; order[at] = t; lastAt[at] = last[t]!; } }
-  // `first` and `last` are done with: their memory now holds each entry's lowest and highest
-  // height (float32, as the file gives them), in sweep order, so a plane the triangle does not
-  // reach is passed over without reading its corners (cut ⇔ lo < z_k ≤ hi, the side test's own rule)
-  const placed = bucket[count]!;
-  const loAt = new Float32Array(first.buffer, first.byteOffset, n), hiAt = new Float32Array(last.buffer, last.byteOffset, n);
-  for (let at = 0; at < placed; at++) {
-    const i = order[at]! * 3;
+  for (let t = 0, i = 0; t < n; t++, i += 3) {
     const za = p[ix[i]! * 3 + ic]!, zb = p[ix[i + 1]! * 3 + ic]!, zc = p[ix[i + 2]! * 3 + ic]!;
-    loAt[at] = za < zb ? (za < zc ? za : zc) : (zb < zc ? zb : zc);
-    hiAt[at] = za > zb ? (za > zc ? za : zc) : (zb > zc ? zb : zc);
+    const lo = za < zb ? (za < zc ? za : zc) : (zb < zc ? zb : zc);
+    const hi = za > zb ? (za > zc ? za : zc) : (zb > zc ? zb : zc);
+    let k0 = Math.floor((lo - z0) / h - 0.5);
+    let k1 = Math.floor((hi - z0) / h - 0.5) + 1;
+    if (k0 < 0) k0 = 0;
+    if (k1 > count - 1) k1 = count - 1;
+    if (k1 < k0) continue;
+    order[fill[k0]!++] = t;
   }
 
+  // The active list: the triangles that reach the plane, ENTRY words each (its last plane, its
+  // lowest and highest height, float32 as the file gives them, and its three vertices), filled
+  // when the sweep reaches its first plane, so the sweep reads it in one run rather than all over
+  // the mesh, and passes over a plane the triangle does not reach without reading its corners
+  // (cut ⇔ lo < z_k ≤ hi, the side test's own rule); grown as needed. Leaving, an entry is
+  // replaced by the list's last.
+  let active = new Int32Array(1024 * ENTRY);
+  let activeF = new Float32Array(active.buffer);
   let na = 0;
   for (let k = 0; k < count; k++) {
-    for (let i = bucket[k]!, e = bucket[k + 1]!; i < e; i++) active[na++] = i;
+    const b0 = bucket[k]!, e = bucket[k + 1]!;
+    if ((na + e - b0) * ENTRY > active.length) {
+      const a = new Int32Array(2 * (na + e - b0) * ENTRY);
+      a.set(active.subarray(0, na * ENTRY));
+      active = a; activeF = new Float32Array(a.buffer);
+    }
+    for (let at = b0; at < e; at++) {
+      const o = na++ * ENTRY, t3 = order[at]! * 3;
+      const b1 = ix[t3]! * 3, b2 = ix[t3 + 1]! * 3, b3 = ix[t3 + 2]! * 3;
+      const za = p[b1 + ic]!, zb = p[b2 + ic]!, zc = p[b3 + ic]!;
+      const lo = za < zb ? (za < zc ? za : zc) : (zb < zc ? zb : zc);
+      const hi = za > zb ? (za > zc ? za : zc) : (zb > zc ? zb : zc);
+      // its last plane, as the passes above found it (the same heights, so the same index)
+      active[o] = Math.floor((hi - z0) / h - 0.5) + 1;
+      activeF[o + 1] = lo; activeF[o + 2] = hi;
+      active[o + 3] = b1; active[o + 4] = b2; active[o + 5] = b3;
+    }
     const zp = z0 + (k + 0.5) * h;
     let a2 = 0, per = 0, cuts = 0;
     for (let i = 0; i < na; ) {
-      const at = active[i]!;
-      if (lastAt[at]! < k) { active[i] = active[--na]!; continue; }
+      const o = i * ENTRY;
+      if (active[o]! < k) {
+        const l = --na * ENTRY;
+        for (let w = 0; w < ENTRY; w++) active[o + w] = active[l + w]!;
+        continue;
+      }
       i++;
-      const zl = loAt[at]!, zh = hiAt[at]!;
-      if (!(zl < zp && zh >= zp)) continue;
-      const t = order[at]!;
-      const b1 = ix[t * 3]! * 3, b2 = ix[t * 3 + 1]! * 3, b3 = ix[t * 3 + 2]! * 3;
+      if (!(activeF[o + 1]! < zp && activeF[o + 2]! >= zp)) continue;
+      const b1 = active[o + 3]!, b2 = active[o + 4]!, b3 = active[o + 5]!;
       const x1 = p[b1 + ia]! - ox, y1 = p[b1 + ib]! - oy, d1 = p[b1 + ic]! - zp;
       const x2 = p[b2 + ia]! - ox, y2 = p[b2 + ib]! - oy, d2 = p[b2 + ic]! - zp;
       const x3 = p[b3 + ia]! - ox, y3 = p[b3 + ib]! - oy, d3 = p[b3 + ic]! - zp;
