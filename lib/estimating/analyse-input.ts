@@ -1,6 +1,7 @@
 import type { IndexedMesh } from "./indexed";
 import type { BookedSpan } from "./ledger";
 import type { ReadModelResult } from "./read-model";
+import type { SliceAhead } from "./slice-ahead";
 import type { Axis, CellParams, LengthUnit, MaterialParams, Mesh, Orientation, PrintMode, RateCardParams } from "./types";
 
 /** What an estimate is asked for: the file (or the model already read), the client's options, the catalogue, the calendar, now. */
@@ -52,6 +53,11 @@ export interface AnalyseInput {
   queue?: Record<string, number>;
   /** Booked jobs and maintenance blocks on each cell (by key) and the router (`router`). */
   booked?: Record<string, BookedSpan[]>;
+  /**
+   * A slicing helper thread (./slice-ahead: the command line passes one): the fine sections are
+   * cut on it while this thread measures. The figures are the same with or without it.
+   */
+  sliceAhead?: SliceAhead;
 }
 
 export type ProgressFn = (fraction: number, stage: string) => void;

@@ -5,6 +5,7 @@ import { analyse } from "./analyse";
 import { defaultCells, defaultMaterials, defaultRateCard } from "./defaults";
 import { EstimateInputError, isEstimateInputError } from "./errors";
 import { readModelFile } from "./read-model-file";
+import { sliceThread } from "./slice-ahead";
 import type { CapacityQueue } from "./ledger";
 import { forCells, parseQueueArgs, queueFromRows, unscheduledOf, type BookedRow, type UnscheduledRow } from "./queue";
 import type { CellParams, EstimateResult, MaterialParams, RateCardParams } from "./types";
@@ -147,11 +148,14 @@ async function main(): Promise<number> {
   const { values: v, positionals } = parsed;
   if (v.help) { process.stdout.write(`${USAGE}\n`); return 0; }
   const file = positionals[0];
+  let slicer: ReturnType<typeof slicingHelper>;
   try {
     if (!file || positionals.length > 1) throw new EstimateInputError("cli:usage", USAGE);
     if (v.solid && v["shell-walls"] !== undefined) throw new EstimateInputError("option:print-mode", "--solid and --shell-walls do not go together.");
     if (v.units !== undefined && v.units !== "mm" && v.units !== "in") throw new EstimateInputError("option:units", "--units must be mm or in.");
     if (v.orientation !== undefined && !["x", "y", "z"].includes(v.orientation)) throw new EstimateInputError("option:orientation", "--orientation must be x, y or z (the file axis that points up).");
+    // the slicing helper thread starts now, so it is ready by the time the file is read
+    slicer = slicingHelper();
     const cat = await loadCatalogue();
     let queue: Record<string, number> | undefined;
     try {
@@ -171,7 +175,7 @@ async function main(): Promise<number> {
         toleranceMm: num(v.tolerance, "tolerance"),
         bodies: bodiesOf(v.bodies), finishBedFace: v["finish-bed-face"], trimLines: v["trim-lines"],
       },
-      catalogue: cat, now: new Date(),
+      catalogue: cat, now: new Date(), sliceAhead: slicer,
       // --queue replaces the calendar's queue for a what-if run
       ...(queue ? { queue } : { queue: cat.queue.hours, booked: cat.queue.booked }),
     });
@@ -181,7 +185,21 @@ async function main(): Promise<number> {
     if (isEstimateInputError(e)) { process.stderr.write(`${e.message.split("\n")[0]}\n`); return 2; }
     process.stderr.write(`The estimator failed: ${(e as Error)?.message ?? String(e)}\n`);
     return 1;
+  } finally {
+    slicer?.close();
   }
+}
+
+/**
+ * The slicing helper (./slice-ahead) on the bundle beside this one (.worker/slice-worker.mjs,
+ * built with it by lib/scripts/engine-bundles.mjs); none when the command line runs from its
+ * sources, which slices in line (the same figures). ESTIMATE_SLICE_THREAD=0: never; =1: even on
+ * a busy machine; unset: when a core was to spare while the file was read.
+ */
+function slicingHelper(): ReturnType<typeof sliceThread> | undefined {
+  const mode = process.env.ESTIMATE_SLICE_THREAD;
+  const file = new URL("./slice-worker.mjs", import.meta.url);
+  return mode !== "0" && existsSync(file) ? sliceThread(file, { always: mode === "1" }) : undefined;
 }
 
 void main().then((code) => { process.exitCode = code; });

@@ -39,6 +39,52 @@ const hash3 = (x: number, y: number, z: number): number => {
 };
 
 /**
+ * The indexer's hot loop, a function of its own (a one-off run of a long loop is optimized while
+ * it runs; code after it in the same function would be compiled before it ever ran): adds
+ * corners from `at` to `indices` from place k, finding or making each one's vertex; found[0]
+ * holds the vertex count. Stops after a new vertex fills the table to half (the caller grows it
+ * and goes on); returns the corners added.
+ */
+function addCorners(
+  f: Float32Array, bits: Int32Array, at: number, count: number, indices: Uint32Array, k: number,
+  vertices: Float32Array, vbits: Int32Array, recent: Int32Array, table: Int32Array, found: Int32Array,
+): number {
+  const mask = table.length - 1;
+  let nv = found[0]!, c = 0;
+  for (let b = at; c < count; b += 3) {
+    const x = bits[b]!, y = bits[b + 1]!, z = bits[b + 2]!;
+    const hx = hash3(x, y, z);
+    c++;
+    // the recent vertices first (a file's neighbouring triangles share corners)
+    const slot = hx & RECENT_MASK, r = recent[slot]!;
+    if (r !== 0) {
+      const o = (r - 1) * 3;
+      if (vbits[o] === x && vbits[o + 1] === y && vbits[o + 2] === z) { indices[k++] = r - 1; continue; }
+    }
+    let h = hx & mask;
+    let v = -1;
+    for (;;) {
+      const e = table[h]!;
+      if (e === 0) break;
+      const o = (e - 1) * 3;
+      if (vbits[o] === x && vbits[o + 1] === y && vbits[o + 2] === z) { v = e - 1; break; }
+      h = (h + 1) & mask;
+    }
+    recent[slot] = (v < 0 ? nv : v) + 1;
+    if (v >= 0) { indices[k++] = v; continue; }
+    v = nv++;
+    const o = v * 3;
+    vertices[o] = f[b]!; vertices[o + 1] = f[b + 1]!; vertices[o + 2] = f[b + 2]!;
+    table[h] = nv;
+    indices[k++] = v;
+    // stored as it grows, not after the loop: the optimized loop leaves with nothing left to learn
+    found[0] = nv;
+    if (nv * 2 > table.length) break;
+  }
+  return c;
+}
+
+/**
  * Builds an indexed mesh from corners given in order, a chunk at a time (the streaming STL
  * reader feeds it 20,000 facets at once; `indexSoup` the whole soup). An open-addressing table
  * keyed on the coordinates' bits finds a corner's vertex; the table is sized to the vertices
@@ -51,58 +97,41 @@ export class VertexIndexer {
   private readonly vertices: Float32Array;
   private readonly vbits: Int32Array;
   private table: Int32Array;
-  private mask: number;
+  /** found[0]: the vertices found so far (the hot loop's count, kept across calls). */
+  private readonly found = new Int32Array(1);
   /** A small direct-mapped table of vertices met lately (it stays in the processor's cache), tried before `table`. */
   private readonly recent = new Int32Array(RECENT_MASK + 1);
   private corners = 0;
   vertexCount = 0;
 
-  constructor(readonly triangleCount: number) {
-    this.indices = new Uint32Array(triangleCount * 3);
-    this.vertices = new Float32Array(triangleCount * 9);
+  /**
+   * `shared`: the indices and vertices in shared memory (SharedArrayBuffer), so another thread
+   * can read the finished mesh without a copy (./slice-ahead).
+   */
+  constructor(readonly triangleCount: number, opts: { shared?: boolean } = {}) {
+    const Memory = opts.shared ? SharedArrayBuffer : ArrayBuffer;
+    this.indices = new Uint32Array(new Memory(triangleCount * 12));
+    this.vertices = new Float32Array(new Memory(triangleCount * 36));
     this.vbits = new Int32Array(this.vertices.buffer);
     this.table = new Int32Array(pow2AtLeast(triangleCount));
-    this.mask = this.table.length - 1;
   }
 
   /** Adds `count` corners: 3 float32 each in `f` from index `at` (`bits` views the same memory as Int32). */
   add(f: Float32Array, bits: Int32Array, at: number, count: number): void {
-    const indices = this.indices, vertices = this.vertices, vbits = this.vbits, recent = this.recent;
-    let table = this.table, mask = this.mask, nv = this.vertexCount, k = this.corners;
-    if (k + count > indices.length) throw new RangeError("more corners than the mesh's triangles");
-    for (let c = 0, b = at; c < count; c++, b += 3) {
-      const x = bits[b]!, y = bits[b + 1]!, z = bits[b + 2]!;
-      const hx = hash3(x, y, z);
-      // the recent vertices first (a file's neighbouring triangles share corners)
-      const slot = hx & RECENT_MASK, r = recent[slot]!;
-      if (r !== 0) {
-        const o = (r - 1) * 3;
-        if (vbits[o] === x && vbits[o + 1] === y && vbits[o + 2] === z) { indices[k++] = r - 1; continue; }
-      }
-      let h = hx & mask;
-      let v = -1;
-      for (;;) {
-        const e = table[h]!;
-        if (e === 0) break;
-        const o = (e - 1) * 3;
-        if (vbits[o] === x && vbits[o + 1] === y && vbits[o + 2] === z) { v = e - 1; break; }
-        h = (h + 1) & mask;
-      }
-      if (v < 0) {
-        v = nv++;
-        const o = v * 3;
-        vertices[o] = f[b]!; vertices[o + 1] = f[b + 1]!; vertices[o + 2] = f[b + 2]!;
-        table[h] = nv;
-        if (nv * 2 > table.length) { table = this.grow(nv); mask = table.length - 1; }
-      }
-      recent[slot] = v + 1;
-      indices[k++] = v;
+    if (this.corners + count > this.indices.length) throw new RangeError("more corners than the mesh's triangles");
+    const found = this.found;
+    found[0] = this.vertexCount;
+    for (let done = 0; done < count;) {
+      const c = addCorners(f, bits, at + done * 3, count - done, this.indices, this.corners, this.vertices, this.vbits, this.recent, this.table, found);
+      this.corners += c;
+      done += c;
+      // the table doubles at half full
+      if (found[0]! * 2 > this.table.length) this.grow(found[0]!);
     }
-    this.vertexCount = nv;
-    this.corners = k;
+    this.vertexCount = found[0]!;
   }
 
-  private grow(nv: number): Int32Array {
+  private grow(nv: number): void {
     const table = new Int32Array(this.table.length * 2);
     const mask = table.length - 1, vbits = this.vbits;
     for (let v = 0; v < nv; v++) {
@@ -112,8 +141,6 @@ export class VertexIndexer {
       table[h] = v + 1;
     }
     this.table = table;
-    this.mask = mask;
-    return table;
   }
 
   /** The mesh, once every triangle's corners were added; the lookup table is let go. */

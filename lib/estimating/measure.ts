@@ -124,10 +124,24 @@ export interface Topology {
  */
 export function topology(m: IndexedMesh, w: Welded): Topology {
   const { corner, vertexCount: nv } = w;
-  const p = m.vertices, ix = m.indices, n = m.triangleCount;
+  const n = m.triangleCount;
   // start[v] counts v's triangles, then (prefix sums) the end of its run in `star`; filling
-  // each run backwards leaves start[v] at its beginning, so no second offsets array is needed
+  // each run backwards leaves start[v] at its beginning, so no second offsets array is needed.
+  // Each long loop is a function of its own: a one-off run of a long loop is optimized while it
+  // runs, and code after it in the same function would be compiled before it ever ran.
   const [start, star, parent] = workArena(m).int32(nv + 1, 3 * n, nv) as [Int32Array, Int32Array, Int32Array];
+  const degenerate = countStars(corner, n, start);
+  runEnds(start, nv);
+  fillStars(corner, n, start, star);
+  // union-find over vertices for shells
+  for (let v = 0; v < nv; v++) parent[v] = v;
+  const edges = edgeUse(m.vertices, m.indices, corner, n, start, star, parent);
+  const shells = countShells(start, parent, nv);
+  return { openEdges: edges.openEdges, nonManifoldEdges: edges.nonManifoldEdges, inconsistentEdges: edges.inconsistentEdges, degenerateTriangles: degenerate, shells, meanCurvatureIntegral: edges.meanCurvatureIntegral };
+}
+
+/** Each vertex's count of (non-degenerate) triangles in start[v]; the count of degenerate ones returned. */
+function countStars(corner: Uint32Array, n: number, start: Int32Array): number {
   start.fill(0);
   let degenerate = 0;
   for (let t = 0; t < n; t++) {
@@ -135,28 +149,47 @@ export function topology(m: IndexedMesh, w: Welded): Topology {
     if (a === b || b === c || c === a) { degenerate++; continue; }
     start[a]!++; start[b]!++; start[c]!++;
   }
+  return degenerate;
+}
+
+/** Counts to prefix sums: start[v] the end of v's run, start[nv] the total. */
+function runEnds(start: Int32Array, nv: number): void {
   for (let v = 1; v < nv; v++) start[v] = start[v]! + start[v - 1]!;
   start[nv] = nv > 0 ? start[nv - 1]! : 0;
+}
+
+/** The sets of the union-find that hold a vertex in use. */
+function countShells(start: Int32Array, parent: Int32Array, nv: number): number {
+  let shells = 0;
+  for (let v = 0; v < nv; v++) if (start[v + 1]! > start[v]! && root(parent, v) === v) shells++;
+  return shells;
+}
+
+/** Each vertex's triangles into its run of `star`, in ascending order (start[v] ends at the run's beginning). */
+function fillStars(corner: Uint32Array, n: number, start: Int32Array, star: Int32Array): void {
   for (let t = n - 1; t >= 0; t--) {
     const a = corner[t * 3]!, b = corner[t * 3 + 1]!, c = corner[t * 3 + 2]!;
     if (a === b || b === c || c === a) continue;
     star[--start[a]!] = t; star[--start[b]!] = t; star[--start[c]!] = t;
   }
-  // union-find over vertices for shells
-  for (let v = 0; v < nv; v++) parent[v] = v;
-  const find = (v: number): number => {
-    while (parent[v] !== v) { const g = parent[parent[v]!]!; parent[v] = g; v = g; }
-    return v;
-  };
+}
 
+/** The root of v's set (union-find, halving the path as it goes). */
+function root(parent: Int32Array, v: number): number {
+  while (parent[v] !== v) { const g = parent[parent[v]!]!; parent[v] = g; v = g; }
+  return v;
+}
+
+/** Every edge once (by its lowest triangle): open, non-manifold, inconsistent, and the mean curvature; shells joined in `parent`. */
+function edgeUse(p: Float32Array, ix: Uint32Array, corner: Uint32Array, n: number, start: Int32Array, star: Int32Array, parent: Int32Array): Omit<Topology, "degenerateTriangles" | "shells"> {
   let open = 0, nonManifold = 0, inconsistent = 0, m2 = 0;
   for (let t = 0; t < n; t++) {
     const t3 = t * 3;
     const c0 = corner[t3]!, c1 = corner[t3 + 1]!, c2 = corner[t3 + 2]!;
     if (c0 === c1 || c1 === c2 || c2 === c0) continue;
-    const r0 = find(c0), r1 = find(c1), r2 = find(c2);
+    const r0 = root(parent, c0), r1 = root(parent, c1), r2 = root(parent, c2);
     if (r0 !== r1) parent[r1] = r0;
-    const r0b = find(r0);
+    const r0b = root(parent, r0);
     if (r0b !== r2) parent[r2] = r0b;
     for (let e = 0; e < 3; e++) {
       const u = corner[t3 + e]!, v = corner[t3 + (e === 2 ? 0 : e + 1)]!;
@@ -202,9 +235,7 @@ export function topology(m: IndexedMesh, w: Welded): Topology {
       m2 += len * theta;
     }
   }
-  let shells = 0;
-  for (let v = 0; v < nv; v++) if (start[v + 1]! > start[v]! && find(v) === v) shells++;
-  return { openEdges: open, nonManifoldEdges: nonManifold, inconsistentEdges: inconsistent, degenerateTriangles: degenerate, shells, meanCurvatureIntegral: m2 / 2 };
+  return { openEdges: open, nonManifoldEdges: nonManifold, inconsistentEdges: inconsistent, meanCurvatureIntegral: m2 / 2 };
 }
 
 export interface Measures extends Topology {
@@ -221,9 +252,10 @@ export interface Measures extends Topology {
  * All measures of a mesh in millimetres. The welding tolerance defaults to 1e-6 of the box
  * diagonal: above float32 rounding of coordinates (≈1.2e-7 relative), below any real feature.
  */
-export function measure(mesh: Mesh | IndexedMesh, opts: { weldToleranceMm?: number } = {}): Measures {
+export function measure(mesh: Mesh | IndexedMesh, opts: { weldToleranceMm?: number; bounds?: Bounds } = {}): Measures {
   const m = toIndexed(mesh), n = m.triangleCount;
-  const bb = bounds(m.vertices);
+  // the box, when the caller took it already (`bounds` of the same vertices)
+  const bb = opts.bounds ?? bounds(m.vertices);
   const diag = Math.hypot(bb.max[0] - bb.min[0], bb.max[1] - bb.min[1], bb.max[2] - bb.min[2]);
   const centre: [number, number, number] = [(bb.min[0] + bb.max[0]) / 2, (bb.min[1] + bb.max[1]) / 2, (bb.min[2] + bb.max[2]) / 2];
   const { volume, area } = volumeAndArea(m, centre);

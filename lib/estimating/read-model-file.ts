@@ -13,8 +13,9 @@ const LITTLE_ENDIAN = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
  * Reads a model file from disk into millimetres. A binary STL (the file is exactly 84 + 50·n
  * bytes long) streams in 1 MB chunks, each decoded and added to an indexed mesh (./indexed:
  * its distinct corners and three indices a triangle), so neither the file's bytes nor the
- * triangle soup is ever held whole: memory is about 18 bytes a triangle instead of 36. Other
- * files are read whole and passed to `readModel` (a soup).
+ * triangle soup is ever held whole: memory is about 18 bytes a triangle instead of 36. The mesh
+ * lives in shared memory, so a helper thread can slice it while this one measures
+ * (./slice-ahead). Other files are read whole and passed to `readModel` (a soup).
  */
 export async function readModelFile(
   path: string,
@@ -42,7 +43,7 @@ export async function readModelFile(
 
 function streamBinaryStl(fd: number, head: Uint8Array, size: number): IndexedMesh {
   const n = binaryStlCount(head, size);
-  const indexer = new VertexIndexer(n);
+  const indexer = new VertexIndexer(n, { shared: true });
   // the chunk and, for facets at an odd place (50 bytes is not a multiple of 4), the chunk again two bytes on
   const chunk = new Uint8Array(CHUNK_FACETS * STL_FACET_BYTES + 4);
   const shifted = new Uint8Array(chunk.length);

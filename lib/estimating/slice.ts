@@ -32,72 +32,113 @@ const AXIS_OFFSETS = { z: [0, 1, 2], y: [2, 0, 1], x: [1, 2, 0] } as const;
 /** Words of an active-list entry. */
 const ENTRY = 6;
 
-export function slice(mesh: Mesh | IndexedMesh, z0: number, h: number, count: number, up: "x" | "y" | "z" = "z"): Sections {
+/** Where a slicing writes its sections (arrays of `count`), and whom it tells of each plane done. */
+export interface SliceInto {
+  area: Float64Array;
+  perimeter: Float64Array;
+  segments: Uint32Array;
+  /** Called after each plane k with k + 1 planes done. */
+  progress?: (done: number) => void;
+}
+
+export function slice(mesh: Mesh | IndexedMesh, z0: number, h: number, count: number, up: "x" | "y" | "z" = "z", into?: SliceInto): Sections {
   const m = toIndexed(mesh);
   const p = m.vertices, ix = m.indices, n = m.triangleCount;
   const [ia, ib, ic] = AXIS_OFFSETS[up];
-  const area = new Float64Array(count);
-  const perimeter = new Float64Array(count);
-  const segments = new Uint32Array(count);
+  const area = into?.area ?? new Float64Array(count);
+  const perimeter = into?.perimeter ?? new Float64Array(count);
+  const segments = into?.segments ?? new Uint32Array(count);
   // the sweep order of the triangles, from the mesh's arena (a word a triangle), so a second and
   // third axis reuse the first's memory
   const [order] = workArena(m).int32(n) as [Int32Array];
-  const bucket = new Uint32Array(count + 1);
-  // x–y origin for the shoelace sums (precision): the first corner
-  let ox = 0, oy = 0;
-  if (n > 0) { ox = p[ix[0]! * 3 + ia]!; oy = p[ix[0]! * 3 + ib]!; }
   // Two passes over the triangles: count each first plane, then place each triangle in its
-  // plane's run (in file order within a run). A corner on a plane counts as above it (d >= 0
-  // below), so the triangle is cut by the planes with lo < z_k <= hi; one plane of slack each
-  // side absorbs rounding of the index, the exact side test below decides.
+  // plane's run (in file order within a run). Each pass is a function of its own, as is the
+  // sweep: a one-off run of a long loop is optimized while it runs, and code after it in the same
+  // function would be compiled before it ever ran, then thrown away when it does.
+  const bucket = new Uint32Array(count + 1);
+  const live = new Int32Array(count + 1);
+  countFirstPlanes(p, ix, n, ic, z0, h, count, bucket, live);
+  // bucket[k]: where plane k's run starts; `most`: the largest active list the sweep will hold
+  let most = 0;
+  for (let k = 0, alive = 0; k < count; k++) {
+    bucket[k + 1] = bucket[k + 1]! + bucket[k]!;
+    alive += live[k]!;
+    if (alive > most) most = alive;
+  }
+  placeInSweepOrder(p, ix, n, ic, z0, h, count, bucket.slice(0, count), order);
+  // x–y origin for the shoelace sums (precision): the first corner
+  const ox = n > 0 ? p[ix[0]! * 3 + ia]! : 0, oy = n > 0 ? p[ix[0]! * 3 + ib]! : 0;
+  sweep(p, ix, order, bucket, count, most, ia, ib, ic, ox, oy, z0, h, area, perimeter, segments, into?.progress);
+  return { z0, layerHeight: h, count, area, perimeter, segments };
+}
+
+/**
+ * The planes a triangle's corners span: a corner on a plane counts as above it (d >= 0 in the
+ * sweep), so the triangle is cut by the planes with lo < z_k <= hi; one plane of slack each side
+ * absorbs rounding of the index, the sweep's exact side test decides. The same arithmetic in
+ * both passes and the sweep, so the same indices come out of the same heights.
+ */
+const firstPlane = (lo: number, z0: number, h: number) => Math.floor((lo - z0) / h - 0.5);
+const lastPlane = (hi: number, z0: number, h: number) => Math.floor((hi - z0) / h - 0.5) + 1;
+
+/**
+ * Pass 1: how many triangles first reach each plane (bucket[k + 1]), and in `live` the change in
+ * the active list's length at each plane (an entry is held from its first plane to the one after
+ * its last, where it is dropped).
+ */
+function countFirstPlanes(p: Float32Array, ix: Uint32Array, n: number, ic: number, z0: number, h: number, count: number, bucket: Uint32Array, live: Int32Array): void {
   for (let t = 0, i = 0; t < n; t++, i += 3) {
     const za = p[ix[i]! * 3 + ic]!, zb = p[ix[i + 1]! * 3 + ic]!, zc = p[ix[i + 2]! * 3 + ic]!;
     const lo = za < zb ? (za < zc ? za : zc) : (zb < zc ? zb : zc);
     const hi = za > zb ? (za > zc ? za : zc) : (zb > zc ? zb : zc);
-    let k0 = Math.floor((lo - z0) / h - 0.5);
-    let k1 = Math.floor((hi - z0) / h - 0.5) + 1;
+    let k0 = firstPlane(lo, z0, h), k1 = lastPlane(hi, z0, h);
     if (k0 < 0) k0 = 0;
     if (k1 > count - 1) k1 = count - 1;
-    if (k1 >= k0) bucket[k0 + 1]!++;
+    if (k1 < k0) continue;
+    bucket[k0 + 1]!++;
+    live[k0]!++;
+    live[k1 + 2 < count ? k1 + 2 : count]!--;
   }
-  for (let k = 0; k < count; k++) bucket[k + 1] = bucket[k + 1]! + bucket[k]!;
-  const fill = bucket.slice(0, count);
+}
+
+/** Pass 2: each triangle placed in its first plane's run (`fill[k]`: the run's next place). */
+function placeInSweepOrder(p: Float32Array, ix: Uint32Array, n: number, ic: number, z0: number, h: number, count: number, fill: Uint32Array, order: Int32Array): void {
   for (let t = 0, i = 0; t < n; t++, i += 3) {
     const za = p[ix[i]! * 3 + ic]!, zb = p[ix[i + 1]! * 3 + ic]!, zc = p[ix[i + 2]! * 3 + ic]!;
     const lo = za < zb ? (za < zc ? za : zc) : (zb < zc ? zb : zc);
     const hi = za > zb ? (za > zc ? za : zc) : (zb > zc ? zb : zc);
-    let k0 = Math.floor((lo - z0) / h - 0.5);
-    let k1 = Math.floor((hi - z0) / h - 0.5) + 1;
+    let k0 = firstPlane(lo, z0, h), k1 = lastPlane(hi, z0, h);
     if (k0 < 0) k0 = 0;
     if (k1 > count - 1) k1 = count - 1;
     if (k1 < k0) continue;
     order[fill[k0]!++] = t;
   }
+}
 
-  // The active list: the triangles that reach the plane, ENTRY words each (its last plane, its
-  // lowest and highest height, float32 as the file gives them, and its three vertices), filled
-  // when the sweep reaches its first plane, so the sweep reads it in one run rather than all over
-  // the mesh, and passes over a plane the triangle does not reach without reading its corners
-  // (cut ⇔ lo < z_k ≤ hi, the side test's own rule); grown as needed. Leaving, an entry is
-  // replaced by the list's last.
-  let active = new Int32Array(1024 * ENTRY);
-  let activeF = new Float32Array(active.buffer);
+/**
+ * The sweep, plane by plane. The active list holds the triangles that reach the plane, ENTRY
+ * words each (its last plane, its lowest and highest height, float32 as the file gives them, and
+ * its three vertices), filled when the sweep reaches its first plane, so the sweep reads it in
+ * one run rather than all over the mesh, and passes over a plane the triangle does not reach
+ * without reading its corners (cut ⇔ lo < z_k ≤ hi, the side test's own rule). Leaving, an entry
+ * is replaced by the list's last. Sized for the longest the list gets (`most` entries).
+ */
+function sweep(
+  p: Float32Array, ix: Uint32Array, order: Int32Array, bucket: Uint32Array, count: number, most: number,
+  ia: number, ib: number, ic: number, ox: number, oy: number, z0: number, h: number,
+  area: Float64Array, perimeter: Float64Array, segments: Uint32Array, progress: ((done: number) => void) | undefined,
+): void {
+  const active = new Int32Array(Math.max(1, most) * ENTRY);
+  const activeF = new Float32Array(active.buffer);
   let na = 0;
   for (let k = 0; k < count; k++) {
-    const b0 = bucket[k]!, e = bucket[k + 1]!;
-    if ((na + e - b0) * ENTRY > active.length) {
-      const a = new Int32Array(2 * (na + e - b0) * ENTRY);
-      a.set(active.subarray(0, na * ENTRY));
-      active = a; activeF = new Float32Array(a.buffer);
-    }
-    for (let at = b0; at < e; at++) {
+    for (let at = bucket[k]!, e = bucket[k + 1]!; at < e; at++) {
       const o = na++ * ENTRY, t3 = order[at]! * 3;
       const b1 = ix[t3]! * 3, b2 = ix[t3 + 1]! * 3, b3 = ix[t3 + 2]! * 3;
       const za = p[b1 + ic]!, zb = p[b2 + ic]!, zc = p[b3 + ic]!;
       const lo = za < zb ? (za < zc ? za : zc) : (zb < zc ? zb : zc);
       const hi = za > zb ? (za > zc ? za : zc) : (zb > zc ? zb : zc);
-      // its last plane, as the passes above found it (the same heights, so the same index)
-      active[o] = Math.floor((hi - z0) / h - 0.5) + 1;
+      active[o] = lastPlane(hi, z0, h);
       activeF[o + 1] = lo; activeF[o + 2] = hi;
       active[o + 3] = b1; active[o + 4] = b2; active[o + 5] = b3;
     }
@@ -138,6 +179,6 @@ export function slice(mesh: Mesh | IndexedMesh, z0: number, h: number, count: nu
     area[k] = a2 / 2;
     perimeter[k] = per;
     segments[k] = cuts;
+    if (progress) progress(k + 1);
   }
-  return { z0, layerHeight: h, count, area, perimeter, segments };
 }

@@ -1,5 +1,6 @@
+export type BundleName = "worker" | "cli" | "slicer";
 export const root: string;
-export const bundles: Record<"worker" | "cli", { entry: string; outfile: string }>;
-export function isStale(name: "worker" | "cli"): boolean;
-export function buildBundle(name: "worker" | "cli"): Promise<string>;
-export function ensureBundle(name: "worker" | "cli"): Promise<string>;
+export const bundles: Record<BundleName, { entry: string; outfile: string; with?: BundleName[] }>;
+export function isStale(name: BundleName): boolean;
+export function buildBundle(name: BundleName): Promise<string>;
+export function ensureBundle(name: BundleName): Promise<string>;

@@ -13,7 +13,9 @@ const out = path.join(root, ".worker");
 
 export const bundles = {
   worker: { entry: "lib/estimating/worker-entry.ts", outfile: path.join(out, "estimate-worker.mjs") },
-  cli: { entry: "lib/estimating/cli.ts", outfile: path.join(out, "estimate-cli.mjs") },
+  cli: { entry: "lib/estimating/cli.ts", outfile: path.join(out, "estimate-cli.mjs"), with: ["slicer"] },
+  // the command line's slicing helper thread, loaded from beside its bundle
+  slicer: { entry: "lib/estimating/slice-worker.ts", outfile: path.join(out, "slice-worker.mjs") },
 };
 
 const inputsOf = (outfile) => outfile.replace(/\.mjs$/, ".inputs.json");
@@ -66,8 +68,9 @@ export async function buildBundle(name) {
   return outfile;
 }
 
-/** The bundle's path, bundling first when it is missing or stale. */
+/** The bundle's path, bundling first when it (or a bundle it loads) is missing or stale. */
 export async function ensureBundle(name) {
+  for (const other of bundles[name].with ?? []) await ensureBundle(other);
   if (isStale(name)) await buildBundle(name);
   return bundles[name].outfile;
 }

@@ -10,7 +10,8 @@ import type {
   Axis, BuildMode, CellFit, CellParams, EstimateAlternative, EstimateStatus, EstimateWarning, MaterialParams, Orientation,
   PrintMode, RateCardParams, RemedyTried, ReviewReason, SplitSuggestion,
 } from "../types";
-import type { Measured } from "./measure";
+import type { Sections } from "../slice";
+import type { Measured, Vec3 } from "./measure";
 import { planStage, wallsForAllowance, type BuildPlan, type ShellRules } from "./plan";
 import { priceStage } from "./price";
 import { scheduleStage, type PlacedSchedule } from "./schedule";
@@ -40,6 +41,8 @@ export interface SearchInput {
   wallsOverride: number | null;
   cellKey?: string;
   orientation?: Orientation;
+  /** Fine sections cut already, by up axis (on the slicing helper, ../slice-ahead); the rest are cut when needed. */
+  fineSlices?: Map<Axis, Sections>;
   /** The booked work on the cells and the router (with `now`), which each candidate is placed around. */
   ledger: Ledger;
   now: Date;
@@ -144,26 +147,27 @@ export function sideBySide(cell: CellParams, plan: [number, number]): number {
   return Math.max(1, fit(cell.envelopeMm.x, cell.envelopeMm.y), fit(cell.envelopeMm.y, cell.envelopeMm.x));
 }
 
-/**
- * Stage 3: the candidate search. Every cell × build orientation that fits × bead/layer preset of
- * that cell × print mode (× parts side by side when the quantity allows) is planned, priced and
- * dated; the pick is the printable plan with the lowest total at no later ship date (ties: the
- * earlier date). The part is sliced once per up axis at the catalogue's finest layer height
- * (independent of which cells are searched, so forcing a cell gives exactly the figures the
- * search computed for it); orientations and presets that cannot fit are pruned before planning.
- */
-export function chooseStage(s: SearchInput, warnings: EstimateWarning[]): Choice {
-  const { ms, cells, material } = s;
-  const grown = ms.grownSize;
-  const searched = s.cellKey ? cells.filter((c) => c.key === s.cellKey) : cells;
-  const fineH = Math.min(...cells.flatMap((c) => [...c.layerHeightsMm, c.defaultLayerHeightMm]).filter((h) => h > 0));
+/** The catalogue's finest layer height, at which each up axis is sliced once. */
+export function finestLayerOf(cells: CellParams[]): number {
+  return Math.min(...cells.flatMap((c) => [...c.layerHeightsMm, c.defaultLayerHeightMm]).filter((h) => h > 0));
+}
 
-  // (cell, orientation) pairs that fit, pruned before any slicing
-  const pairs: { cell: CellParams; orientation: Orientation; fits: boolean; vertical: boolean }[] = [];
+export interface CandidatePair { cell: CellParams; orientation: Orientation; fits: boolean; vertical: boolean }
+
+/**
+ * The (cell, orientation) pairs the search plans, pruned before any slicing: on each cell searched,
+ * the orientation with the most room per up axis that fits, and a long part (or one the cell cannot
+ * take lying down) built vertically where a cell can; when nothing fits, the cell and orientation
+ * with the most room, for review. Needs only the grown box, so the slicing can start before the
+ * mesh is measured (../slice-ahead).
+ */
+export function candidatePairs(grown: Vec3, cells: CellParams[], cellKey: string | undefined, orientation: Orientation | undefined): CandidatePair[] {
+  const searched = cellKey ? cells.filter((c) => c.key === cellKey) : cells;
+  const pairs: CandidatePair[] = [];
   const sides = [...grown].sort((a, b) => b - a);
   const longPart = sides[0]! >= LONG_PART_RATIO * sides[1]!;
   for (const cell of searched) {
-    const options = s.orientation ? [s.orientation] : allowedOrientations(grown, cell);
+    const options = orientation ? [orientation] : allowedOrientations(grown, cell);
     const byUp = new Map<Axis, { o: Orientation; m: number }>();
     for (const o of options) {
       const m = clearance(orientedSize(grown, o), cell);
@@ -175,7 +179,7 @@ export function chooseStage(s: SearchInput, warnings: EstimateWarning[]): Choice
     // a long part (or one this cell cannot take lying down) built vertically, layers across its length
     if (longPart || byUp.size === 0) {
       const vf = verticalFit(grown, cell);
-      const forced = s.orientation;
+      const forced = orientation;
       if (vf && (!forced || forced.up === vf.orientation.up)) {
         const o = forced ?? vf.orientation;
         if (clearance(orientedSize(grown, o), vf.cell) >= 0) pairs.push({ cell: vf.cell, orientation: o, fits: true, vertical: true });
@@ -185,16 +189,32 @@ export function chooseStage(s: SearchInput, warnings: EstimateWarning[]): Choice
   if (pairs.length === 0) {
     // Nothing fits whole: plan on the cell (and orientation) with the most room, for review.
     const ranked = searched.map((c) => ({ c, b: bestOrientation(grown, c) }));
-    const best = s.orientation
-      ? { c: searched[0]!, o: s.orientation }
+    const best = orientation
+      ? { c: searched[0]!, o: orientation }
       : ranked.sort((a, b) => b.b.marginMm - a.b.marginMm).map((r) => ({ c: r.c, o: r.b.orientation }))[0]!;
     pairs.push({ cell: best.c, orientation: best.o, fits: false, vertical: false });
   }
+  return pairs;
+}
+
+/**
+ * Stage 3: the candidate search. Every cell × build orientation that fits × bead/layer preset of
+ * that cell × print mode (× parts side by side when the quantity allows) is planned, priced and
+ * dated; the pick is the printable plan with the lowest total at no later ship date (ties: the
+ * earlier date). The part is sliced once per up axis at the catalogue's finest layer height
+ * (independent of which cells are searched, so forcing a cell gives exactly the figures the
+ * search computed for it); orientations and presets that cannot fit are pruned before planning.
+ */
+export function chooseStage(s: SearchInput, warnings: EstimateWarning[]): Choice {
+  const { ms, cells, material } = s;
+  const grown = ms.grownSize;
+  const fineH = finestLayerOf(cells);
+  const pairs = candidatePairs(grown, cells, s.cellKey, s.orientation);
 
   const fine = new Map<Axis, GrownSections>();
   const sectionsFor = (up: Axis, h: number) => {
     let f = fine.get(up);
-    if (!f) { f = sliceStage(s.mesh, s.ms, up, fineH, s.allowanceMm); fine.set(up, f); }
+    if (!f) { f = sliceStage(s.mesh, s.ms, up, fineH, s.allowanceMm, undefined, s.fineSlices?.get(up)); fine.set(up, f); }
     return sectionsAt(f, h);
   };
 

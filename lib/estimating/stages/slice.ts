@@ -1,5 +1,6 @@
 import { grownSection } from "../grow";
-import { slice } from "../slice";
+import { slice, type Sections } from "../slice";
+import type { SliceJob } from "../slice-ahead";
 import type { IndexedMesh } from "../indexed";
 import type { Axis } from "../types";
 import { bad } from "./read";
@@ -46,16 +47,17 @@ export interface PieceSlab {
  * most three times however many bead/layer presets are planned. A swap of the plan axes turns a
  * section in its plane and changes neither its area nor its contour.
  */
-export function sliceStage(mesh: IndexedMesh, ms: Measured, up: Axis, fineHeightMm: number, allowanceMm: number, range?: [number, number]): GrownSections {
+export function sliceStage(mesh: IndexedMesh, ms: Measured, up: Axis, fineHeightMm: number, allowanceMm: number, range?: [number, number], cut?: Sections): GrownSections {
   const t = allowanceMm, h = fineHeightMm;
   const ai = AXIS_INDEX[up];
   // a piece of a split part: the slab between two cuts, each cut face keeping the allowance
   const zMin = range ? range[0] : ms.m.bounds.min[ai]!, zMax = range ? range[1] : ms.m.bounds.max[ai]!;
+  const job = fineSliceJob(zMin, zMax, up, h, t);
+  if (!job) bad("mesh:too-tall", `The part would need ${layerCountOf(zMin, zMax, h, t)} layers, more than the ${MAX_LAYERS} the planner accepts; check the units.`);
+  const { z0, count: layerCount } = job;
   const height = zMax - zMin + 2 * t;
-  const layerCount = Math.max(1, Math.ceil(height / h - 1e-9));
-  if (layerCount > MAX_LAYERS) bad("mesh:too-tall", `The part would need ${layerCount} layers, more than the ${MAX_LAYERS} the planner accepts; check the units.`);
-  const z0 = zMin - t;
-  const sec = slice(mesh, z0, h, layerCount, up);
+  // the same planes cut already (on the slicing helper, ../slice-ahead), or cut now
+  const sec = cut && cut.z0 === z0 && cut.layerHeight === h && cut.count === layerCount ? cut : slice(mesh, z0, h, layerCount, up);
   const grownArea = new Float64Array(layerCount), grownPer = new Float64Array(layerCount), segs = new Uint32Array(layerCount);
   let firstIn = -1, lastIn = -1;
   for (let k = 0; k < layerCount; k++) {
@@ -93,6 +95,17 @@ export function sliceStage(mesh: IndexedMesh, ms: Measured, up: Axis, fineHeight
     };
   }
   return { z0, layerHeightMm: h, layerCount, heightMm: height, areaMm2: grownArea, perimeterMm: grownPer, segments: segs, slicedVolumeMm3: slicedVolume, bedFaceMm2: bedFace, outlineMm: outline, ...(slab ? { slab } : {}) };
+}
+
+const layerCountOf = (zMin: number, zMax: number, h: number, t: number) => Math.max(1, Math.ceil((zMax - zMin + 2 * t) / h - 1e-9));
+
+/**
+ * The fine slicing of the part between zMin and zMax along `up` at layer height h with the
+ * allowance t beyond each end (what `sliceStage` cuts), or null past MAX_LAYERS.
+ */
+export function fineSliceJob(zMin: number, zMax: number, up: Axis, h: number, t: number): SliceJob | null {
+  const count = layerCountOf(zMin, zMax, h, t);
+  return count > MAX_LAYERS ? null : { up, z0: zMin - t, h, count };
 }
 
 /** The fine sections sampled at a coarser layer height: each layer takes the fine section at its mid-height. */
