@@ -97,6 +97,7 @@ export class VertexIndexer {
   private readonly vertices: Float32Array;
   private readonly vbits: Int32Array;
   private table: Int32Array;
+  private readonly arena: WorkArena;
   /** found[0]: the vertices found so far (the hot loop's count, kept across calls). */
   private readonly found = new Int32Array(1);
   /** A small direct-mapped table of vertices met lately (it stays in the processor's cache), tried before `table`. */
@@ -113,7 +114,11 @@ export class VertexIndexer {
     this.indices = new Uint32Array(new Memory(triangleCount * 12));
     this.vertices = new Float32Array(new Memory(triangleCount * 36));
     this.vbits = new Int32Array(this.vertices.buffer);
-    this.table = new Int32Array(pow2AtLeast(triangleCount));
+    // the lookup table in the block of memory that weld, topology and slicing use next (sized
+    // for a closed mesh's topology; pages never written are never mapped), so the mesh's peak
+    // memory holds one of them, not both
+    this.arena = new WorkArena(arenaWords(triangleCount, triangleCount >> 1));
+    [this.table] = this.arena.int32(pow2AtLeast(triangleCount)) as [Int32Array];
   }
 
   /** Adds `count` corners: 3 float32 each in `f` from index `at` (`bits` views the same memory as Int32). */
@@ -147,7 +152,10 @@ export class VertexIndexer {
   finish(): IndexedMesh {
     if (this.corners !== this.indices.length) throw new RangeError(`${this.corners / 3} of ${this.triangleCount} triangles were added`);
     this.table = new Int32Array(0);
-    return { vertices: this.vertices.subarray(0, this.vertexCount * 3), indices: this.indices, vertexCount: this.vertexCount, triangleCount: this.triangleCount };
+    const mesh = { vertices: this.vertices.subarray(0, this.vertexCount * 3), indices: this.indices, vertexCount: this.vertexCount, triangleCount: this.triangleCount };
+    // the table's block becomes the mesh's work arena when it is large enough (a closed mesh's is)
+    if (this.arena.words >= arenaWords(mesh.triangleCount, mesh.vertexCount)) arenas.set(mesh, this.arena);
+    return mesh;
   }
 }
 
@@ -224,6 +232,8 @@ export class WorkArena {
   private buffer: ArrayBuffer;
   constructor(words: number) { this.buffer = new ArrayBuffer(words * 4); }
 
+  get words(): number { return this.buffer.byteLength / 4; }
+
   /**
    * Int32 arrays of these lengths laid end to end in the block (grown when too small). Their
    * contents are whatever the previous stage left: fill what you read before writing. The arrays
@@ -241,9 +251,12 @@ export class WorkArena {
 
 const arenas = new WeakMap<IndexedMesh, WorkArena>();
 
-/** The mesh's work arena (topology: 3 words a triangle + 2 a vertex; weld: fewer; slicing: 1 a triangle). */
+/** Words of a mesh's work arena: topology's 3 a triangle + 2 a vertex (weld takes fewer; slicing 1 a triangle). */
+const arenaWords = (triangles: number, vertices: number) => 3 * triangles + 2 * vertices + 1024;
+
+/** The mesh's work arena (the indexer's, when the mesh was built by one and it is large enough). */
 export function workArena(m: IndexedMesh): WorkArena {
   let a = arenas.get(m);
-  if (!a) { a = new WorkArena(3 * m.triangleCount + 2 * m.vertexCount + 1024); arenas.set(m, a); }
+  if (!a) { a = new WorkArena(arenaWords(m.triangleCount, m.vertexCount)); arenas.set(m, a); }
   return a;
 }

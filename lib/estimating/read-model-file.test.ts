@@ -17,7 +17,7 @@ const write = (name: string, bytes: Uint8Array) => { const f = path.join(dir, na
 
 describe("reading a model from disk", () => {
   it("streams a binary STL of several chunks into the same triangles as the in-memory reader", async () => {
-    // a 160 × 80 mold: more triangles than one of the streaming reader's 20,000-facet chunks
+    // a 160 × 80 mold: several of the streaming reader's 4,096-facet chunks
     const bytes = binaryStl(layupMold(160, 80));
     const f = write("mold.stl", bytes);
     const streamed = await readModelFile(f, "mold.stl");
@@ -74,7 +74,7 @@ describe("reading a model from disk", () => {
   it("a NaN coordinate deep in a streamed file is refused", async () => {
     const bytes = binaryStl(layupMold(160, 80));
     const view = new DataView(bytes.buffer);
-    view.setFloat32(84 + 50 * 25_000 + 12 + 4, Number.NaN, true); // facet 25,000: second chunk
+    view.setFloat32(84 + 50 * 25_000 + 12 + 4, Number.NaN, true); // facet 25,000: a later chunk
     await expect(readModelFile(write("nan.stl", bytes), "nan.stl")).rejects.toMatchObject({ code: "mesh:bad-coordinate" });
   });
 });
