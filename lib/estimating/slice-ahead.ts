@@ -61,7 +61,7 @@ export function sliceJob(mesh: IndexedMesh, job: SliceJob, into?: SliceInto): Se
 const isShared = (a: ArrayBufferView) => typeof SharedArrayBuffer !== "undefined" && a.buffer instanceof SharedArrayBuffer;
 
 /** The machine's idle and total CPU time so far (Linux: /proc/stat, in clock ticks), or null elsewhere. */
-function cpuTicks(): { idle: number; total: number } | null {
+export function cpuTicks(): { idle: number; total: number } | null {
   try {
     const f = readFileSync("/proc/stat", "latin1");
     const v = f.slice(0, f.indexOf("\n")).trim().split(/\s+/).slice(1, 9).map(Number);
