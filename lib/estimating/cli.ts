@@ -5,7 +5,7 @@ import { analyse } from "./analyse";
 import { defaultCells, defaultMaterials, defaultRateCard } from "./defaults";
 import { EstimateInputError, isEstimateInputError } from "./errors";
 import { readModelFile } from "./read-model-file";
-import { sliceThread } from "./slice-ahead";
+import { helperMayPay, sliceThread } from "./slice-ahead";
 import type { CapacityQueue } from "./ledger";
 import { forCells, parseQueueArgs, queueFromRows, unscheduledOf, type BookedRow, type UnscheduledRow } from "./queue";
 import type { CellParams, EstimateResult, MaterialParams, RateCardParams } from "./types";
@@ -194,12 +194,14 @@ async function main(): Promise<number> {
  * The slicing helper (./slice-ahead) on the bundle beside this one (.worker/slice-worker.mjs,
  * built with it by lib/scripts/engine-bundles.mjs); none when the command line runs from its
  * sources, which slices in line (the same figures). ESTIMATE_SLICE_THREAD=0: never; =1: even on
- * a busy machine; unset: when a core was to spare while the file was read.
+ * a busy machine; unset: started unless every core is busy already, given work when a core was to
+ * spare while the file was read.
  */
 function slicingHelper(): ReturnType<typeof sliceThread> | undefined {
   const mode = process.env.ESTIMATE_SLICE_THREAD;
+  if (mode === "0" || (mode !== "1" && !helperMayPay())) return undefined;
   const file = new URL("./slice-worker.mjs", import.meta.url);
-  return mode !== "0" && existsSync(file) ? sliceThread(file, { always: mode === "1" }) : undefined;
+  return existsSync(file) ? sliceThread(file, { always: mode === "1" }) : undefined;
 }
 
 void main().then((code) => { process.exitCode = code; });

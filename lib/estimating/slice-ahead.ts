@@ -72,6 +72,16 @@ export function cpuTicks(): { idle: number; total: number } | null {
 }
 
 /**
+ * Whether a slicing helper may pay here: two cores or more, and not every one of them busy on
+ * average already (the 1-minute load average); a helper on a machine that has no core to spare
+ * only costs its start (about 10 MB and a few tens of ms of CPU).
+ */
+export function helperMayPay(): boolean {
+  const cores = availableParallelism();
+  return cores >= 2 && loadavg()[0]! < cores;
+}
+
+/**
  * A helper thread running `workerFile` (the bundle of ./slice-worker), started now so that it is
  * ready by the time the mesh is read. It never keeps the process alive; `close` ends it. It is
  * given work only when the machine had a core to spare meanwhile (or `always`): on a busy machine
