@@ -10,6 +10,11 @@ import { claimJob, DONE, FAILED, sliceJob, type SliceMessage } from "./slice-ahe
  */
 if (!parentPort) throw new Error("the slicing helper must run in a worker thread");
 
+// The schedule's time-zone arithmetic (Intl, on the main thread, once the sections are in) first
+// loads ICU's zone and calendar data, about 30 ms; ICU keeps it for the whole process, so it is
+// loaded here, while the main thread still reads the file.
+new Intl.DateTimeFormat("en-US", { timeZone: "CST6CDT", hourCycle: "h23", year: "numeric", month: "2-digit", day: "2-digit", hour: "2-digit", minute: "2-digit", second: "2-digit" }).formatToParts(0);
+
 parentPort.on("message", (msg: SliceMessage) => {
   const { state, jobs } = msg;
   const mesh: IndexedMesh = { vertices: msg.vertices, indices: msg.indices, vertexCount: msg.vertexCount, triangleCount: msg.triangleCount };
