@@ -194,8 +194,8 @@ async function main(): Promise<number> {
  * The slicing helper (./slice-ahead) on the bundle beside this one (.worker/slice-worker.mjs,
  * built with it by lib/scripts/engine-bundles.mjs); none when the command line runs from its
  * sources, which slices in line (the same figures). ESTIMATE_SLICE_THREAD=0: never; =1: even on
- * a busy machine; unset: started unless every core is busy already, given work when a core was to
- * spare while the file was read.
+ * a busy machine; unset: started unless every core is taken by other work right now, given work
+ * when a core was to spare while the file was read.
  */
 function slicingHelper(): ReturnType<typeof sliceThread> | undefined {
   const mode = process.env.ESTIMATE_SLICE_THREAD;

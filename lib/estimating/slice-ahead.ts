@@ -72,13 +72,21 @@ export function cpuTicks(): { idle: number; total: number } | null {
 }
 
 /**
- * Whether a slicing helper may pay here: two cores or more, and not every one of them busy on
- * average already (the 1-minute load average); a helper on a machine that has no core to spare
+ * Whether a slicing helper may pay here: two cores or more, and a core not taken by other work
+ * right now (Linux: the runnable tasks of /proc/loadavg, this one included; elsewhere the
+ * 1-minute load average, which lags by a minute). A helper on a machine with no core to spare
  * only costs its start (about 10 MB and a few tens of ms of CPU).
  */
 export function helperMayPay(): boolean {
   const cores = availableParallelism();
-  return cores >= 2 && loadavg()[0]! < cores;
+  if (cores < 2) return false;
+  try {
+    const running = Number(readFileSync("/proc/loadavg", "latin1").split(" ")[3]!.split("/")[0]);
+    if (Number.isFinite(running)) return running - 1 < cores;
+  } catch {
+    // not Linux
+  }
+  return loadavg()[0]! < cores;
 }
 
 /**
