@@ -4,7 +4,7 @@ import { analyse, type AnalyseOptions } from "./analyse";
 import { defaultCells, defaultMaterials, defaultRateCard } from "./defaults";
 import { segmentTimeS } from "./plan";
 import { continuousSchedule, zoneOffsetMs } from "./schedule";
-import { presetsOf } from "./stages/choose";
+import { presetsOf } from "./stages/search-space";
 import { shellExposure, wallsForAllowance } from "./stages/plan";
 import type { WorkingCalendar } from "./types";
 

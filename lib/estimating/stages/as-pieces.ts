@@ -4,7 +4,7 @@ import type { Ledger } from "../ledger";
 import { downsampleLayers } from "../plan";
 import { r2, r4 } from "../round";
 import type { EstimateResult, MaterialParams, PieceEstimate, RateCardParams } from "../types";
-import { buildModeOf } from "./choose";
+import { buildModeOf } from "./candidates";
 import type { PiecesPlan } from "./pieces";
 import type { BuildPlan } from "./plan";
 import { cellPrintRate } from "./price";

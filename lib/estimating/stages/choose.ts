@@ -1,31 +1,25 @@
 import type { IndexedMesh } from "../indexed";
-import { r2, r4 } from "../round";
+import { r2 } from "../round";
 import { steinerVolume } from "../grow";
 import { planMachining, type MachiningPlan } from "../machining";
-import { allowedOrientations, bestOrientation, clearance, fitCells, orientedSize, suggestSplit, verticalFit } from "../orient";
+import { fitCells, orientedSize, suggestSplit } from "../orient";
 import type { Pricing } from "../pricing";
 import type { Ledger } from "../ledger";
 import type { Plant } from "../schedule";
 import type {
-  Axis, BuildMode, CellFit, CellParams, EstimateAlternative, EstimateStatus, EstimateWarning, MaterialParams, Orientation,
+  Axis, CellFit, CellParams, EstimateAlternative, EstimateStatus, EstimateWarning, MaterialParams, Orientation,
   PrintMode, RateCardParams, RemedyTried, ReviewReason, SplitSuggestion,
 } from "../types";
 import type { Sections } from "../slice";
-import type { Measured, Vec3 } from "./measure";
+import type { Measured } from "./measure";
 import { planStage, wallsForAllowance, type BuildPlan, type ShellRules } from "./plan";
 import { priceStage } from "./price";
 import { scheduleStage, type PlacedSchedule } from "./schedule";
 import { sectionsAt, sliceStage, type GrownSections } from "./slice";
+import { alternative, compareCandidates, money } from "./candidates";
+import { candidatePairs, finestLayerOf, presetsOf, sideBySide } from "./search-space";
 
-const money = (c: number) => `$${(c / 100).toLocaleString("en-US", { maximumFractionDigits: 0 })}`;
 
-/** Layer height between a quarter and a half of the bead width (common practice, checks.md). */
-export const LAYER_TO_BEAD_MIN = 0.25;
-export const LAYER_TO_BEAD_MAX = 0.5;
-/** Gap between parts printed side by side, mm (common practice: room for the nozzle and for machining). */
-export const SIDE_BY_SIDE_GAP_MM = 100;
-/** A part this many times longer than its next side is a long part, tried vertically on a cell that prints so (bureau practice). */
-export const LONG_PART_RATIO = 2.5;
 
 export interface SearchInput {
   mesh: IndexedMesh;
@@ -86,37 +80,6 @@ export interface Choice {
   candidatesPlanned: number;
 }
 
-const key = (o: Orientation) => `${o.up}${o.swapped ? "'" : ""}`;
-
-/** The build as reported: the fill, prefixed "vertical-" for a vertical build. */
-export const buildModeOf = (c: Pick<Candidate, "vertical" | "bp">): BuildMode => (c.vertical ? `vertical-${c.bp.printMode}` : c.bp.printMode);
-
-/** Bead/layer presets of a cell: its default, and every pair whose layer is ¼–½ of the bead. */
-export function presetsOf(cell: CellParams): { beadWidthMm: number; layerHeightMm: number }[] {
-  const out = [{ beadWidthMm: cell.defaultBeadWidthMm, layerHeightMm: cell.defaultLayerHeightMm }];
-  for (const w of cell.beadWidthsMm) for (const h of cell.layerHeightsMm) {
-    const r = h / w;
-    if (r >= LAYER_TO_BEAD_MIN - 1e-9 && r <= LAYER_TO_BEAD_MAX + 1e-9 && !out.some((p) => p.beadWidthMm === w && p.layerHeightMm === h)) out.push({ beadWidthMm: w, layerHeightMm: h });
-  }
-  return out;
-}
-
-/** Ordering of candidates: printable first, then the lowest total, the earlier ship date, fewer hours; the rest breaks ties so the pick is stable. */
-export function compareCandidates(a: Candidate, b: Candidate): number {
-  const sa = a.status === "priced" ? 0 : 1, sb = b.status === "priced" ? 0 : 1;
-  if (sa !== sb) return sa - sb;
-  if (sa === 1 && a.bp.flaggedLayers !== b.bp.flaggedLayers && a.fitsCell === b.fitsCell) return a.bp.flaggedLayers - b.bp.flaggedLayers;
-  if (sa === 1 && a.fitsCell !== b.fitsCell) return a.fitsCell ? -1 : 1;
-  return a.pricing.totalCents - b.pricing.totalCents
-    || a.schedule.shipDate.localeCompare(b.schedule.shipDate)
-    || (a.bp.printHours + a.bp.dwellHours) - (b.bp.printHours + b.bp.dwellHours)
-    || a.cell.key.localeCompare(b.cell.key)
-    || key(a.orientation).localeCompare(key(b.orientation))
-    || Number(a.vertical) - Number(b.vertical)
-    || a.bp.beadWidthMm - b.bp.beadWidthMm || a.bp.layerHeightMm - b.bp.layerHeightMm
-    || a.bp.partsPerBuild - b.bp.partsPerBuild;
-}
-
 /** What a candidate is planned for: the whole part, or one piece of a split part. */
 export interface PartContext {
   ms: Measured;
@@ -138,63 +101,6 @@ export function evaluateCandidate(
   if (!fits) reasons.push({ code: "fits-no-cell", message: `The part does not fit the ${cell.name} cell in one piece.` });
   if (bp.flaggedLayers > 0) reasons.push({ code: "layers-outside-window", message: `${bp.flaggedLayers} of ${bp.layers.timeS.length * bp.builds} layers take longer than the ${material.maxLayerTimeS} s cooling window of ${material.name}.` });
   return { cell, orientation, fitsCell: fits, sections, bp, pricing, schedule, status: reasons.length ? "needs-review" : "priced", reasons, vertical };
-}
-
-/** How many grown footprints (with the gap) fit side by side on the cell's bed. */
-export function sideBySide(cell: CellParams, plan: [number, number]): number {
-  const g = SIDE_BY_SIDE_GAP_MM;
-  const fit = (ex: number, ey: number) => Math.max(0, Math.floor((ex + g) / (plan[0] + g))) * Math.max(0, Math.floor((ey + g) / (plan[1] + g)));
-  return Math.max(1, fit(cell.envelopeMm.x, cell.envelopeMm.y), fit(cell.envelopeMm.y, cell.envelopeMm.x));
-}
-
-/** The catalogue's finest layer height, at which each up axis is sliced once. */
-export function finestLayerOf(cells: CellParams[]): number {
-  return Math.min(...cells.flatMap((c) => [...c.layerHeightsMm, c.defaultLayerHeightMm]).filter((h) => h > 0));
-}
-
-export interface CandidatePair { cell: CellParams; orientation: Orientation; fits: boolean; vertical: boolean }
-
-/**
- * The (cell, orientation) pairs the search plans, pruned before any slicing: on each cell searched,
- * the orientation with the most room per up axis that fits, and a long part (or one the cell cannot
- * take lying down) built vertically where a cell can; when nothing fits, the cell and orientation
- * with the most room, for review. Needs only the grown box, so the slicing can start before the
- * mesh is measured (../slice-ahead).
- */
-export function candidatePairs(grown: Vec3, cells: CellParams[], cellKey: string | undefined, orientation: Orientation | undefined): CandidatePair[] {
-  const searched = cellKey ? cells.filter((c) => c.key === cellKey) : cells;
-  const pairs: CandidatePair[] = [];
-  const sides = [...grown].sort((a, b) => b - a);
-  const longPart = sides[0]! >= LONG_PART_RATIO * sides[1]!;
-  for (const cell of searched) {
-    const options = orientation ? [orientation] : allowedOrientations(grown, cell);
-    const byUp = new Map<Axis, { o: Orientation; m: number }>();
-    for (const o of options) {
-      const m = clearance(orientedSize(grown, o), cell);
-      if (m < 0) continue;
-      const prev = byUp.get(o.up);
-      if (!prev || m > prev.m) byUp.set(o.up, { o, m });
-    }
-    for (const { o } of byUp.values()) pairs.push({ cell, orientation: o, fits: true, vertical: false });
-    // a long part (or one this cell cannot take lying down) built vertically, layers across its length
-    if (longPart || byUp.size === 0) {
-      const vf = verticalFit(grown, cell);
-      const forced = orientation;
-      if (vf && (!forced || forced.up === vf.orientation.up)) {
-        const o = forced ?? vf.orientation;
-        if (clearance(orientedSize(grown, o), vf.cell) >= 0) pairs.push({ cell: vf.cell, orientation: o, fits: true, vertical: true });
-      }
-    }
-  }
-  if (pairs.length === 0) {
-    // Nothing fits whole: plan on the cell (and orientation) with the most room, for review.
-    const ranked = searched.map((c) => ({ c, b: bestOrientation(grown, c) }));
-    const best = orientation
-      ? { c: searched[0]!, o: orientation }
-      : ranked.sort((a, b) => b.b.marginMm - a.b.marginMm).map((r) => ({ c: r.c, o: r.b.orientation }))[0]!;
-    pairs.push({ cell: best.c, orientation: best.o, fits: false, vertical: false });
-  }
-  return pairs;
 }
 
 /**
@@ -308,25 +214,5 @@ export function chooseStage(s: SearchInput, warnings: EstimateWarning[]): Choice
   return {
     chosen: { ...chosen, status }, orientationChosenBy: s.orientation ? "user" : "cost", fits, fitsAny, split,
     alternatives: alternatives.map((a) => (a.cell === chosen.cell.key ? { ...a, status } : a)), remedies, reviewReasons, candidatesPlanned: all.length,
-  };
-}
-
-function alternative(c: Candidate, chosen: Candidate): EstimateAlternative {
-  let whyNot = "";
-  if (c !== chosen) {
-    const why: string[] = [];
-    if (!c.fitsCell) why.push("does not fit whole");
-    if (c.bp.flaggedLayers > 0) why.push(`${c.bp.flaggedLayers} layers outside the cooling window`);
-    const d = c.pricing.totalCents - chosen.pricing.totalCents;
-    if (d > 0) why.push(`${money(d)} more`);
-    else if (d < 0 && chosen.status === "priced" && c.status !== "priced") why.push(`${money(-d)} less but not printable as planned`);
-    if (c.schedule.shipDate > chosen.schedule.shipDate) why.push(`ships later (${c.schedule.shipDate})`);
-    else if (c.schedule.shipDate === chosen.schedule.shipDate && d === 0) why.push("same total and date; the search's tie-break");
-    whyNot = why.join("; ") || "not better on total or date";
-  }
-  return {
-    cell: c.cell.key, cellName: c.cell.name, orientation: c.orientation, beadWidthMm: c.bp.beadWidthMm, layerHeightMm: c.bp.layerHeightMm,
-    printMode: buildModeOf(c), shellWalls: c.bp.shellWalls, printHours: r4(c.bp.printHours), dwellHours: r4(c.bp.dwellHours), massKg: r4(c.bp.massKg),
-    flaggedLayers: c.bp.flaggedLayers, totalCents: c.pricing.totalCents, shipDate: c.schedule.shipDate, status: c.status, whyNot,
   };
 }
