@@ -4,7 +4,7 @@ import { ZodError, type z } from "zod";
 import { getDb, type Db } from "@/db/client";
 import { AppError, isAppError } from "@/lib/errors";
 import { errorFields } from "@/lib/observability/log";
-import { requestLog } from "@/lib/observability/request-id";
+import { REQUEST_ID_HEADER, requestIdFrom, requestLog, withRequestId } from "@/lib/observability/request-id";
 import type { AsSent } from "@/lib/contracts/wire";
 import { enter, type Access, type UserFor } from "./access";
 
@@ -80,7 +80,8 @@ async function readBody(req: Request): Promise<unknown> {
 /**
  * The one shape of a route handler: guard (`access`) → parse (`query`, `body`) → the handler with
  * the user and the database → a Response, or data sent as JSON. AppErrors and bad input answer
- * through `errorResponse`'s table; anything else is logged and answered 500.
+ * through `errorResponse`'s table; anything else is logged and answered 500. Each answer carries
+ * the request's id (`x-request-id`), which its log lines name.
  *
  *     export const GET = defineRoute({ access: "accounts:ledger", query: ledgerQuerySchema }, async ({ query, db }) => listLedger(db, query));
  */
@@ -88,7 +89,7 @@ export function defineRoute<A extends Access, Q extends z.ZodType | undefined = 
   spec: RouteSpec<A, Q, B, R>,
   handler: (ctx: RouteContext<A, Q, B, P>) => Promise<Answer<R>>,
 ): (req: Request, ctx?: { params: Promise<P> }) => Promise<Response> {
-  return async (req, ctx) => {
+  const answer = async (req: Request, ctx?: { params: Promise<P> }): Promise<Response> => {
     try {
       const user = await enter(spec.access);
       const query = (spec.query ? spec.query.parse(Object.fromEntries(new URL(req.url).searchParams)) : undefined) as Infer<Q>;
@@ -102,4 +103,22 @@ export function defineRoute<A extends Access, Q extends z.ZodType | undefined = 
       return errorResponse(e);
     }
   };
+  // The request's id (proxy.ts does not run for /api): kept from the caller when it is a plain
+  // token, else new; every log line of the handler carries it, and so does the answer.
+  return async (req, ctx) => {
+    const requestId = requestIdFrom(req.headers);
+    return withIdHeader(await withRequestId(requestId, () => answer(req, ctx)), requestId);
+  };
+}
+
+/** The answer with `x-request-id` set (a Response whose headers are immutable is copied). */
+function withIdHeader(res: Response, requestId: string): Response {
+  try {
+    res.headers.set(REQUEST_ID_HEADER, requestId);
+    return res;
+  } catch {
+    const copy = new Response(res.body, res);
+    copy.headers.set(REQUEST_ID_HEADER, requestId);
+    return copy;
+  }
 }

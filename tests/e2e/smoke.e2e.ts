@@ -169,4 +169,21 @@ describe("smoke: every role lands on its own home", () => {
     expect(api.status()).toBe(404);
     await context.close();
   });
+  it("every answer names its request id (pages through the proxy, API routes through their wrapper), keeping a caller's plain id", async () => {
+    const uuid = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/;
+    for (const path of ["/sign-in", "/api/health", "/api/portal/requests"]) {
+      const fresh = await fetch(`${stack.baseUrl}${path}`, { redirect: "manual" });
+      expect(fresh.headers.get("x-request-id"), path).toMatch(uuid);
+      const kept = await fetch(`${stack.baseUrl}${path}`, { redirect: "manual", headers: { "x-request-id": "edge-7c1f.42:9" } });
+      expect(kept.headers.get("x-request-id"), path).toBe("edge-7c1f.42:9");
+      const replaced = await fetch(`${stack.baseUrl}${path}`, { redirect: "manual", headers: { "x-request-id": "no good; id" } });
+      expect(replaced.headers.get("x-request-id"), path).toMatch(uuid);
+    }
+    // The signed-out API answer is the route's own 401 (the proxy redirects pages only).
+    expect((await fetch(`${stack.baseUrl}/api/portal/requests`, { redirect: "manual" })).status).toBe(401);
+    const page = await fetch(`${stack.baseUrl}/portal`, { redirect: "manual" });
+    expect(page.status).toBe(307);
+    expect(page.headers.get("location")).toContain("/sign-in?callbackUrl=%2Fportal");
+    expect(page.headers.get("x-request-id")).toMatch(uuid);
+  });
 });
