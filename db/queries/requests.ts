@@ -27,6 +27,8 @@ export interface ListRequestsInput {
   offset?: number;
   /** A page's `next`: the page after it, found from its last row's sort value and id (keyset; `offset` is then not used). */
   after?: ListCursor;
+  /** The count of matching requests when the caller already knows it (a cached count): not counted again. */
+  total?: number;
 }
 
 /** One row of the portal list, as the route sends it. */
@@ -120,11 +122,11 @@ export async function listRequestsForScope(db: Db, scope: RequestScope, input: L
     pageArgs.push(...c.args);
     offset = 0;
   }
-  const [page, [counted]] = await Promise.all([
+  const [page, counted] = await Promise.all([
     readRows<{ id: string; k: CursorKey }>(db, `select r.id, ${sort.expr} as k from requests r where ${pageWhere.join(" and ")} order by k ${dir}, r.id desc limit ? offset ?`, [...pageArgs, limit, offset]),
-    readRows<{ n: number }>(db, `select count(*) as n from requests r where ${where.join(" and ")}`, args),
+    input.total ?? readRows<{ n: number }>(db, `select count(*) as n from requests r where ${where.join(" and ")}`, args).then(([c]) => Number(c?.n ?? 0)),
   ]);
-  const total = Number(counted?.n ?? 0);
+  const total = counted;
   if (page.length === 0) return { rows: [], total, next: null };
   const found = await readRows<Record<string, unknown>>(db, DETAIL_SQL, [JSON.stringify(page.map((p) => p.id))]);
   const byId = new Map(found.map((r) => [String(r.id), r]));

@@ -1,6 +1,8 @@
+import { boardVersion } from "@/db/queries/orders";
 import { listRequestsForScope } from "@/db/queries/requests";
 import { STAGES, type Stage } from "@/db/schema/common";
 import { AppError } from "@/lib/errors";
+import { VersionedCache } from "@/lib/orders/board-cache";
 import { defineRoute } from "@/lib/server/define-route";
 import { encodeListCursor } from "@/lib/validation/list-cursor";
 import { listQuerySchema } from "@/lib/validation/request";
@@ -13,7 +15,12 @@ export const GET = defineRoute({ access: "request:read_own", query: listQuerySch
   if (!user.orgId) throw new AppError("forbidden", "Your account is not part of a client firm.");
   const stages = (q.stage ?? "").split(",").filter((s): s is Stage => (STAGES as readonly string[]).includes(s));
   const scope = user.role === "client_admin" ? { orgId: user.orgId } : { orgId: user.orgId, createdById: user.id };
-  const { rows, total, next } = await listRequestsForScope(db, scope, { search: q.q, stages, sort: q.sort, dir: q.dir, limit: q.limit, offset: q.offset, after: q.after });
+  // An unsearched count is reused while the board's change counter stands (read first, as the board does).
+  const countKey = q.q?.trim() ? null : `${scope.orgId}:${scope.createdById ?? ""}:${stages.join(",")}`;
+  const version = countKey ? await boardVersion(db) : 0;
+  const known = countKey ? counts.get(countKey, version) : undefined;
+  const { rows, total, next } = await listRequestsForScope(db, scope, { search: q.q, stages, sort: q.sort, dir: q.dir, limit: q.limit, offset: q.offset, after: q.after, total: known });
+  if (countKey && known === undefined) counts.set(countKey, version, total);
   return {
     total,
     nextCursor: next ? encodeListCursor(next) : null,
@@ -32,3 +39,11 @@ export const GET = defineRoute({ access: "request:read_own", query: listQuerySch
     })),
   };
 });
+
+/**
+ * Counts of unsearched lists by firm, author and stages, per process, valid while the database's
+ * "board" counter is unchanged: its triggers fire on every insert and delete of a request and on
+ * every change of its stage or firm, which is all such a count depends on (a request's author is
+ * never changed). A search also reads the notes, which the counter does not watch: never reused.
+ */
+const counts = new VersionedCache<number>(2_000);
