@@ -15,10 +15,11 @@ export function AppShell({
   signOutAction,
   children,
 }: {
-  nav: NavItem[];
+  /** The sections, or an element drawing them (a static page's, filled in the browser). */
+  nav: NavItem[] | React.ReactElement;
   area: string;
-  userLabel: string;
-  roleLabel: string;
+  userLabel: React.ReactNode;
+  roleLabel: React.ReactNode;
   /** The route's sign-out action (a server action, passed down: nothing under components/ imports from app/). */
   signOutAction: (formData: FormData) => Promise<void>;
   children: React.ReactNode;
@@ -33,11 +34,7 @@ export function AppShell({
             <span className="rounded bg-ink-700 px-1.5 py-0.5 text-xs font-normal text-paper-300">{area}</span>
           </Link>
           <nav aria-label="Sections" className="order-3 -mx-1 flex w-full flex-wrap gap-1 sm:order-none sm:w-auto">
-            {nav.map((item) => (
-              <Link key={item.href} href={item.href} className="whitespace-nowrap rounded px-2 py-1 text-sm text-paper-200 hover:bg-ink-700 hover:text-white">
-                {item.label}
-              </Link>
-            ))}
+            {Array.isArray(nav) ? <NavLinks items={nav} /> : nav}
           </nav>
           <div className="ml-auto flex items-center gap-3 text-sm">
             <span className="hidden text-right leading-tight sm:block">
@@ -55,6 +52,15 @@ export function AppShell({
       <main className="mx-auto max-w-7xl px-4 py-8 sm:px-6">{children}</main>
     </div>
   );
+}
+
+/** The top bar's section links. */
+export function NavLinks({ items }: { items: NavItem[] }) {
+  return items.map((item) => (
+    <Link key={item.href} href={item.href} className="whitespace-nowrap rounded px-2 py-1 text-sm text-paper-200 hover:bg-ink-700 hover:text-white">
+      {item.label}
+    </Link>
+  ));
 }
 
 export const ROLE_LABELS: Record<string, string> = {

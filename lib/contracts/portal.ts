@@ -1,5 +1,6 @@
 import { z } from "zod";
 import type { EstimateResult } from "@/lib/estimating/types";
+import { ROLES } from "@/db/schema/common";
 import { STAGE_LABEL } from "@/lib/labels";
 import { keysOf, wireDate } from "./wire";
 
@@ -29,3 +30,11 @@ export const requestStatus = z.object({
   order: z.object({ id: z.string(), totalCents: z.number().int(), depositCents: z.number().int() }).nullable(),
 });
 export type RequestStatus = z.infer<typeof requestStatus>;
+
+/** GET /api/portal/me: who is signed in, for the parts of the (static) portal home that name them. */
+export const portalMe = z.object({
+  name: z.string().nullable(),
+  email: z.string(),
+  role: z.enum(ROLES),
+});
+export type PortalMe = z.infer<typeof portalMe>;

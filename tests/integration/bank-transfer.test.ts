@@ -83,7 +83,7 @@ describe("paying by bank transfer", () => {
     requestId = r!.id;
     orgId = r!.orgId;
     await as("buyer@bramblewake.example");
-    const { acceptQuote } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { acceptQuote } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const res = await acceptQuote({ quoteId: q!.id, poNumber: "BW-TR-1", acceptTerms: true, payBy: "bank_transfer" });
     expect(res.ok, res.ok ? "" : res.message).toBe(true);
     if (res.ok) expect(res.data.url).toBeNull();
@@ -98,12 +98,12 @@ describe("paying by bank transfer", () => {
     depositId = p!.id;
     reference = p!.transferReference!;
     // Asking again shows the same transfer, not a second one.
-    const { payByTransfer } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { payByTransfer } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const again = await payByTransfer({ orderId: order!.id, kind: "deposit" });
     expect(again).toMatchObject({ ok: true, data: { reference } });
     expect(await db.select().from(payments).where(and(eq(payments.orderId, order!.id), eq(payments.kind, "deposit")))).toHaveLength(1);
     // Choosing the card after all opens its own payment page; the transfer stays as it was.
-    const { payOrder } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { payOrder } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const card = await payOrder({ orderId: order!.id, kind: "deposit" });
     expect(card.ok && card.data.url).toMatch(/\/checkout\//);
     const both = await db.select().from(payments).where(and(eq(payments.orderId, order!.id), eq(payments.kind, "deposit")));
@@ -115,7 +115,7 @@ describe("paying by bank transfer", () => {
   it("another firm can not open a transfer on this order", async () => {
     await as("lab@tarnavel.example");
     const [order] = await db.select().from(orders).where(eq(orders.requestId, requestId));
-    const { payByTransfer } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { payByTransfer } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     expect(await payByTransfer({ orderId: order!.id, kind: "deposit" })).toMatchObject({ ok: false, code: "not_found:order" });
   });
 
@@ -146,7 +146,7 @@ describe("paying by bank transfer", () => {
   it("money over what is owed pays it and keeps the excess for accounts, who settle it with a note", async () => {
     await as("lab@tarnavel.example");
     const [o] = await db.select({ id: orders.id, orgId: orders.orgId, deposit: orders.depositCents }).from(orders).innerJoin(requests, eq(requests.id, orders.requestId)).where(eq(requests.projectName, "Composite coupon drill fixture"));
-    const { payByTransfer } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { payByTransfer } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const opened = await payByTransfer({ orderId: o!.id, kind: "deposit" });
     expect(opened.ok, opened.ok ? "" : opened.message).toBe(true);
     if (!opened.ok) return;
@@ -168,7 +168,7 @@ describe("paying by bank transfer", () => {
   it("a transfer with an unknown reference applies to nothing and waits for accounts; a wrong reference is refused, the right one applies it", async () => {
     const [o] = await db.select({ id: orders.id, orgId: orders.orgId, balance: orders.balanceCents }).from(orders).innerJoin(requests, eq(requests.id, orders.requestId)).where(eq(requests.projectName, "Cockpit liner plug"));
     await as("buyer@bramblewake.example");
-    const { payByTransfer } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { payByTransfer } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const opened = await payByTransfer({ orderId: o!.id, kind: "balance" });
     expect(opened.ok, opened.ok ? "" : opened.message).toBe(true);
     if (!opened.ok) return;
@@ -198,7 +198,7 @@ describe("paying by bank transfer", () => {
     // The seeded balance may already be paid; make it the open invoice this case needs.
     await db.update(payments).set({ status: "pending", paidAt: null, receiptNumber: null, checkoutSessionId: null, paymentIntentId: null, receivedCents: 0 }).where(eq(payments.id, bal!.id));
     await as("lab@tarnavel.example");
-    const { payByTransfer } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { payByTransfer } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const opened = await payByTransfer({ orderId: o!.id, kind: "balance" });
     expect(opened.ok, opened.ok ? "" : opened.message).toBe(true);
     if (!opened.ok) return;

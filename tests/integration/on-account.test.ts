@@ -102,7 +102,7 @@ describe("accepting on account", () => {
     const bw = await firm("bramblewake-boatworks");
     await setTermsAs("accounts@ostrevane.example", { orgId: bw.id, paymentTerms: "prepay", creditLimitCents: 0 });
     await as("buyer@bramblewake.example");
-    const { acceptQuote } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { acceptQuote } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     expect(await acceptQuote({ quoteId: q.id, poNumber: "BW-9001", acceptTerms: true, payBy: "account" })).toMatchObject({ ok: false, code: "conflict:terms" });
     expect(await db.select().from(orders).where(eq(orders.requestId, r.id))).toHaveLength(0);
   });
@@ -112,7 +112,7 @@ describe("accepting on account", () => {
     const bw = await firm("bramblewake-boatworks");
     await setTermsAs("accounts@ostrevane.example", { orgId: bw.id, paymentTerms: "net30", creditLimitCents: q.totalCents - 1 });
     await as("buyer@bramblewake.example");
-    const { acceptQuote } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { acceptQuote } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const res = await acceptQuote({ quoteId: q.id, poNumber: "BW-9002", acceptTerms: true, payBy: "account" });
     expect(res).toMatchObject({ ok: false, code: "conflict:credit_limit" });
     if (!res.ok) {
@@ -140,7 +140,7 @@ describe("accepting on account", () => {
     const [theirs] = await db.insert(uploads).values({ fileKey: "k-theirs", fileName: "po.pdf", sizeBytes: 10, url: "http://x/f/k", contentType: "application/pdf", userId: lead, purpose: "attachment" }).returning();
     const buyer = await as("buyer@bramblewake.example");
     const [notPdf] = await db.insert(uploads).values({ fileKey: "k-png", fileName: "po.png", sizeBytes: 10, url: "http://x/f/k2", contentType: "image/png", userId: buyer, purpose: "attachment" }).returning();
-    const { acceptQuote } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { acceptQuote } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     expect(await acceptQuote({ quoteId: q.id, poNumber: "BW-9003", acceptTerms: true, payBy: "account", poUploadId: theirs!.id })).toMatchObject({ ok: false, code: "invalid_input", fieldErrors: { poUploadId: ["Upload the PDF again."] } });
     expect(await acceptQuote({ quoteId: q.id, poNumber: "BW-9003", acceptTerms: true, payBy: "account", poUploadId: notPdf!.id })).toMatchObject({ ok: false, code: "invalid_input", message: "The purchase order must be a PDF." });
     expect(await db.select().from(orders).where(eq(orders.requestId, r.id))).toHaveLength(0);
@@ -153,7 +153,7 @@ describe("accepting on account", () => {
     const buyer = await as("buyer@bramblewake.example");
     const [po] = await db.insert(uploads).values({ fileKey: "k-po", fileName: "BW-9004.pdf", sizeBytes: 2048, url: "http://x/f/po", contentType: "application/pdf", userId: buyer, purpose: "attachment" }).returning();
     const before = checkout.calls;
-    const { acceptQuote } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { acceptQuote } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const res = await acceptQuote({ quoteId: q.id, poNumber: "BW-9004", acceptTerms: true, payBy: "account", poUploadId: po!.id });
     expect(res.ok, res.ok ? "" : res.message).toBe(true);
     if (res.ok) expect(res.data.url).toBeNull();

@@ -87,7 +87,7 @@ describe("drafts, files and submission", () => {
 
   it("saves a draft with its parts, scoped to the firm", async () => {
     await as("engineer@caldrith.example");
-    const { saveDraft } = await import("../../app/(portal)/portal/requests/actions");
+    const { saveDraft } = await import("../../app/(portal)/portal/(member)/requests/actions");
     const r = await saveDraft({ project, parts: [part(partId)] });
     expect(r.ok).toBe(true);
     if (!r.ok) return;
@@ -107,7 +107,7 @@ describe("drafts, files and submission", () => {
 
   it("refuses a file whose content is not a model, on that part only; accepts an STL and analyses it", async () => {
     const me = await as("engineer@caldrith.example");
-    const { attachPartFile } = await import("../../app/(portal)/portal/requests/actions");
+    const { attachPartFile } = await import("../../app/(portal)/portal/(member)/requests/actions");
     const bad = await attachPartFile({ requestId, partId, uploadId: await storeUpload(me, "drawing.stl", new TextEncoder().encode("%PDF-1.7 not a mesh")) });
     expect(bad).toMatchObject({ ok: false, code: "invalid_input:file" });
     expect(await db.select().from(fileRevisions).where(eq(fileRevisions.partId, partId))).toHaveLength(0);
@@ -131,7 +131,7 @@ describe("drafts, files and submission", () => {
 
   it("will not submit until the units are confirmed, then submits and moves to submitted", async () => {
     await as("engineer@caldrith.example");
-    const { submitRequest } = await import("../../app/(portal)/portal/requests/actions");
+    const { submitRequest } = await import("../../app/(portal)/portal/(member)/requests/actions");
     const notYet = await submitRequest({ requestId, project, parts: [part(partId)] });
     expect(notYet).toMatchObject({ ok: false, code: "invalid_input" });
     expect(notYet.ok ? null : notYet.fieldErrors).toHaveProperty(["parts.0.unitsConfirmed"]);
@@ -144,7 +144,7 @@ describe("drafts, files and submission", () => {
   it("a new revision of a submitted part re-runs the analysis and marks the open quote stale", async () => {
     const me = await as("engineer@caldrith.example");
     const [q] = await db.insert(quotes).values({ requestId, version: 1, status: "issued", totalCents: 100_000, depositCents: 50_000 }).returning({ id: quotes.id });
-    const { attachPartFile } = await import("../../app/(portal)/portal/requests/actions");
+    const { attachPartFile } = await import("../../app/(portal)/portal/(member)/requests/actions");
     const r = await attachPartFile({ requestId, partId, uploadId: await storeUpload(me, "rib-rev2.stl", binaryStl(box(820, 400, 200))) });
     expect(r.ok, r.ok ? "" : r.message).toBe(true);
     if (r.ok) expect(r.data.revision).toBe(2);
@@ -152,7 +152,7 @@ describe("drafts, files and submission", () => {
     expect(after!.isStale).toBe(true);
     // The accept action refuses a stale quote.
     await db.update(requests).set({ stage: "quoted" }).where(eq(requests.id, requestId));
-    const { acceptQuote } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { acceptQuote } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const refused = await acceptQuote({ quoteId: q!.id, poNumber: "KA-1", acceptTerms: true });
     expect(refused.ok ? "" : refused.message).toMatch(/changed after this quote/);
     await db.delete(quotes).where(eq(quotes.id, q!.id));
@@ -169,7 +169,7 @@ describe("quotes and the deposit", () => {
 
   it("refuses an expired quote and a superseded one", async () => {
     await as("buyer@bramblewake.example");
-    const { acceptQuote } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { acceptQuote } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const { q } = await quotedRequest();
     await db.update(quotes).set({ validUntil: new Date(Date.now() - 86_400_000) }).where(eq(quotes.id, q.id));
     const expired = await acceptQuote({ quoteId: q.id, poNumber: "BW-1", acceptTerms: true });
@@ -185,14 +185,14 @@ describe("quotes and the deposit", () => {
 
   it("another firm cannot accept it (404)", async () => {
     await as("lead@caldrith.example");
-    const { acceptQuote } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { acceptQuote } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const { q } = await quotedRequest();
     expect(await acceptQuote({ quoteId: q.id, poNumber: "X", acceptTerms: true })).toMatchObject({ ok: false, code: "not_found:quote" });
   });
 
   it("accepting makes the order and the deposit's session; a double-clicked pay makes ONE session", async () => {
     await as("buyer@bramblewake.example");
-    const { acceptQuote, payOrder } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { acceptQuote, payOrder } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const { q, r } = await quotedRequest();
     const accepted = await acceptQuote({ quoteId: q.id, poNumber: "BW-PO-2291", acceptTerms: true });
     expect(accepted.ok, accepted.ok ? "" : accepted.message).toBe(true);
@@ -220,7 +220,7 @@ describe("quotes and the deposit", () => {
 describe("the balance", () => {
   it("is payable once the order ships; a session the processor no longer has is replaced", async () => {
     await as("buyer@bramblewake.example");
-    const { payOrder } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { payOrder } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const [r] = await db.select().from(requests).where(eq(requests.projectName, "Cockpit liner plug"));
     const [order] = await db.select().from(orders).where(eq(orders.requestId, r!.id));
     const res = await payOrder({ orderId: order!.id, kind: "balance" });

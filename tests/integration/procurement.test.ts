@@ -54,7 +54,7 @@ describe("the address book", () => {
 
   it("refuses an address that does not validate, saying which field and why, and writes nothing", async () => {
     await as("buyer@bramblewake.example");
-    const { addAddress } = await import("../../app/(portal)/portal/firm/address-actions");
+    const { addAddress } = await import("../../app/(portal)/portal/(member)/firm/address-actions");
     const before = await db.select().from(addresses);
     const r = await addAddress({ kind: "shipping", address: { ...good, postalCode: "4590", region: "QQ" } });
     expect(r).toMatchObject({ ok: false, code: "invalid_input" });
@@ -66,7 +66,7 @@ describe("the address book", () => {
 
   it("is the lead's: an engineer is refused, and another firm's address answers not found", async () => {
     await as("engineer@caldrith.example");
-    const { addAddress, removeAddress, makeDefaultShipTo } = await import("../../app/(portal)/portal/firm/address-actions");
+    const { addAddress, removeAddress, makeDefaultShipTo } = await import("../../app/(portal)/portal/(member)/firm/address-actions");
     expect(await addAddress({ kind: "shipping", address: good })).toMatchObject({ ok: false, code: "forbidden" });
     await as("lead@caldrith.example");
     const bw = await firm("bramblewake-boatworks");
@@ -78,7 +78,7 @@ describe("the address book", () => {
 
   it("adds, makes default and archives a shipping address, each audited", async () => {
     await as("buyer@bramblewake.example");
-    const { addAddress, removeAddress, makeDefaultShipTo } = await import("../../app/(portal)/portal/firm/address-actions");
+    const { addAddress, removeAddress, makeDefaultShipTo } = await import("../../app/(portal)/portal/(member)/firm/address-actions");
     const added = await addAddress({ kind: "shipping", address: good });
     expect(added.ok, added.ok ? "" : added.message).toBe(true);
     if (!added.ok) return;
@@ -114,7 +114,7 @@ describe("freight by destination", () => {
     const buyer = await as("buyer@bramblewake.example");
     const bw = await firm("bramblewake-boatworks");
     const gulf = await shipTo(bw.id, "Gulf yard");
-    const { acceptQuote } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { acceptQuote } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const res = await acceptQuote({ quoteId: q.id, poNumber: "BW-7781", acceptTerms: true, shipToId: gulf.id });
     expect(res.ok, res.ok ? "" : res.message).toBe(true);
     const [order] = await db.select().from(orders).where(eq(orders.requestId, r.id));
@@ -153,7 +153,7 @@ describe("freight by destination", () => {
   it("the default ship-to in the zone the quote was priced to keeps the quote's own figures", async () => {
     const { r, q } = await freshQuote();
     await as("buyer@bramblewake.example");
-    const { acceptQuote } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { acceptQuote } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const res = await acceptQuote({ quoteId: q.id, poNumber: "BW-7782", acceptTerms: true });
     expect(res.ok, res.ok ? "" : res.message).toBe(true);
     const [order] = await db.select().from(orders).where(eq(orders.requestId, r.id));
@@ -165,7 +165,7 @@ describe("freight by destination", () => {
   it("refuses another firm's address and a firm with no ship-to, and makes no order", async () => {
     const { r, q } = await freshQuote();
     await as("buyer@bramblewake.example");
-    const { acceptQuote } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { acceptQuote } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const cal = await firm("caldrith-aerostructures");
     const theirs = await shipTo(cal.id, "Tooling hall");
     expect(await acceptQuote({ quoteId: q.id, poNumber: "BW-1", acceptTerms: true, shipToId: theirs.id })).toMatchObject({ ok: false, code: "invalid_input" });

@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { Db } from "../../db/client";
 import { memberships, requests, users } from "../../db/schema";
 import type * as ListRoute from "../../app/api/portal/requests/route";
+import type * as MeRoute from "../../app/api/portal/me/route";
 import { growOrders } from "../../lib/scripts/grow-orders";
 import { createTestDb, type TestDb } from "../helpers/test-db";
 import { dbRef, session } from "../support/integration";
@@ -16,6 +17,7 @@ interface Answer { total: number; nextCursor: string | null; rows: Record<string
 let t: TestDb;
 let db: Db;
 let route: typeof ListRoute;
+let meRoute: typeof MeRoute;
 let lead: { id: string; orgId: string };
 let engineer: { id: string; orgId: string };
 
@@ -44,6 +46,7 @@ beforeAll(async () => {
   lead = await member("lead@caldrith.example");
   engineer = await member("engineer@caldrith.example");
   route = await import("../../app/api/portal/requests/route");
+  meRoute = await import("../../app/api/portal/me/route");
 }, 120_000);
 afterAll(() => t?.close());
 
@@ -90,5 +93,29 @@ describe("GET /api/portal/requests (the route)", () => {
     expect((await list(lead, `?q=${word}`)).body.total).toBe(1);
     await db.run(sql`update requests set notes = ${one!.notes} where id = ${one!.id}`);
     expect((await list(lead, `?q=${word}`)).body.total).toBe(0);
+  });
+});
+
+describe("GET /api/portal/me (who the static portal home draws for)", () => {
+  async function me(email: string | null) {
+    session.current = email ? { user: { id: (await member(email)).id } } : null;
+    const res = await meRoute.GET(new Request("http://localhost/api/portal/me"));
+    return { status: res.status, body: (await res.json()) as Record<string, unknown> };
+  }
+
+  it("answers the signed-in user's name, e-mail and role, and nothing else", async () => {
+    const lead = await me("lead@caldrith.example");
+    expect(lead.status).toBe(200);
+    expect(lead.body).toEqual({ name: expect.any(String), email: "lead@caldrith.example", role: "client_admin" });
+    expect((await me("engineer@caldrith.example")).body.role).toBe("client");
+  });
+
+  it("answers 401 signed out, and a disabled account is signed out", async () => {
+    expect((await me(null)).status).toBe(401);
+    const engineer = await member("engineer@caldrith.example");
+    await db.update(users).set({ disabledAt: new Date() }).where(eq(users.id, engineer.id));
+    expect((await me("engineer@caldrith.example")).status).toBe(401);
+    await db.update(users).set({ disabledAt: null }).where(eq(users.id, engineer.id));
+    expect((await me("engineer@caldrith.example")).status).toBe(200);
   });
 });

@@ -107,7 +107,7 @@ describe("a session ends everywhere, through the token memory", () => {
     const member = await signedIn("engineer@caldrith.example");
     expect(await whoIs(member)).toBe("engineer@caldrith.example");
     tokens.current = lead;
-    const { removeMember } = await import("../../app/(portal)/portal/firm/actions");
+    const { removeMember } = await import("../../app/(portal)/portal/(member)/firm/actions");
     expect(await removeMember({ userId: await userIdOf(db, "engineer@caldrith.example") })).toMatchObject({ ok: true });
     expect(await whoIs(member)).toBeNull();
     expect(await whoIs(lead)).toBe("lead@caldrith.example");

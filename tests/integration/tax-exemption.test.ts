@@ -58,7 +58,7 @@ describe("a tax-exemption certificate", () => {
   let certId: string;
 
   it("is sent by the firm's lead only; an expired one or someone else's file is refused and nothing is stored", async () => {
-    const { submitTaxExemption } = await import("../../app/(portal)/portal/firm/tax-actions");
+    const { submitTaxExemption } = await import("../../app/(portal)/portal/(member)/firm/tax-actions");
     const eng = await as("engineer@caldrith.example");
     expect(await submitTaxExemption({ certificateNumber: "RX-100", issuedBy: "US-ME revenue", expiresOn: day(200), uploadId: await pdfUpload(eng) })).toMatchObject({ ok: false, code: "forbidden" });
     const buyer = await as("buyer@bramblewake.example");
@@ -77,7 +77,7 @@ describe("a tax-exemption certificate", () => {
   it("pending, it frees nothing: the order carries the quote's tax", async () => {
     const { r, q } = await taxedQuote();
     await as("buyer@bramblewake.example");
-    const { acceptQuote } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { acceptQuote } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const res = await acceptQuote({ quoteId: q.id, poNumber: "BW-TX-0", acceptTerms: true });
     expect(res.ok, res.ok ? "" : res.message).toBe(true);
     const [order] = await db.select().from(orders).where(eq(orders.requestId, r.id));
@@ -99,7 +99,7 @@ describe("a tax-exemption certificate", () => {
   it("approved and unexpired: the order and its invoice carry no tax and say why", async () => {
     const { r, q } = await taxedQuote();
     await as("buyer@bramblewake.example");
-    const { acceptQuote } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { acceptQuote } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     const res = await acceptQuote({ quoteId: q.id, poNumber: "BW-TX-1", acceptTerms: true });
     expect(res.ok, res.ok ? "" : res.message).toBe(true);
     const [order] = await db.select().from(orders).where(eq(orders.requestId, r.id));
@@ -119,7 +119,7 @@ describe("a tax-exemption certificate", () => {
     expect(await getValidExemption(db, (await bw()).id, new Date())).toBeNull();
     const { r, q } = await taxedQuote();
     await as("buyer@bramblewake.example");
-    const { acceptQuote } = await import("../../app/(portal)/portal/requests/[id]/actions");
+    const { acceptQuote } = await import("../../app/(portal)/portal/(member)/requests/[id]/actions");
     expect((await acceptQuote({ quoteId: q.id, poNumber: "BW-TX-2", acceptTerms: true })).ok).toBe(true);
     const [order] = await db.select().from(orders).where(eq(orders.requestId, r.id));
     expect(order!.taxExemption).toBeNull();

@@ -2,7 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { useRef, useState } from "react";
-import { postMessage } from "@/app/(portal)/portal/requests/[id]/actions";
+import { postMessage } from "@/app/(portal)/portal/(member)/requests/[id]/actions";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { FormMessage, Textarea } from "@/components/ui/input";

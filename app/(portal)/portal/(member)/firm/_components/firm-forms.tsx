@@ -2,7 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { inviteMember, removeMember, saveBilling } from "@/app/(portal)/portal/firm/actions";
+import { inviteMember, removeMember, saveBilling } from "@/app/(portal)/portal/(member)/firm/actions";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input, Select } from "@/components/ui/input";

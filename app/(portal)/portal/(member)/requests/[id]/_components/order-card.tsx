@@ -2,7 +2,7 @@ import { INVOICE_STANDING_LABEL, INVOICE_STANDING_TONE, PAYMENT_TERMS_LABEL } fr
 import { invoiceStanding } from "@/lib/payments/terms";
 import type { getOrderByRequest, listPaymentsForOrder } from "@/db/queries/payments";
 import type { Stage } from "@/db/schema/common";
-import { FigureKind } from "@/app/(portal)/portal/requests/_components/estimate-panel";
+import { FigureKind } from "@/app/(portal)/portal/(member)/requests/_components/estimate-panel";
 import { PayButton, PaymentsList, TransferButton, TransferInstructions } from "./payments";
 import { ShipToBlock } from "@/components/ship-to";
 import { Badge } from "@/components/ui/badge";

@@ -1,7 +1,7 @@
 import { getDb } from "@/db/client";
 import type { getRequest } from "@/db/queries/requests";
-import { RequestForm } from "@/app/(portal)/portal/requests/_components/request-form/request-form";
-import { loadDraft, loadFormCatalogue } from "@/app/(portal)/portal/requests/_components/request-form/load";
+import { RequestForm } from "@/app/(portal)/portal/(member)/requests/_components/request-form/request-form";
+import { loadDraft, loadFormCatalogue } from "@/app/(portal)/portal/(member)/requests/_components/request-form/load";
 import { PageHeader } from "@/components/ui/card";
 
 type Request = NonNullable<Awaited<ReturnType<typeof getRequest>>>;

@@ -2,7 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { useState, useTransition } from "react";
-import { submitTaxExemption } from "@/app/(portal)/portal/firm/tax-actions";
+import { submitTaxExemption } from "@/app/(portal)/portal/(member)/firm/tax-actions";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input } from "@/components/ui/input";

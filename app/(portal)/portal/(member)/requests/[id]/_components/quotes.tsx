@@ -1,16 +1,16 @@
 "use client";
 
 import { useState } from "react";
-import { acceptQuote } from "@/app/(portal)/portal/requests/[id]/actions";
+import { acceptQuote } from "@/app/(portal)/portal/(member)/requests/[id]/actions";
 import { QuoteStateBadge } from "@/components/stage-badge";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { Card, CardTitle, EmptyState } from "@/components/ui/card";
 import { Field, FormMessage, Input } from "@/components/ui/input";
 import { formatCents } from "@/lib/money";
-import { CostLines, lineQuantity } from "@/app/(portal)/portal/requests/_components/cost-lines";
+import { CostLines, lineQuantity } from "@/app/(portal)/portal/(member)/requests/_components/cost-lines";
 import { PdfUpload } from "@/components/portal/pdf-upload";
-import { FigureKind } from "@/app/(portal)/portal/requests/_components/estimate-panel";
+import { FigureKind } from "@/app/(portal)/portal/(member)/requests/_components/estimate-panel";
 import { day, instantDay, quoteChanges, type QuoteView } from "./quote-changes";
 import { PayByPicker, ShipToPicker, type AcceptanceView, type PayBy, type ShipToChoice } from "./accept-choices";
 import { spreadMargin } from "@/lib/quoting/client-lines";

@@ -16,7 +16,7 @@ import type { Stage } from "@/db/schema/common";
 import { CheckoutReturn } from "./checkout-return";
 import { MessagesThread } from "./messages";
 import { QuotesSection } from "./quotes";
-import { loadFormCatalogue } from "@/app/(portal)/portal/requests/_components/request-form/load";
+import { loadFormCatalogue } from "@/app/(portal)/portal/(member)/requests/_components/request-form/load";
 import { StageBadge } from "@/components/stage-badge";
 import { StageTimeline } from "./timeline";
 import { listShipDateChanges } from "@/db/queries/ship-dates";

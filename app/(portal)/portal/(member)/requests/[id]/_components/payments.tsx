@@ -3,7 +3,7 @@
 import Link from "next/link";
 import { useState, useSyncExternalStore } from "react";
 import { useRouter } from "next/navigation";
-import { payByTransfer, payOrder } from "@/app/(portal)/portal/requests/[id]/actions";
+import { payByTransfer, payOrder } from "@/app/(portal)/portal/(member)/requests/[id]/actions";
 import { PaymentStateBadge } from "@/components/stage-badge";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/input";

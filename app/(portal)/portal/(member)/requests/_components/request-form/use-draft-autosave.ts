@@ -2,7 +2,7 @@
 
 import { useCallback, useEffect, useRef, useState } from "react";
 import { useWatch, type UseFormReturn } from "react-hook-form";
-import { saveDraft } from "@/app/(portal)/portal/requests/actions";
+import { saveDraft } from "@/app/(portal)/portal/(member)/requests/actions";
 import { draftSchema, type DraftInput } from "@/lib/validation/request";
 import type { PartFileState } from "./types";
 

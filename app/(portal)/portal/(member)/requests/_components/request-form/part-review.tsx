@@ -6,8 +6,8 @@ import { Button } from "@/components/ui/button";
 import { Card, CardTitle } from "@/components/ui/card";
 import type { EstimateResult } from "@/lib/estimating/types";
 import type { UnitsPref } from "@/lib/units";
-import { EstimatePanel } from "@/app/(portal)/portal/requests/_components/estimate-panel";
-import { LayerChart } from "@/app/(portal)/portal/requests/_components/layer-chart";
+import { EstimatePanel } from "@/app/(portal)/portal/(member)/requests/_components/estimate-panel";
+import { LayerChart } from "@/app/(portal)/portal/(member)/requests/_components/layer-chart";
 
 /** One part seen: 3D preview on its cell, the layer-time chart and the estimate. */
 export function PartReview({

@@ -2,9 +2,9 @@
 
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { attachPartFile } from "@/app/(portal)/portal/requests/actions";
-import { AnalysisStatus } from "@/app/(portal)/portal/requests/_components/request-form/analysis-status";
-import { ModelUpload } from "@/app/(portal)/portal/requests/_components/request-form/model-upload";
+import { attachPartFile } from "@/app/(portal)/portal/(member)/requests/actions";
+import { AnalysisStatus } from "@/app/(portal)/portal/(member)/requests/_components/request-form/analysis-status";
+import { ModelUpload } from "@/app/(portal)/portal/(member)/requests/_components/request-form/model-upload";
 
 /** A new revision of a submitted part's file: analysed again, and any quote marked stale. */
 export function RevisionUpload({ requestId, partId, fileName }: { requestId: string; partId: string; fileName: string | null }) {

@@ -2,7 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { addAddress, editAddress, makeDefaultShipTo, removeAddress } from "@/app/(portal)/portal/firm/address-actions";
+import { addAddress, editAddress, makeDefaultShipTo, removeAddress } from "@/app/(portal)/portal/(member)/firm/address-actions";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/input";

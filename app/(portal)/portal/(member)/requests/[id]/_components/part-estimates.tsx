@@ -1,7 +1,7 @@
 import type { listPartsWithAnalysis } from "@/db/queries/parts";
-import type { loadFormCatalogue } from "@/app/(portal)/portal/requests/_components/request-form/load";
+import type { loadFormCatalogue } from "@/app/(portal)/portal/(member)/requests/_components/request-form/load";
 import { clientEstimateOf } from "@/lib/estimating/client-view";
-import { PartReview } from "@/app/(portal)/portal/requests/_components/request-form/part-review";
+import { PartReview } from "@/app/(portal)/portal/(member)/requests/_components/request-form/part-review";
 import { RevisionUpload } from "./revision-upload";
 import { Card, CardTitle, EmptyState } from "@/components/ui/card";
 import type { EstimateResult } from "@/lib/estimating/types";

@@ -4,7 +4,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
 import { useCallback, useState } from "react";
 import { FormProvider, useFieldArray, useForm, useWatch } from "react-hook-form";
-import { attachPartFile, submitRequest } from "@/app/(portal)/portal/requests/actions";
+import { attachPartFile, submitRequest } from "@/app/(portal)/portal/(member)/requests/actions";
 import { Button } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/card";
 import { FormMessage } from "@/components/ui/input";

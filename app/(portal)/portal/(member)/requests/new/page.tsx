@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { getDb } from "@/db/client";
-import { RequestForm } from "@/app/(portal)/portal/requests/_components/request-form/request-form";
-import { blankDraft, loadFormCatalogue } from "@/app/(portal)/portal/requests/_components/request-form/load";
+import { RequestForm } from "@/app/(portal)/portal/(member)/requests/_components/request-form/request-form";
+import { blankDraft, loadFormCatalogue } from "@/app/(portal)/portal/(member)/requests/_components/request-form/load";
 import { PageHeader } from "@/components/ui/card";
 import { pagePermission } from "@/lib/auth/page-guard";
 
