@@ -100,7 +100,13 @@ interface Reader {
   statements: Map<string, Database.Statement>;
 }
 
-const readers = new WeakMap<Db, Reader>();
+/**
+ * On globalThis, as the database itself is (`getDb`): the production build bundles this module
+ * into many server chunks (routes, pages, instrumentation), each its own copy, and a reader kept
+ * in one copy's map was not found from the others, whose reads then went through the async client
+ * and prepared their statement again on every call.
+ */
+const readers = ((globalThis as unknown as { layerwrightReaders?: WeakMap<Db, Reader> }).layerwrightReaders ??= new WeakMap<Db, Reader>());
 /** Distinct statements kept per connection (the code's own SQL, a few dozen shapes). */
 const MAX_STATEMENTS = 256;
 
