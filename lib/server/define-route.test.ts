@@ -1,10 +1,11 @@
 import { describe, expect, it, vi } from "vitest";
 import { z } from "zod";
+import type * as RequestId from "@/lib/observability/request-id";
 
 vi.mock("@/db/client", () => ({ getDb: () => ({}) }));
 const logged: { requestId: string | null }[] = [];
 vi.mock("@/lib/observability/request-id", async (importOriginal) => {
-  const real = await importOriginal<typeof import("@/lib/observability/request-id")>();
+  const real = await importOriginal<typeof RequestId>();
   // The log line's request id, as the real requestLog would bind it.
   return { ...real, requestLog: async () => ({ error: async () => logged.push({ requestId: await real.currentRequestId() }) }) };
 });
