@@ -81,7 +81,7 @@ async function call(s: Session, label: string, p: string, init: RequestInit = {}
 
 const json = (body: unknown): RequestInit => ({ method: "POST", headers: { "content-type": "application/json" }, body: typeof body === "string" ? body : JSON.stringify(body) });
 
-const PORTAL_GETS = ["/api/portal/requests", "/api/portal/requests/ID", "/api/portal/requests/ID/documents", "/api/portal/analyses/ID", "/api/portal/revisions/ID/mesh", "/api/files/ID", "/api/documents/ID"];
+const PORTAL_GETS = ["/api/portal/me", "/api/portal/requests", "/api/portal/requests/ID", "/api/portal/requests/ID/documents", "/api/portal/analyses/ID", "/api/portal/revisions/ID/mesh", "/api/files/ID", "/api/documents/ID"];
 const ADMIN_GETS = ["audit", "board", "calendar", "catalogue", "inbox", "ledger", "ledger/export", "quotes", "reconciliation", "reports/actuals", "staff"].map((p) => `/api/admin/${p}`);
 
 describe("route handlers", () => {
