@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { box, bracket, layupMold, merge, toMesh, torus, translate, uvSphere } from "../../mocks/fixtures/meshes";
-import { indexSoup, scaleIndexed, toSoup, VertexIndexer, WorkArena } from "./indexed";
+import { indexSoup, scaleIndexed, toSoup, VertexIndexer } from "./indexed";
+import { WorkArena } from "./work-arena";
 import { measure, weld } from "./measure";
 import type { Mesh } from "./types";
 

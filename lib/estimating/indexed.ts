@@ -1,4 +1,5 @@
 import type { Mesh } from "./types";
+import { adoptArena, arenaWords, WorkArena } from "./work-arena";
 
 /**
  * A triangle mesh as its distinct corner positions and three of them per triangle. "Distinct"
@@ -154,7 +155,7 @@ export class VertexIndexer {
     this.table = new Int32Array(0);
     const mesh = { vertices: this.vertices.subarray(0, this.vertexCount * 3), indices: this.indices, vertexCount: this.vertexCount, triangleCount: this.triangleCount };
     // the table's block becomes the mesh's work arena when it is large enough (a closed mesh's is)
-    if (this.arena.words >= arenaWords(mesh.triangleCount, mesh.vertexCount)) arenas.set(mesh, this.arena);
+    if (this.arena.words >= arenaWords(mesh.triangleCount, mesh.vertexCount)) adoptArena(mesh, this.arena);
     return mesh;
   }
 }
@@ -219,44 +220,4 @@ export function scaleIndexed(m: IndexedMesh, s: number): IndexedMesh {
   const indices = m.indices;
   for (let i = 0; i < indices.length; i++) indices[i] = to[indices[i]!]!;
   return { vertices: p.subarray(0, kept * 3), indices, vertexCount: kept, triangleCount: m.triangleCount };
-}
-
-/**
- * One block of memory for the work arrays of the stages that follow each other on a mesh
- * (weld, topology, then slicing along each axis): each stage takes its arrays from the block
- * and is done with them before the next stage starts, so the same pages serve them all instead
- * of fresh memory for each. Sized up front for the largest stage (topology, about 4 words a triangle);
- * pages never written are never mapped. Held while the mesh lives (a WeakMap).
- */
-export class WorkArena {
-  private buffer: ArrayBuffer;
-  constructor(words: number) { this.buffer = new ArrayBuffer(words * 4); }
-
-  get words(): number { return this.buffer.byteLength / 4; }
-
-  /**
-   * Int32 arrays of these lengths laid end to end in the block (grown when too small). Their
-   * contents are whatever the previous stage left: fill what you read before writing. The arrays
-   * of an earlier call share the memory: use them no more.
-   */
-  int32(...lengths: number[]): Int32Array[] {
-    const words = lengths.reduce((a, b) => a + b, 0);
-    if (words * 4 > this.buffer.byteLength) this.buffer = new ArrayBuffer(words * 4);
-    const out: Int32Array[] = [];
-    let at = 0;
-    for (const len of lengths) { out.push(new Int32Array(this.buffer, at * 4, len)); at += len; }
-    return out;
-  }
-}
-
-const arenas = new WeakMap<IndexedMesh, WorkArena>();
-
-/** Words of a mesh's work arena: topology's 3 a triangle + 2 a vertex (weld takes fewer; slicing 1 a triangle). */
-const arenaWords = (triangles: number, vertices: number) => 3 * triangles + 2 * vertices + 1024;
-
-/** The mesh's work arena (the indexer's, when the mesh was built by one and it is large enough). */
-export function workArena(m: IndexedMesh): WorkArena {
-  let a = arenas.get(m);
-  if (!a) { a = new WorkArena(arenaWords(m.triangleCount, m.vertexCount)); arenas.set(m, a); }
-  return a;
 }

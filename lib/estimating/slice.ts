@@ -1,4 +1,5 @@
-import { toIndexed, workArena, type IndexedMesh } from "./indexed";
+import { toIndexed, type IndexedMesh } from "./indexed";
+import { workArena } from "./work-arena";
 import type { Mesh } from "./types";
 
 /**
