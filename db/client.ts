@@ -98,6 +98,8 @@ interface Reader {
   timeoutMs: number;
   conn?: Database.Database;
   statements: Map<string, Database.Statement>;
+  /** `pragma data_version`, prepared once. */
+  version?: Database.Statement;
 }
 
 /**
@@ -136,6 +138,20 @@ export async function readRows<T extends Record<string, unknown>>(db: Db, sql: s
     r.statements.set(sql, stmt);
   }
   return stmt.all(...args) as T[];
+}
+
+/**
+ * A number that changes whenever another connection commits to the database file: this
+ * process's client, or another process (SQLite's `data_version`, read on the process's read
+ * connection, which never writes). An answer built from reads after this number was read may be
+ * served again while it is unchanged. Null when the database is not a local file: keep nothing.
+ */
+export function dataVersion(db: Db): number | null {
+  const r = readers.get(db);
+  if (!r) return null;
+  r.conn ??= new Database(r.file, { timeout: r.timeoutMs });
+  r.version ??= r.conn.prepare("pragma data_version");
+  return Number((r.version.get() as { data_version: number }).data_version);
 }
 
 const globalForDb = globalThis as unknown as { layerwrightDb?: { db: Db; client: Client } };

@@ -2,7 +2,7 @@ import { z } from "zod";
 import type { EstimateResult } from "@/lib/estimating/types";
 import { ROLES } from "@/db/schema/common";
 import { STAGE_LABEL } from "@/lib/labels";
-import { keysOf, wireDate } from "./wire";
+import { keysOf, listAnswer, wireDate } from "./wire";
 
 /** The portal's polled routes, as sent (app/api/portal/**), shared with the hooks that poll them. */
 
@@ -38,3 +38,21 @@ export const portalMe = z.object({
   role: z.enum(ROLES),
 });
 export type PortalMe = z.infer<typeof portalMe>;
+
+/** GET /api/portal/requests: the firm's (or the client's own) requests, a page at a time. */
+export const portalListRow = z.object({
+  id: z.string(),
+  reference: z.string(),
+  projectName: z.string(),
+  stage: keysOf(STAGE_LABEL),
+  neededBy: wireDate.nullable(),
+  updatedAt: wireDate,
+  isControlled: z.boolean(),
+  createdByName: z.string().nullable(),
+  partCount: z.number().int(),
+  totalCents: z.number().int().nullable(),
+  hasOrder: z.boolean(),
+});
+export const portalList = listAnswer(portalListRow).extend({ nextCursor: z.string().nullable() });
+export type PortalListRow = z.infer<typeof portalListRow>;
+export type PortalList = z.infer<typeof portalList>;

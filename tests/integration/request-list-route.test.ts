@@ -85,6 +85,23 @@ describe("GET /api/portal/requests (the route)", () => {
     expect((await list(engineer)).body.total).toBe(ownBefore);
   });
 
+  it("serves the same answer again while nothing is committed, and a committed change at once (a project renamed, which no counter watches)", async () => {
+    const { dataVersion } = await import("../../db/client");
+    const before = dataVersion(db);
+    expect(before).not.toBeNull();
+    const first = await list(lead, "?limit=10&sort=reference&dir=asc");
+    const again = await list(lead, "?limit=10&sort=reference&dir=asc");
+    expect(again.body).toEqual(first.body);
+    expect(dataVersion(db)).toBe(before); // nothing in the request's path writes
+    const row = first.body.rows[0]!;
+    await db.update(requests).set({ projectName: "Renamed while listed" }).where(eq(requests.id, String(row.id)));
+    expect(dataVersion(db)).not.toBe(before);
+    const after = await list(lead, "?limit=10&sort=reference&dir=asc");
+    expect(after.body.rows[0]).toMatchObject({ id: row.id, projectName: "Renamed while listed" });
+    await db.update(requests).set({ projectName: String(row.projectName) }).where(eq(requests.id, String(row.id)));
+    expect((await list(lead, "?limit=10&sort=reference&dir=asc")).body.rows[0]).toMatchObject({ projectName: row.projectName });
+  });
+
   it("counts a search afresh every time, notes included (the change counter does not watch notes)", async () => {
     const [one] = await db.select({ id: requests.id, notes: requests.notes }).from(requests).where(eq(requests.orgId, lead.orgId)).limit(1);
     const word = "zqxmarkerword";

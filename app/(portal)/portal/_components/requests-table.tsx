@@ -7,27 +7,15 @@ import { useEffect, useMemo, useState } from "react";
 import { DataTable, type ColumnDef, type ColumnFiltersState, type SortingState } from "@/components/data-table";
 import { ButtonLink } from "@/components/ui/button";
 import { Badge } from "@/components/ui/badge";
-import { STAGES, type Stage } from "@/db/schema/common";
+import { STAGES } from "@/db/schema/common";
 import { formatCents } from "@/lib/money";
 import { fetchJson } from "@/components/portal/query-provider";
 import { StageBadge } from "@/components/stage-badge";
 import { STAGE_LABEL } from "@/lib/labels";
 import { formatDate, formatDay } from "@/lib/dates";
+import type { PortalList, PortalListRow } from "@/lib/contracts/portal";
 
-export interface PortalRow {
-  id: string;
-  reference: string;
-  projectName: string;
-  stage: Stage;
-  neededBy: string | null;
-  updatedAt: string;
-  isControlled: boolean;
-  createdByName: string | null;
-  partCount: number;
-  totalCents: number | null;
-  hasOrder: boolean;
-}
-
+export type PortalRow = PortalListRow;
 
 
 /** The client home: the firm's requests and orders, sorted, filtered and searched by the API. */
@@ -49,7 +37,7 @@ export function RequestsTable({ showAuthor }: { showAuthor: boolean }) {
 
   const query = useQuery({
     queryKey: ["portal-requests", params.toString()],
-    queryFn: () => fetchJson<{ rows: PortalRow[]; total: number }>(`/api/portal/requests?${params}`),
+    queryFn: () => fetchJson<PortalList>(`/api/portal/requests?${params}`),
     placeholderData: keepPreviousData,
   });
 
