@@ -2,11 +2,11 @@
  * The estimate's plain-data result: what the CLI prints and the API returns, per piece, the
  * alternatives and the delivery choices. Same units-in-names rule as ./types.ts.
  */
-import type { Crate, FreightQuote } from "./freight";
+import type { Pricing } from "./pricing";
 import type { Axis, CellFit, CostLine, EstimateWarning, LengthUnit, MeshFormat, Orientation, SplitSuggestion } from "./types";
 
 /** The JSON the CLI prints and the API returns. Plain data only. */
-export interface EstimateResult {
+export interface EstimateResult extends Pricing {
   kind: "estimate";
   fileName: string;
   format: MeshFormat;
@@ -93,15 +93,7 @@ export interface EstimateResult {
   };
   machiningHours: number;
   quantity: number;
-  lines: CostLine[];
-  subtotalCents: number;
-  marginCents: number;
-  taxCents: number;
-  totalCents: number;
-  depositCents: number;
-  balanceCents: number;
-  /** The crate and its freight to the destination zone it was priced for (cards with a zone table). */
-  crate?: Crate & { freight: FreightQuote };
+  // lines, subtotal, margin, tax, total, deposit, balance and the crate: the price (Pricing, ../pricing)
   validUntil: string;
   schedule: {
     queueHours: number;
