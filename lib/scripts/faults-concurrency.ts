@@ -53,7 +53,7 @@ export async function concurrentWrites(stack: HardStack, opts: { wrongSignIns?: 
     const poster = new Session(stack.baseUrl);
     if (!(await poster.signIn(CLIENTS[0]!.email, CLIENTS[0]!.password)).ok) throw new Error("the poster could not sign in");
     const request = String((await db.execute({ sql: "SELECT r.id FROM requests r JOIN users u ON u.id = r.created_by_id WHERE u.email = ? ORDER BY r.reference LIMIT 1", args: [CLIENTS[0]!.email] })).rows[0]!.id);
-    const postMessage = listActions(stack.distDir).find((a) => a.name === "postMessage" && a.file.includes("portal/requests/[id]"));
+    const postMessage = listActions(stack.distDir).find((a) => a.name === "postMessage" && /portal\/(\([^/)]+\)\/)?requests\/\[id\]\//.test(a.file));
     if (!postMessage) throw new Error("postMessage action not found in the build");
     const messagePath = `/portal/requests/${request}`;
 
