@@ -91,5 +91,5 @@ export async function orderContext(q: Q, orderId: string) {
   const taxNote = taxNoteOf(order.taxExemption);
   /** What every order document's head says: who issues it, to whom, for which request and order. */
   const head = { bureau: bureauParty(), client, taxNote, requestId: request.id, orgId: request.orgId, reference: request.reference, projectName: request.projectName, poNumber: order.poNumber };
-  return { order, request, firm, quote, lines: orderLines, totals, quoteNumber: quoteDoc?.number ?? null, shipTo, taxNote, client, head };
+  return { order, request, firm, quote, lines: orderLines, totals, quoteNumber: quoteDoc?.number ?? null, shipTo, client, head };
 }

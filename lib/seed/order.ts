@@ -98,7 +98,7 @@ async function seedOrder(tx: Tx, ctx: SeedContext, q: SeededRequest, quoteId: st
       createdAt: new Date(created.getTime() + 1.5 * DAY),
     })
     .returning({ id: s.orders.id });
-  await seedOrderPayments(tx, ctx, q, order!.id, depositCents);
+  await seedOrderPayments(tx, ctx, q, order!.id, depositCents, onAccount);
   if (scheduled) {
     const blocks = scheduleFrom(result, printStartFor(q.effective, result, ctx.now));
     await tx.insert(s.scheduleBlocks).values(blocks.map((b) => ({ orderId: order!.id, cellKey: result.cell, ...b })));
@@ -106,9 +106,8 @@ async function seedOrder(tx: Tx, ctx: SeedContext, q: SeededRequest, quoteId: st
 }
 
 /** Deposit (card, bank transfer, or none on account) and, once shipped, the balance or the account invoice. */
-async function seedOrderPayments(tx: Tx, ctx: SeedContext, q: SeededRequest, orderId: string, depositCents: number) {
+async function seedOrderPayments(tx: Tx, ctx: SeedContext, q: SeededRequest, orderId: string, depositCents: number, onAccount: (typeof FIRM_TERMS)[keyof typeof FIRM_TERMS]) {
   const { result, created, reached, n, demo, orgId, authorId } = q;
-  const onAccount = demo.payment === "account" ? FIRM_TERMS[demo.firm] : undefined;
   const paid = reached >= FLOW.indexOf("deposit_paid");
   if (demo.payment === "transfer") {
     // The deposit paid by bank transfer: matched by its reference when it arrived; no card charge at the processor.

@@ -4,6 +4,7 @@ import type { Db } from "../../db/client";
 import { memberships, requests, users } from "../../db/schema";
 import type * as ListRoute from "../../app/api/portal/requests/route";
 import type * as MeRoute from "../../app/api/portal/me/route";
+import type * as RequestQueries from "../../db/queries/requests";
 import { growOrders } from "../../lib/scripts/grow-orders";
 import { createTestDb, type TestDb } from "../helpers/test-db";
 import { dbRef, session } from "../support/integration";
@@ -11,6 +12,11 @@ import { dbRef, session } from "../support/integration";
 vi.mock("@/lib/auth/config", async () => (await import("../support/integration")).authConfigMock);
 vi.mock("@/lib/auth/session", async () => (await import("../support/integration")).sessionMock);
 vi.mock("@/db/client", async (importOriginal) => (await import("../support/integration")).dbClientMock(importOriginal));
+// The list's query, counted, so a reused answer can be told from one built again.
+vi.mock("@/db/queries/requests", async (importOriginal) => {
+  const real = await importOriginal<typeof RequestQueries>();
+  return { ...real, listRequestsForScope: vi.fn(real.listRequestsForScope) };
+});
 
 interface Answer { total: number; nextCursor: string | null; rows: Record<string, unknown>[] }
 
@@ -89,14 +95,19 @@ describe("GET /api/portal/requests (the route)", () => {
     const { dataVersion } = await import("../../db/client");
     const before = dataVersion(db);
     expect(before).not.toBeNull();
+    const { listRequestsForScope } = await import("@/db/queries/requests");
+    const built = vi.mocked(listRequestsForScope);
     const first = await list(lead, "?limit=10&sort=reference&dir=asc");
+    const builds = built.mock.calls.length;
     const again = await list(lead, "?limit=10&sort=reference&dir=asc");
     expect(again.body).toEqual(first.body);
+    expect(built.mock.calls.length).toBe(builds); // served again, not built again
     expect(dataVersion(db)).toBe(before); // nothing in the request's path writes
     const row = first.body.rows[0]!;
     await db.update(requests).set({ projectName: "Renamed while listed" }).where(eq(requests.id, String(row.id)));
     expect(dataVersion(db)).not.toBe(before);
     const after = await list(lead, "?limit=10&sort=reference&dir=asc");
+    expect(built.mock.calls.length).toBe(builds + 1);
     expect(after.body.rows[0]).toMatchObject({ id: row.id, projectName: "Renamed while listed" });
     await db.update(requests).set({ projectName: String(row.projectName) }).where(eq(requests.id, String(row.id)));
     expect((await list(lead, "?limit=10&sort=reference&dir=asc")).body.rows[0]).toMatchObject({ projectName: row.projectName });

@@ -13,8 +13,6 @@ import { formatDate } from "@/lib/dates";
 type Order = NonNullable<Awaited<ReturnType<typeof getOrderByRequest>>>;
 type Payment = Awaited<ReturnType<typeof listPaymentsForOrder>>[number];
 
-const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null);
-
 /** The order's figures, how it is paid (card, transfer or account), where it ships and its payments. */
 export function OrderCard({ order, payments, stage, canPay }: { order: Order; payments: Payment[]; stage: Stage; canPay: boolean }) {
   const onAccount = order.paymentTerms !== "prepay";
@@ -77,7 +75,7 @@ export function OrderCard({ order, payments, stage, canPay }: { order: Order; pa
           {order.trackingNumber ? `, tracking ${order.trackingNumber}` : ""}.
         </p>
       ) : null}
-      <PaymentsList payments={payments.map((p) => ({ id: p.id, kind: p.kind, method: p.method, status: p.status, receiptNumber: p.receiptNumber, amountCents: p.amountCents, currency: p.currency, createdAt: p.createdAt.toISOString(), paidAt: iso(p.paidAt) }))} />
+      <PaymentsList payments={payments.map((p) => ({ id: p.id, kind: p.kind, method: p.method, status: p.status, receiptNumber: p.receiptNumber, amountCents: p.amountCents, currency: p.currency, createdAt: p.createdAt.toISOString(), paidAt: p.paidAt?.toISOString() ?? null }))} />
     </Card>
   );
 }
